@@ -1,0 +1,2 @@
+export * from './companies';
+export * from './users';

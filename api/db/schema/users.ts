@@ -1,0 +1,30 @@
+import { index, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { id, timestamps } from './columns';
+import { companies } from './companies';
+
+export const userRole = pgEnum('user_role', ['owner', 'technician', 'admin']);
+export const userStatus = pgEnum('user_status', ['active', 'deactivated']);
+
+export const users = pgTable(
+  'users',
+  {
+    id: id(),
+    companyId: uuid('company_id')
+      .notNull()
+      .references(() => companies.id, { onDelete: 'restrict' }),
+    /** A person is (issuer, subject) at their identity provider; e-mail is only contact data. */
+    issuer: text('issuer').notNull(),
+    subject: text('subject').notNull(),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    role: userRole('role').notNull(),
+    status: userStatus('status').notNull().default('active'),
+    timeZone: text('time_zone'),
+    deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [
+    uniqueIndex('users_identity_key').on(t.issuer, t.subject),
+    index('users_company_idx').on(t.companyId, t.role),
+  ],
+);

@@ -1,0 +1,41 @@
+import { loadEnvOrExit } from '../env';
+import { connectDatabase } from '../db/client';
+import { applyMigrations } from '../db/migrations';
+import { seedDemo } from '../db/seed/index';
+import { createLogger } from '../lib/logger';
+import { onShutdown, startServer } from '../server';
+import { openLocalDatabase } from './local-database';
+
+/**
+ * `npm start`: the whole demo on one machine — PostgreSQL, the stand-ins for the hosted
+ * services, then the app serving the built client. `--dev` adds Vite's dev server.
+ */
+async function main() {
+  const env = loadEnvOrExit();
+  const logger = createLogger(env.LOG_LEVEL);
+  const say = (line: string) => logger.info(line);
+  const steps: Array<() => Promise<void>> = [];
+  onShutdown(logger, steps);
+
+  const database = await openLocalDatabase(env, say);
+  steps.unshift(() => database.stop());
+
+  const seeding = connectDatabase(database.url, { max: 1 });
+  await applyMigrations(seeding.db);
+  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER });
+  await seeding.pool.end();
+
+  const server = await startServer({ env, databaseUrl: database.url, logger });
+  steps.unshift(() => server.close());
+  say(`Brinewatch is running at ${server.url}`);
+
+  if (process.argv.includes('--dev')) {
+    const { createServer } = await import('vite');
+    const vite = await createServer();
+    await vite.listen();
+    steps.unshift(() => vite.close());
+    say(`Vite dev server at http://localhost:${vite.config.server.port}`);
+  }
+}
+
+await main();

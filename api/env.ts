@@ -1,0 +1,56 @@
+import { z } from 'zod';
+
+const port = z.coerce.number().int().min(1).max(65535);
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: port.default(3000),
+  /** Public origin of the app, used for redirects, links in e-mails and the CSRF origin check. */
+  APP_ORIGIN: z.url().optional(),
+  /** When set, the app uses this server and starts no PostgreSQL of its own. */
+  DATABASE_URL: z
+    .string()
+    .refine((value) => /^postgres(ql)?:\/\/[^\s]+$/.test(value) && URL.canParse(value), {
+      message: 'must be a postgres:// URL',
+    })
+    .optional(),
+  PGPORT_LOCAL: port.default(54329),
+  DATA_DIR: z.string().min(1).default('.data'),
+  /** OpenID provider; the demo runs its own stand-in here. */
+  OIDC_ISSUER: z.url().default('http://127.0.0.1:3001'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+/** Reads the environment once; a bad value stops the start with one readable line per problem. */
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const result = envSchema.safeParse(source);
+  if (result.success) return result.data;
+  const lines = result.error.issues.map(
+    (issue) => `${issue.path.join('.') || 'environment'}: ${issue.message}`,
+  );
+  throw new EnvError(lines);
+}
+
+export class EnvError extends Error {
+  constructor(readonly problems: string[]) {
+    super(`Invalid environment: ${problems.join('; ')}`);
+    this.name = 'EnvError';
+  }
+}
+
+export function appOrigin(env: Env): string {
+  return env.APP_ORIGIN ?? `http://localhost:${env.PORT}`;
+}
+
+/** For entry points: parse, or print the one-line reason and exit non-zero. */
+export function loadEnvOrExit(source: NodeJS.ProcessEnv = process.env): Env {
+  try {
+    return parseEnv(source);
+  } catch (error) {
+    if (!(error instanceof EnvError)) throw error;
+    console.error(`Brinewatch cannot start: ${error.problems.join('; ')}`);
+    process.exit(1);
+  }
+}

@@ -1,0 +1,61 @@
+import js from '@eslint/js';
+import drizzle from 'eslint-plugin-drizzle';
+import importX from 'eslint-plugin-import-x';
+import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
+import jsxA11y from 'eslint-plugin-jsx-a11y';
+import reactHooks from 'eslint-plugin-react-hooks';
+import globals from 'globals';
+import tseslint from 'typescript-eslint';
+
+export default tseslint.config(
+  { ignores: ['dist/**', '.data/**', 'drizzle/**', 'node_modules/**', 'tests/artifacts/**', 'coverage/**'] },
+  js.configs.recommended,
+  ...tseslint.configs.recommended,
+  {
+    languageOptions: { globals: { ...globals.node, ...globals.browser } },
+    plugins: { 'import-x': importX },
+    settings: { 'import-x/resolver-next': [createTypeScriptImportResolver()] },
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
+      'import-x/no-duplicates': 'error',
+      // The direction of dependencies: shared ← api, shared ← web; api and web never meet.
+      'import-x/no-restricted-paths': [
+        'error',
+        {
+          zones: [
+            {
+              target: './shared',
+              from: ['./api', './web'],
+              message: 'shared/ is pure: it imports neither api/ nor web/.',
+            },
+            { target: './web', from: './api', message: 'web/ talks to api/ over HTTP only.' },
+            { target: './api', from: './web', message: 'api/ never imports web/.' },
+          ],
+        },
+      ],
+      'no-restricted-syntax': [
+        'error',
+        { selector: 'ExportDefaultDeclaration', message: 'Use named exports.' },
+      ],
+    },
+  },
+  {
+    files: ['web/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks, 'jsx-a11y': jsxA11y },
+    rules: { ...reactHooks.configs.recommended.rules, ...jsxA11y.flatConfigs.recommended.rules },
+  },
+  {
+    files: ['api/**/*.ts'],
+    plugins: { drizzle },
+    rules: {
+      'drizzle/enforce-delete-with-where': ['error', { drizzleObjectName: ['db', 'tx'] }],
+      'drizzle/enforce-update-with-where': ['error', { drizzleObjectName: ['db', 'tx'] }],
+    },
+  },
+  {
+    // Tool configs and test global setups are loaded by their tools as default exports.
+    files: ['*.config.{js,ts}', 'tests/helpers/global-*.ts', '**/*.d.ts'],
+    rules: { 'no-restricted-syntax': 'off' },
+  },
+);

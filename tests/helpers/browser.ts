@@ -1,0 +1,90 @@
+import { mkdirSync, readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { inject } from 'vitest';
+import { chromiumPath } from './chromium';
+
+const require = createRequire(import.meta.url);
+const axeSource = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
+export const artifactsDir = path.resolve('tests/artifacts');
+
+export const viewports = {
+  phone: { width: 390, height: 844 },
+  desktop: { width: 1280, height: 900 },
+} as const;
+
+export interface BrowserSession {
+  browser: Browser;
+  baseUrl: string;
+  newPage(viewport?: keyof typeof viewports): Promise<Page>;
+  close(): Promise<void>;
+}
+
+/** Debian's Chromium, headless, with no background traffic (Playwright gives it a new empty profile). */
+export async function openBrowser(): Promise<BrowserSession> {
+  const browser = await chromium.launch({
+    executablePath: chromiumPath,
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+  const baseUrl = inject('appUrl');
+  return {
+    browser,
+    baseUrl,
+    async newPage(viewport = 'desktop') {
+      const context = await browser.newContext({ viewport: viewports[viewport], baseURL: baseUrl });
+      return context.newPage();
+    },
+    async close() {
+      await browser.close();
+    },
+  };
+}
+
+export interface AxeViolation {
+  id: string;
+  impact: string | null;
+  help: string;
+  nodes: { target: string[] }[];
+}
+
+/** Runs axe-core (WCAG 2.x A/AA rules) in the page and returns what it found. */
+export async function axeViolations(page: Page): Promise<AxeViolation[]> {
+  // Evaluated over the DevTools protocol, so the page's strict CSP stays on during the check.
+  await page.evaluate(axeSource);
+  return page.evaluate(async () => {
+    const axe = (
+      window as unknown as {
+        axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> };
+      }
+    ).axe;
+    const result = await axe.run(document, {
+      runOnly: {
+        type: 'tag',
+        values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa', 'best-practice'],
+      },
+    });
+    return result.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.map((n) => ({ target: n.target })),
+    }));
+  });
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(artifactsDir, { recursive: true });
+  const file = path.join(artifactsDir, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}

@@ -1,0 +1,49 @@
+import { Link, NavLink, Outlet, useNavigation } from 'react-router';
+import { BrandMark } from '../components/brand-mark';
+
+const navLinkClass = ({ isActive }: { isActive: boolean }) =>
+  `rounded-md px-3 py-2 text-sm font-bold no-underline transition-colors ${
+    isActive ? 'bg-ink-800 text-white' : 'text-ink-100 hover:bg-ink-800 hover:text-white'
+  }`;
+
+export function RootLayout() {
+  const navigation = useNavigation();
+  return (
+    <div className="flex min-h-dvh flex-col">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2"
+      >
+        Skip to content
+      </a>
+      <header className="bg-ink-900 text-white">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <Link to="/" className="flex items-center gap-2 text-white no-underline">
+            <BrandMark className="h-8 w-8" />
+            <span className="text-lg font-bold tracking-tight">Brinewatch</span>
+          </Link>
+          <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
+            <NavLink to="/" end className={navLinkClass}>
+              Home
+            </NavLink>
+          </nav>
+        </div>
+        {navigation.state === 'loading' && (
+          <div className="h-0.5 animate-pulse bg-brine-300" role="progressbar" aria-label="Loading page" />
+        )}
+      </header>
+      <main id="main" className="flex-1">
+        <Outlet />
+      </main>
+      <footer className="border-t border-ink-100 bg-white">
+        <div className="mx-auto flex max-w-6xl flex-col gap-2 px-4 py-6 text-sm text-ink-700 sm:flex-row sm:justify-between">
+          <p>Brinewatch — tank health between visits.</p>
+          <p>
+            Advice here is general. Electrical work near water is for a licensed electrician under local
+            codes.
+          </p>
+        </div>
+      </footer>
+    </div>
+  );
+}

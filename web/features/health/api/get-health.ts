@@ -1,0 +1,10 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Health } from '@shared/schemas/health';
+import { api } from '../../../lib/api-client';
+
+export const getHealth = (signal?: AbortSignal) => api<Health>('/health', { signal });
+
+export const healthQueryOptions = () =>
+  queryOptions({ queryKey: ['health'], queryFn: ({ signal }) => getHealth(signal), refetchInterval: 60_000 });
+
+export const useHealth = () => useQuery(healthQueryOptions());
