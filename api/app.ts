@@ -1,30 +1,26 @@
+import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
-import express, { type Request } from 'express';
+import express, { type RequestHandler } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
-import { randomUUID } from 'node:crypto';
-import type pg from 'pg';
-import type { Db } from './db/client';
-import type { Env } from './env';
-import type { Logger } from './lib/logger';
+import type { AppDeps } from './deps';
+import { appOrigin } from './env';
+import { loadActor } from './middleware/actor';
+import { sameOriginOnly } from './middleware/csrf';
 import { apiNotFound, errorHandler, requireContentType } from './middleware/error-handler';
-import { healthRouter } from './routes/health';
+import { createSessionMiddleware } from './middleware/session';
+import { authRouter } from './routes/auth';
+import { apiRouters, sessionlessRouters } from './routes/index';
 
-export interface AppDeps {
-  env: Env;
-  db: Db;
-  pool: pg.Pool;
-  logger: Logger;
-  /** Built client to serve; omitted in API-only tests and when Vite serves the client. */
-  webDist?: string;
-}
-
-export function depsOf(req: Request): AppDeps {
-  return req.app.locals.deps as AppDeps;
-}
+export type { AppDeps } from './deps';
 
 const requestIdPattern = /^[\w.-]{8,64}$/;
+
+const noStore: RequestHandler = (_req, res, next) => {
+  res.setHeader('Cache-Control', 'no-store');
+  next();
+};
 
 export function createApp(deps: AppDeps) {
   const app = express();
@@ -60,6 +56,8 @@ export function createApp(deps: AppDeps) {
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
           'worker-src': ["'self'"],
+          // The sign-in form posts to the identity provider and comes back through redirects.
+          'form-action': ["'self'", deps.env.OIDC_ISSUER],
           // Plain http on localhost in the demo: upgrading would break every request.
           'upgrade-insecure-requests': null,
         },
@@ -67,12 +65,19 @@ export function createApp(deps: AppDeps) {
     }),
   );
 
+  const sessions = createSessionMiddleware(deps.env, deps.pool);
+  const sameOrigin = sameOriginOnly(appOrigin(deps.env));
+
   const api = express.Router();
   api.use(requireContentType(['application/json', 'multipart/form-data']));
   api.use(express.json({ limit: '1mb' }));
-  api.use('/health', healthRouter);
+  api.use(noStore);
+  for (const [mountPath, router] of sessionlessRouters) api.use(mountPath, router);
+  api.use(sessions, sameOrigin, loadActor);
+  for (const [mountPath, router] of apiRouters) api.use(mountPath, router);
   api.use(apiNotFound);
   app.use('/api', api);
+  app.use('/auth', noStore, sessions, sameOrigin, authRouter);
 
   if (deps.webDist && existsSync(deps.webDist)) serveClient(app, deps.webDist);
 

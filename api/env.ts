@@ -18,19 +18,41 @@ const envSchema = z.object({
   DATA_DIR: z.string().min(1).default('.data'),
   /** OpenID provider; the demo runs its own stand-in here. */
   OIDC_ISSUER: z.url().default('http://127.0.0.1:3001'),
+  OIDC_CLIENT_ID: z.string().min(1).default('brinewatch-web'),
+  OIDC_CLIENT_SECRET: z.string().min(16).default('brinewatch-demo-client-secret'),
+  /** Signs the session cookie; list several (comma-separated) to rotate. */
+  SESSION_SECRET: z.string().min(32).default('brinewatch-demo-session-secret-change-me'),
+  SESSION_IDLE_MINUTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(8 * 60),
+  SESSION_ABSOLUTE_DAYS: z.coerce.number().int().positive().default(7),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: port.default(2525),
+  MAIL_FROM: z.string().min(3).default('Brinewatch <no-reply@driftglass.test>'),
+  /** The demo's mailbox page (the SMTP stand-in's viewer). */
+  MAILBOX_PORT: port.default(3025),
+  INVITATION_DAYS: z.coerce.number().int().positive().default(7),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
 export type Env = z.infer<typeof envSchema>;
 
+const demoSecrets = ['OIDC_CLIENT_SECRET', 'SESSION_SECRET'] as const;
+
 /** Reads the environment once; a bad value stops the start with one readable line per problem. */
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const result = envSchema.safeParse(source);
-  if (result.success) return result.data;
-  const lines = result.error.issues.map(
-    (issue) => `${issue.path.join('.') || 'environment'}: ${issue.message}`,
-  );
-  throw new EnvError(lines);
+  const lines = result.success
+    ? []
+    : result.error.issues.map((issue) => `${issue.path.join('.') || 'environment'}: ${issue.message}`);
+  // The demo's built-in secrets are public; production must bring its own.
+  if (source.NODE_ENV === 'production') {
+    for (const name of demoSecrets) if (!source[name]) lines.push(`${name}: required in production`);
+  }
+  if (!result.success || lines.length > 0) throw new EnvError(lines);
+  return result.data;
 }
 
 export class EnvError extends Error {

@@ -3,6 +3,7 @@ import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
+import { createDeps } from './deps';
 import { connectDatabase } from './db/client';
 import { applyMigrations } from './db/migrations';
 import { loadEnvOrExit, type Env } from './env';
@@ -27,13 +28,9 @@ export async function startServer(options: {
   const { env, logger } = options;
   const database = connectDatabase(options.databaseUrl);
   await applyMigrations(database.db);
-  const app = createApp({
-    env,
-    db: database.db,
-    pool: database.pool,
-    logger,
-    webDist: options.serveClient === false ? undefined : webDist,
-  });
+  const app = createApp(
+    createDeps({ env, database, logger, webDist: options.serveClient === false ? undefined : webDist }),
+  );
   const server = app.listen(options.port ?? env.PORT, '127.0.0.1');
   await once(server, 'listening');
   const { port } = server.address() as AddressInfo;

@@ -5,6 +5,7 @@ import { seedDemo } from '../db/seed/index';
 import { createLogger } from '../lib/logger';
 import { onShutdown, startServer } from '../server';
 import { openLocalDatabase } from './local-database';
+import { startStandIns } from './stand-ins';
 
 /**
  * `npm start`: the whole demo on one machine — PostgreSQL, the stand-ins for the hosted
@@ -24,6 +25,13 @@ async function main() {
   await applyMigrations(seeding.db);
   await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER });
   await seeding.pool.end();
+
+  const standIns = await startStandIns(env, { mailboxPort: env.MAILBOX_PORT });
+  steps.unshift(() => standIns.close());
+  say(`Identity provider stand-in at ${standIns.idp.issuer}`);
+  say(
+    `Mail stand-in: SMTP on 127.0.0.1:${standIns.mail.smtpPort}, mailbox at http://127.0.0.1:${standIns.mail.httpPort}`,
+  );
 
   const server = await startServer({ env, databaseUrl: database.url, logger });
   steps.unshift(() => server.close());

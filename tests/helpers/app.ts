@@ -1,4 +1,5 @@
 import { createApp } from '../../api/app';
+import { createDeps } from '../../api/deps';
 import { parseEnv, type Env } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
 import { createTestDatabase, type TestDatabase } from './db';
@@ -14,6 +15,6 @@ export interface TestApp {
 export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
   const database = await createTestDatabase();
   const env = parseEnv({ NODE_ENV: 'test', LOG_LEVEL: 'silent', DATABASE_URL: database.url, ...overrides });
-  const app = createApp({ env, db: database.db, pool: database.pool, logger: createLogger(env.LOG_LEVEL) });
+  const app = createApp(createDeps({ env, database, logger: createLogger(env.LOG_LEVEL) }));
   return { app, database, env, close: () => database.drop() };
 }

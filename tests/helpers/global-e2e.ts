@@ -2,6 +2,9 @@ import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
+import { connectDatabase } from '../../api/db/client';
+import { seedDemo } from '../../api/db/seed/index';
+import { startStandIns } from '../../api/dev/stand-ins';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
 import { startServer, webDist } from '../../api/server';
@@ -13,10 +16,14 @@ import { startTestCluster } from './global-db';
 declare module 'vitest' {
   export interface ProvidedContext {
     appUrl: string;
+    mailboxUrl: string;
   }
 }
 
-/** The whole product for the browser tests: a fresh database, the app and its built client. */
+/**
+ * The whole product for the browser tests, as `npm start` runs it but on free ports: a fresh
+ * seeded database, the identity provider and mail stand-ins, the app and its built client.
+ */
 export default async function setup(project: TestProject) {
   ensureChromium();
   if (!existsSync(path.join(webDist, 'index.html'))) {
@@ -24,18 +31,31 @@ export default async function setup(project: TestProject) {
   }
   const cluster = await startTestCluster();
   const database = await createDatabaseFrom(cluster.baseUrl);
-  const port = await freePort();
+  const [port, idpPort, smtpPort, mailboxPort] = await Promise.all([
+    freePort(),
+    freePort(),
+    freePort(),
+    freePort(),
+  ]);
   const env = parseEnv({
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
     PORT: String(port),
     DATABASE_URL: database.url,
+    OIDC_ISSUER: `http://127.0.0.1:${idpPort}`,
+    SMTP_PORT: String(smtpPort),
   });
+  const standIns = await startStandIns(env, { mailboxPort });
+  const seeding = connectDatabase(database.url, { max: 1 });
+  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER });
+  await seeding.pool.end();
   const server = await startServer({ env, databaseUrl: database.url, logger: createLogger('silent') });
   project.provide('appUrl', server.url);
+  project.provide('mailboxUrl', `http://127.0.0.1:${mailboxPort}`);
   project.provide('postgresBaseUrl', cluster.baseUrl);
   return async () => {
     await server.close();
+    await standIns.close();
     await database.drop();
     await cluster.stop();
   };

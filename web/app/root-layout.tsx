@@ -1,10 +1,35 @@
 import { Link, NavLink, Outlet, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
+import { useMe } from '../features/auth/api/get-me';
+import { UserMenu } from '../features/auth/components/user-menu';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
-  `rounded-md px-3 py-2 text-sm font-bold no-underline transition-colors ${
+  `inline-flex min-h-11 items-center rounded-md px-3 text-sm font-bold no-underline transition-colors ${
     isActive ? 'bg-ink-800 text-white' : 'text-ink-100 hover:bg-ink-800 hover:text-white'
   }`;
+
+function MainNav() {
+  const { data: me } = useMe();
+  const links: { to: string; label: string; end?: boolean }[] = [];
+  if (me?.role === 'owner') links.push({ to: '/tanks', label: 'My tanks' });
+  if (me && me.role !== 'owner') {
+    links.push({ to: '/console', label: 'Tanks', end: true }, { to: '/console/clients', label: 'Clients' });
+    if (me.role === 'admin') links.push({ to: '/console/staff', label: 'Staff' });
+  }
+  links.push({ to: '/calculators', label: 'Calculators' });
+  return (
+    <nav
+      aria-label="Main"
+      className="order-3 -mx-1 flex w-full flex-wrap items-center gap-1 sm:order-none sm:w-auto sm:flex-1"
+    >
+      {links.map((link) => (
+        <NavLink key={link.to} to={link.to} end={link.end} className={navLinkClass}>
+          {link.label}
+        </NavLink>
+      ))}
+    </nav>
+  );
+}
 
 export function RootLayout() {
   const navigation = useNavigation();
@@ -17,16 +42,13 @@ export function RootLayout() {
         Skip to content
       </a>
       <header className="bg-ink-900 text-white">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-x-6 gap-y-2 px-4 py-3">
           <Link to="/" className="flex items-center gap-2 text-white no-underline">
             <BrandMark className="h-8 w-8" />
             <span className="text-lg font-bold tracking-tight">Brinewatch</span>
           </Link>
-          <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
-            <NavLink to="/" end className={navLinkClass}>
-              Home
-            </NavLink>
-          </nav>
+          <MainNav />
+          <UserMenu />
         </div>
         {navigation.state === 'loading' && (
           <div className="h-0.5 animate-pulse bg-brine-300" role="progressbar" aria-label="Loading page" />

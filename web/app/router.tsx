@@ -1,6 +1,10 @@
 import { createBrowserRouter, RouterProvider } from 'react-router';
 import { RouteError } from '../components/route-error';
+import { RequireRole } from '../features/auth/components/require-role';
 import { RootLayout } from './root-layout';
+
+const everyone = ['owner', 'technician', 'admin'] as const;
+const staff = ['technician', 'admin'] as const;
 
 const router = createBrowserRouter([
   {
@@ -12,6 +16,60 @@ const router = createBrowserRouter([
         ErrorBoundary: RouteError,
         children: [
           { index: true, lazy: async () => ({ Component: (await import('./routes/landing')).LandingRoute }) },
+          {
+            path: 'calculators',
+            lazy: async () => ({ Component: (await import('./routes/calculators')).CalculatorsRoute }),
+          },
+          {
+            path: 'no-access',
+            lazy: async () => ({ Component: (await import('./routes/access-pages')).NoAccessRoute }),
+          },
+          {
+            path: 'sign-in-problem',
+            lazy: async () => ({ Component: (await import('./routes/access-pages')).SignInProblemRoute }),
+          },
+          {
+            path: 'invitation-invalid',
+            lazy: async () => ({ Component: (await import('./routes/access-pages')).InvitationInvalidRoute }),
+          },
+          {
+            path: 'tanks',
+            element: <RequireRole roles={everyone} />,
+            children: [
+              {
+                index: true,
+                lazy: async () => ({ Component: (await import('./routes/tanks')).MyTanksRoute }),
+              },
+            ],
+          },
+          {
+            path: 'console',
+            element: <RequireRole roles={staff} />,
+            children: [
+              {
+                index: true,
+                lazy: async () => ({ Component: (await import('./routes/console')).ConsoleHomeRoute }),
+              },
+              {
+                path: 'clients',
+                lazy: async () => ({
+                  Component: (await import('./routes/console-clients')).ConsoleClientsRoute,
+                }),
+              },
+              {
+                path: 'staff',
+                element: <RequireRole roles={['admin']} />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-staff')).ConsoleStaffRoute,
+                    }),
+                  },
+                ],
+              },
+            ],
+          },
           {
             path: '*',
             lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }),

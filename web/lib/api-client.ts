@@ -20,6 +20,8 @@ interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: unknown;
   signal?: AbortSignal;
+  /** Where `path` lives: the JSON API, or the sign-in routes beside it. */
+  root?: '/api' | '/auth';
 }
 
 async function errorFrom(response: Response): Promise<ApiError> {
@@ -43,7 +45,7 @@ async function errorFrom(response: Response): Promise<ApiError> {
 
 /** The one way the client talks to the API: same-origin, JSON, typed errors, no UI side effects. */
 export async function api<T>(path: string, options: RequestOptions = {}): Promise<T> {
-  const { method = 'GET', body, signal } = options;
+  const { method = 'GET', body, signal, root = '/api' } = options;
   const headers: Record<string, string> = { Accept: 'application/json' };
   // A header a cross-site form cannot send; the server refuses state changes without it.
   if (method !== 'GET') headers['X-Requested-With'] = 'brinewatch';
@@ -55,7 +57,7 @@ export async function api<T>(path: string, options: RequestOptions = {}): Promis
   }
   let response: Response;
   try {
-    response = await fetch(`/api${path}`, {
+    response = await fetch(`${root}${path}`, {
       method,
       headers,
       body: payload,

@@ -1,4 +1,4 @@
-import { QueryClient } from '@tanstack/react-query';
+import { QueryCache, QueryClient } from '@tanstack/react-query';
 import { ApiError } from './api-client';
 
 /** Retrying a 4xx only repeats the same answer; network blips and 5xx get two more tries. */
@@ -7,8 +7,17 @@ function shouldRetry(failureCount: number, error: unknown): boolean {
   return failureCount < 2;
 }
 
-export function createQueryClient() {
+/**
+ * `onUnauthenticated` runs when a query learns the session has ended (a 401): the app sends
+ * the person to sign in and back to where they were.
+ */
+export function createQueryClient(onUnauthenticated: () => void = () => {}) {
   return new QueryClient({
+    queryCache: new QueryCache({
+      onError: (error) => {
+        if (error instanceof ApiError && error.status === 401) onUnauthenticated();
+      },
+    }),
     defaultOptions: {
       queries: {
         staleTime: 30_000,

@@ -1,2 +1,5 @@
 export * from './companies';
+export * from './invitations';
+export * from './sessions';
+export * from './tanks';
 export * from './users';

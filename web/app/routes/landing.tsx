@@ -1,3 +1,6 @@
+import { Link } from 'react-router';
+import { useMe } from '../../features/auth/api/get-me';
+import { signInUrl } from '../../features/auth/sign-in-url';
 import { ServiceStatus } from '../../features/health/components/service-status';
 import { TankIllustration } from '../../features/landing/components/tank-illustration';
 
@@ -20,6 +23,30 @@ const promises = [
   },
 ];
 
+const actionClass =
+  'rounded-lg bg-brine-300 px-6 py-3 text-lg font-bold text-ink-950 no-underline hover:bg-brine-100';
+
+function FrontDoorAction() {
+  const { data: me, isPending } = useMe();
+  if (isPending) return <span className="h-12 w-32 animate-pulse rounded-lg bg-ink-800" aria-hidden="true" />;
+  if (me) {
+    const staff = me.role !== 'owner';
+    return (
+      <Link to={staff ? '/console' : '/tanks'} className={actionClass}>
+        {staff ? 'Open the company console' : 'See my tanks'}
+      </Link>
+    );
+  }
+  return (
+    <>
+      <a href={signInUrl('/')} className={actionClass}>
+        Sign in
+      </a>
+      <span className="text-sm text-ink-100">Your service company sends your invitation.</span>
+    </>
+  );
+}
+
 export function LandingRoute() {
   return (
     <>
@@ -32,13 +59,7 @@ export function LandingRoute() {
               report, and reach the team the moment something looks wrong.
             </p>
             <div className="mt-8 flex flex-wrap items-center gap-4">
-              <a
-                href="/auth/login"
-                className="rounded-lg bg-brine-300 px-6 py-3 text-lg font-bold text-ink-950 no-underline hover:bg-brine-100"
-              >
-                Sign in
-              </a>
-              <span className="text-sm text-ink-100">Your service company sends your invitation.</span>
+              <FrontDoorAction />
             </div>
           </div>
           <TankIllustration className="mx-auto w-full max-w-md" />

@@ -1,0 +1,54 @@
+import type { Request } from 'express';
+import type pg from 'pg';
+import type { Database, Db } from './db/client';
+import { appOrigin, type Env } from './env';
+import { systemClock, type Clock } from './lib/clock';
+import type { Logger } from './lib/logger';
+import { createMailer, type Mailer } from './lib/mailer';
+import { createOidcClient, type OidcClient } from './lib/oidc-client';
+
+/** Everything the app needs from outside, passed in so tests can hand over their own. */
+export interface AppDeps {
+  env: Env;
+  db: Db;
+  pool: pg.Pool;
+  logger: Logger;
+  clock: Clock;
+  oidc: OidcClient;
+  mailer: Mailer;
+  /** Built client to serve; omitted in API-only tests and when Vite serves the client. */
+  webDist?: string;
+}
+
+export function depsOf(req: Request): AppDeps {
+  return req.app.locals.deps as AppDeps;
+}
+
+/** The production wiring: clients for the identity provider and mail built from the environment. */
+export function createDeps(options: {
+  env: Env;
+  database: Database;
+  logger: Logger;
+  clock?: Clock;
+  webDist?: string;
+}): AppDeps {
+  const { env, database, logger, clock = systemClock } = options;
+  const origin = appOrigin(env);
+  return {
+    env,
+    db: database.db,
+    pool: database.pool,
+    logger,
+    clock,
+    oidc: createOidcClient({
+      issuer: env.OIDC_ISSUER,
+      clientId: env.OIDC_CLIENT_ID,
+      clientSecret: env.OIDC_CLIENT_SECRET,
+      redirectUri: `${origin}/auth/callback`,
+      postLogoutRedirectUri: `${origin}/`,
+      clock,
+    }),
+    mailer: createMailer({ host: env.SMTP_HOST, port: env.SMTP_PORT, from: env.MAIL_FROM }),
+    webDist: options.webDist,
+  };
+}

@@ -1,0 +1,53 @@
+import connectPgSimple from 'connect-pg-simple';
+import type { RequestHandler } from 'express';
+import session from 'express-session';
+import type pg from 'pg';
+import type { Env } from '../env';
+import type { PendingLogin } from '../lib/oidc-client';
+
+declare module 'express-session' {
+  interface SessionData {
+    userId: string;
+    /** Epoch ms of sign-in and of the last request: the absolute and idle limits start here. */
+    signedInAt: number;
+    lastSeenAt: number;
+    idToken: string;
+    pendingLogin: PendingLogin;
+    /** SHA-256 of an invitation token opened before signing in. */
+    pendingInvitation: string;
+    noAccess: { email: string | null; name: string | null; reason: string };
+  }
+}
+
+export const sessionCookieName = (secure: boolean) => (secure ? '__Host-bw_session' : 'bw_session');
+
+export function isHttps(env: Env) {
+  return (env.APP_ORIGIN ?? '').startsWith('https://');
+}
+
+/** Sessions live in PostgreSQL (connect-pg-simple), so every API process sees the same ones. */
+export function createSessionMiddleware(env: Env, pool: pg.Pool): RequestHandler {
+  const PgStore = connectPgSimple(session);
+  const secure = isHttps(env);
+  return session({
+    name: sessionCookieName(secure),
+    secret: env.SESSION_SECRET.split(','),
+    store: new PgStore({
+      pool,
+      tableName: 'session',
+      createTableIfMissing: false,
+      pruneSessionInterval: 15 * 60,
+    }),
+    resave: false,
+    saveUninitialized: false,
+    rolling: false,
+    proxy: secure,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure,
+      path: '/',
+      maxAge: env.SESSION_ABSOLUTE_DAYS * 24 * 60 * 60 * 1000,
+    },
+  });
+}

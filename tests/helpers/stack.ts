@@ -1,0 +1,179 @@
+import type { AddressInfo } from 'node:net';
+import { once } from 'node:events';
+import { generateKeyPairSync } from 'node:crypto';
+import { createApp } from '../../api/app';
+import { createDeps, type AppDeps } from '../../api/deps';
+import { startIdentityProvider, type RunningIdentityProvider } from '../../api/dev/identity-provider';
+import { startMailServer, type RunningMailServer } from '../../api/dev/mail-server';
+import { parseEnv } from '../../api/env';
+import { createLogger } from '../../api/lib/logger';
+import { createTestClock, type TestClock } from './clock';
+import { createTestDatabase, type TestDatabase } from './db';
+import { freePort } from './free-port';
+import type { TestPerson } from './factories';
+import { type HttpBrowser, location, readForm } from './http-browser';
+import { startTokenForgingProxy, type IdTokenTamper } from './token-forging-proxy';
+
+export const testClient = { clientId: 'brinewatch-web', clientSecret: 'test-client-secret-3f9a1c7e' };
+
+export interface TestStack {
+  origin: string;
+  app: ReturnType<typeof createApp>;
+  deps: AppDeps;
+  database: TestDatabase;
+  idp: RunningIdentityProvider;
+  mail: RunningMailServer;
+  clock: TestClock;
+  /** Headers a request from the app's own pages carries on a state change. */
+  sameOrigin: Record<string, string>;
+  /** With `forgingProxy`: the next ID token is re-signed with changed claims. */
+  forge: (tamper: IdTokenTamper, key?: 'provider' | 'stranger') => void;
+  close(): Promise<void>;
+}
+
+/**
+ * The app listening on a free port with its real neighbours: a fresh database, the identity
+ * provider stand-in and the SMTP stand-in. Nothing is mocked.
+ */
+export async function startTestStack(options: { forgingProxy?: boolean; env?: Record<string, string> } = {}) {
+  const database = await createTestDatabase();
+  const port = await freePort();
+  const origin = `http://localhost:${port}`;
+  const mail = await startMailServer({ smtpPort: 0 });
+  const clients = [
+    { ...testClient, redirectUris: [`${origin}/auth/callback`], postLogoutRedirectUris: [`${origin}/`] },
+  ];
+  let proxy: Awaited<ReturnType<typeof startTokenForgingProxy>> | null = null;
+  let idp: RunningIdentityProvider;
+  if (options.forgingProxy) {
+    const { privateKey } = generateKeyPairSync('rsa', { modulusLength: 2048 });
+    const signingJwk = { ...privateKey.export({ format: 'jwk' }), use: 'sig', alg: 'RS256' };
+    const proxyPort = await freePort();
+    const issuer = `http://127.0.0.1:${proxyPort}`;
+    idp = await startIdentityProvider({
+      port: 0,
+      accounts: [],
+      clients,
+      issuer,
+      signingKeys: { keys: [signingJwk] },
+    });
+    proxy = await startTokenForgingProxy({
+      upstream: `http://127.0.0.1:${idp.port}`,
+      port: proxyPort,
+      signingJwk,
+    });
+  } else {
+    idp = await startIdentityProvider({ port: 0, accounts: [], clients });
+  }
+  const env = parseEnv({
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'silent',
+    PORT: String(port),
+    APP_ORIGIN: origin,
+    DATABASE_URL: database.url,
+    OIDC_ISSUER: idp.issuer,
+    OIDC_CLIENT_ID: testClient.clientId,
+    OIDC_CLIENT_SECRET: testClient.clientSecret,
+    SMTP_PORT: String(mail.smtpPort),
+    ...options.env,
+  });
+  const clock = createTestClock();
+  const deps = createDeps({ env, database, logger: createLogger('silent'), clock: clock.now });
+  const app = createApp(deps);
+  const server = app.listen(port, '127.0.0.1');
+  await once(server, 'listening');
+  if ((server.address() as AddressInfo).port !== port) throw new Error('app did not get its port');
+
+  const stack: TestStack = {
+    origin,
+    app,
+    deps,
+    database,
+    idp,
+    mail,
+    clock,
+    sameOrigin: { origin, 'x-requested-with': 'brinewatch' },
+    forge:
+      proxy?.forgeNext ??
+      (() => {
+        throw new Error('start the stack with forgingProxy: true');
+      }),
+    async close() {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await proxy?.close();
+      await idp.close();
+      await mail.close();
+      await database.drop();
+    },
+  };
+  return stack;
+}
+
+/** Registers the person at the identity provider (once) so they can sign in. */
+export function enrol(stack: TestStack, person: TestPerson) {
+  stack.idp.addAccount({
+    sub: person.sub,
+    email: person.email,
+    name: person.name,
+    password: person.password,
+  });
+}
+
+/** Goes from the app's /auth/login to the provider's sign-in page; returns the page and its form. */
+export async function openSignInPage(stack: TestStack, browser: HttpBrowser, returnTo?: string) {
+  const login = await browser.visit(
+    `${stack.origin}/auth/login${returnTo ? `?returnTo=${encodeURIComponent(returnTo)}` : ''}`,
+  );
+  if (login.status !== 303) throw new Error(`login answered ${login.status}`);
+  const authorizationUrl = location(login, stack.origin);
+  const page = await browser.followWithin(stack.idp.issuer, authorizationUrl);
+  if (typeof page === 'string') throw new Error(`left the provider early: ${page}`);
+  const html = await page.text();
+  return { authorizationUrl, html, form: readForm(html, page.url || authorizationUrl) };
+}
+
+/** Submits the provider's form and follows it back to the app's callback URL (not visited). */
+export async function submitSignIn(
+  stack: TestStack,
+  browser: HttpBrowser,
+  action: string,
+  person: { email: string; password: string },
+): Promise<string> {
+  const submitted = await browser.postForm(action, { email: person.email, password: person.password });
+  if (submitted.status !== 303) throw new Error(`sign-in form answered ${submitted.status}`);
+  const callback = await browser.followWithin(stack.idp.issuer, location(submitted, action));
+  if (typeof callback !== 'string') throw new Error(`stopped at the provider with ${callback.status}`);
+  return callback;
+}
+
+/** The whole sign-in, as a browser does it; returns where the app sent the browser at the end. */
+export async function signIn(stack: TestStack, browser: HttpBrowser, person: TestPerson, returnTo?: string) {
+  enrolOnce(stack, person);
+  const login = await browser.visit(
+    `${stack.origin}/auth/login${returnTo ? `?returnTo=${encodeURIComponent(returnTo)}` : ''}`,
+  );
+  const authorizationUrl = location(login, stack.origin);
+  const page = await browser.followWithin(stack.idp.issuer, authorizationUrl);
+  // Still signed in at the provider: it sends the browser straight back.
+  const callback =
+    typeof page === 'string'
+      ? page
+      : await submitSignIn(
+          stack,
+          browser,
+          readForm(await page.text(), page.url || authorizationUrl).action,
+          person,
+        );
+  const done = await browser.visit(callback);
+  return done.status === 303 ? location(done, stack.origin) : `status ${done.status}`;
+}
+
+const enrolled = new WeakMap<TestStack, Set<string>>();
+function enrolOnce(stack: TestStack, person: TestPerson) {
+  const seen = enrolled.get(stack) ?? new Set<string>();
+  enrolled.set(stack, seen);
+  if (seen.has(person.sub)) return;
+  seen.add(person.sub);
+  enrol(stack, person);
+}

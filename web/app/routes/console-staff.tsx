@@ -1,0 +1,5 @@
+import { Page } from '../../components/page';
+
+export function ConsoleStaffRoute() {
+  return <Page title="Staff">{null}</Page>;
+}
