@@ -1,0 +1,41 @@
+import { describe, expect, it } from 'vitest';
+import { evaluateStaleDevice } from '@shared/alerts/stale-device';
+import { deviceStaleAfterMs } from '@shared/parameters/catalogue';
+import { createTestClock, minutes } from '../../helpers/clock';
+import { seriesStart } from './reading-series';
+
+describe('evaluateStaleDevice', () => {
+  it('treats a device as silent after 30 minutes without a reading', () => {
+    const clock = createTestClock(new Date(seriesStart));
+    const lastSeen = clock.now();
+
+    clock.advance(minutes(30));
+    const onTime = evaluateStaleDevice(lastSeen, clock.now());
+    clock.advance(1);
+    const late = evaluateStaleDevice(lastSeen, clock.now());
+
+    expect(deviceStaleAfterMs).toBe(minutes(30));
+    expect(onTime.stale).toBe(false);
+    expect(late.stale).toBe(true);
+  });
+
+  it('reports how long the device has been silent', () => {
+    const clock = createTestClock(new Date(seriesStart));
+    const lastSeen = clock.now();
+    clock.advance(minutes(45));
+
+    expect(evaluateStaleDevice(lastSeen, clock.now())).toEqual({
+      stale: true,
+      silentForMs: minutes(45),
+      staleAfterMs: minutes(30),
+    });
+  });
+
+  it('accepts a tank-specific interval', () => {
+    const clock = createTestClock(new Date(seriesStart));
+    const lastSeen = clock.now();
+    clock.advance(minutes(45));
+
+    expect(evaluateStaleDevice(lastSeen, clock.now(), minutes(60)).stale).toBe(false);
+  });
+});
