@@ -5,6 +5,7 @@ import { appOrigin, type Env } from './env';
 import { systemClock, type Clock } from './lib/clock';
 import type { Logger } from './lib/logger';
 import { createMailer, type Mailer } from './lib/mailer';
+import { createObjectStorage, type ObjectStorage } from './lib/object-storage';
 import { createOidcClient, type OidcClient } from './lib/oidc-client';
 
 /** Everything the app needs from outside, passed in so tests can hand over their own. */
@@ -16,6 +17,7 @@ export interface AppDeps {
   clock: Clock;
   oidc: OidcClient;
   mailer: Mailer;
+  storage: ObjectStorage;
   /** Built client to serve; omitted in API-only tests and when Vite serves the client. */
   webDist?: string;
 }
@@ -49,6 +51,14 @@ export function createDeps(options: {
       clock,
     }),
     mailer: createMailer({ host: env.SMTP_HOST, port: env.SMTP_PORT, from: env.MAIL_FROM }),
+    storage: createObjectStorage({
+      endpoint: env.S3_ENDPOINT,
+      region: env.S3_REGION,
+      bucket: env.S3_BUCKET,
+      accessKeyId: env.S3_ACCESS_KEY_ID,
+      secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+      forcePathStyle: true,
+    }),
     webDist: options.webDist,
   };
 }

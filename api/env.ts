@@ -31,6 +31,12 @@ const envSchema = z.object({
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
   SMTP_PORT: port.default(2525),
   MAIL_FROM: z.string().min(3).default('Brinewatch <no-reply@driftglass.test>'),
+  /** Object storage for photos (S3 API); the demo runs a local stand-in. */
+  S3_ENDPOINT: z.url().optional().default('http://127.0.0.1:4569'),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z.string().min(3).default('brinewatch-photos'),
+  S3_ACCESS_KEY_ID: z.string().min(1).default('S3RVER'),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default('S3RVER'),
   /** The demo's mailbox page (the SMTP stand-in's viewer). */
   MAILBOX_PORT: port.default(3025),
   INVITATION_DAYS: z.coerce.number().int().positive().default(7),

@@ -1,5 +1,6 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { connectDatabase } from '../../api/db/client';
@@ -31,12 +32,10 @@ export default async function setup(project: TestProject) {
   }
   const cluster = await startTestCluster();
   const database = await createDatabaseFrom(cluster.baseUrl);
-  const [port, idpPort, smtpPort, mailboxPort] = await Promise.all([
-    freePort(),
-    freePort(),
-    freePort(),
-    freePort(),
-  ]);
+  const [port, idpPort, smtpPort, mailboxPort, s3Port] = (await Promise.all(
+    Array.from({ length: 5 }, () => freePort()),
+  )) as [number, number, number, number, number];
+  const dataDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-e2e-'));
   const env = parseEnv({
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
@@ -44,6 +43,8 @@ export default async function setup(project: TestProject) {
     DATABASE_URL: database.url,
     OIDC_ISSUER: `http://127.0.0.1:${idpPort}`,
     SMTP_PORT: String(smtpPort),
+    S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
+    DATA_DIR: dataDir,
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
@@ -58,5 +59,6 @@ export default async function setup(project: TestProject) {
     await standIns.close();
     await database.drop();
     await cluster.stop();
+    rmSync(dataDir, { recursive: true, force: true });
   };
 }

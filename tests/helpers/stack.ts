@@ -1,10 +1,14 @@
 import type { AddressInfo } from 'node:net';
 import { once } from 'node:events';
 import { generateKeyPairSync } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { createApp } from '../../api/app';
 import { createDeps, type AppDeps } from '../../api/deps';
 import { startIdentityProvider, type RunningIdentityProvider } from '../../api/dev/identity-provider';
 import { startMailServer, type RunningMailServer } from '../../api/dev/mail-server';
+import { startObjectStorage } from '../../api/dev/object-storage';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
 import { createTestClock, type TestClock } from './clock';
@@ -40,6 +44,12 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
   const port = await freePort();
   const origin = `http://localhost:${port}`;
   const mail = await startMailServer({ smtpPort: 0 });
+  const storageDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-s3-'));
+  const storage = await startObjectStorage({
+    port: await freePort(),
+    dir: storageDir,
+    bucket: 'test-photos',
+  });
   const clients = [
     { ...testClient, redirectUris: [`${origin}/auth/callback`], postLogoutRedirectUris: [`${origin}/`] },
   ];
@@ -75,6 +85,8 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
     OIDC_CLIENT_ID: testClient.clientId,
     OIDC_CLIENT_SECRET: testClient.clientSecret,
     SMTP_PORT: String(mail.smtpPort),
+    S3_ENDPOINT: storage.endpoint,
+    S3_BUCKET: storage.bucket,
     ...options.env,
   });
   const clock = createTestClock();
@@ -104,6 +116,9 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
       await proxy?.close();
       await idp.close();
       await mail.close();
+      deps.storage.close();
+      await storage.close();
+      rmSync(storageDir, { recursive: true, force: true });
       await database.drop();
     },
   };
