@@ -29,6 +29,7 @@ async function main() {
   const standIns = await startStandIns(env, { mailboxPort: env.MAILBOX_PORT });
   steps.unshift(() => standIns.close());
   say(`Identity provider stand-in at ${standIns.idp.issuer}`);
+  say(`Object storage stand-in (S3 API) at ${standIns.storage.endpoint}`);
   say(
     `Mail stand-in: SMTP on 127.0.0.1:${standIns.mail.smtpPort}, mailbox at http://127.0.0.1:${standIns.mail.httpPort}`,
   );

@@ -1,3 +1,4 @@
+export * from './alerts';
 export * from './companies';
 export * from './equipment';
 export * from './invitations';
