@@ -1,0 +1,24 @@
+import { celsiusFromFahrenheit, fahrenheitFromCelsius } from '@shared/chemistry/index';
+import { parseDecimal } from './parse-decimal';
+
+export type TemperatureUnit = '°C' | '°F';
+
+export function toCelsius(value: number, unit: TemperatureUnit): number {
+  return unit === '°C' ? value : celsiusFromFahrenheit(value);
+}
+
+export function fromCelsius(celsius: number, unit: TemperatureUnit): number {
+  return unit === '°C' ? celsius : fahrenheitFromCelsius(celsius);
+}
+
+/** Keeps a typed temperature the same physical value when the unit changes: 25 °C ↔ 77 °F. */
+export function convertTemperatureText(raw: string, from: TemperatureUnit, to: TemperatureUnit): string {
+  const parsed = parseDecimal(raw);
+  if (from === to || parsed.state !== 'number') return raw;
+  try {
+    return String(Number(fromCelsius(toCelsius(parsed.value, from), to).toFixed(2)));
+  } catch (error) {
+    if (error instanceof RangeError) return raw;
+    throw error;
+  }
+}
