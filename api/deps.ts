@@ -1,4 +1,6 @@
+import { readFileSync } from 'node:fs';
 import type { Request } from 'express';
+import type { PgBoss } from 'pg-boss';
 import type pg from 'pg';
 import type { Database, Db } from './db/client';
 import { appOrigin, type Env } from './env';
@@ -7,6 +9,8 @@ import type { Logger } from './lib/logger';
 import { createMailer, type Mailer } from './lib/mailer';
 import { createObjectStorage, type ObjectStorage } from './lib/object-storage';
 import { createOidcClient, type OidcClient } from './lib/oidc-client';
+import type { EventListener } from './lib/event-bus';
+import { createPushSender, type PushSender } from './lib/web-push-sender';
 
 /** Everything the app needs from outside, passed in so tests can hand over their own. */
 export interface AppDeps {
@@ -18,6 +22,12 @@ export interface AppDeps {
   oidc: OidcClient;
   mailer: Mailer;
   storage: ObjectStorage;
+  /** pg-boss; null where nothing runs in the background (API-only tests). */
+  jobs: PgBoss | null;
+  /** Web push sender; null when no VAPID keys are configured. */
+  push: PushSender | null;
+  /** This process's LISTEN connection for live events; null where nothing streams. */
+  events: EventListener | null;
   /** Built client to serve; omitted in API-only tests and when Vite serves the client. */
   webDist?: string;
 }
@@ -33,6 +43,8 @@ export function createDeps(options: {
   logger: Logger;
   clock?: Clock;
   webDist?: string;
+  jobs?: PgBoss | null;
+  events?: EventListener | null;
 }): AppDeps {
   const { env, database, logger, clock = systemClock } = options;
   const origin = appOrigin(env);
@@ -59,6 +71,21 @@ export function createDeps(options: {
       secretAccessKey: env.S3_SECRET_ACCESS_KEY,
       forcePathStyle: true,
     }),
+    jobs: options.jobs ?? null,
+    events: options.events ?? null,
+    push:
+      env.VAPID_PUBLIC_KEY && env.VAPID_PRIVATE_KEY
+        ? createPushSender({
+            vapid: {
+              publicKey: env.VAPID_PUBLIC_KEY,
+              privateKey: env.VAPID_PRIVATE_KEY,
+              subject: env.VAPID_SUBJECT,
+            },
+            ...(env.PUSH_TRUSTED_CA_FILE
+              ? { trustedCaPem: readFileSync(env.PUSH_TRUSTED_CA_FILE, 'utf8') }
+              : {}),
+          })
+        : null,
     webDist: options.webDist,
   };
 }

@@ -37,6 +37,21 @@ const envSchema = z.object({
   S3_BUCKET: z.string().min(3).default('brinewatch-photos'),
   S3_ACCESS_KEY_ID: z.string().min(1).default('S3RVER'),
   S3_SECRET_ACCESS_KEY: z.string().min(1).default('S3RVER'),
+  /** Web push (RFC 8292); without keys the app sends no push messages. The demo makes its own. */
+  VAPID_PUBLIC_KEY: z
+    .string()
+    .regex(/^[\w-]{80,90}$/, 'must be a base64url P-256 public key')
+    .optional(),
+  VAPID_PRIVATE_KEY: z
+    .string()
+    .regex(/^[\w-]{40,45}$/, 'must be a base64url P-256 private key')
+    .optional(),
+  VAPID_SUBJECT: z
+    .string()
+    .regex(/^(mailto:|https:)/, 'must start with mailto: or https:')
+    .default('mailto:alerts@driftglass.test'),
+  /** PEM of a CA the push sender should trust besides the system's (the demo's local push service). */
+  PUSH_TRUSTED_CA_FILE: z.string().min(1).optional(),
   /** The demo's mailbox page (the SMTP stand-in's viewer). */
   MAILBOX_PORT: port.default(3025),
   INVITATION_DAYS: z.coerce.number().int().positive().default(7),

@@ -3,7 +3,11 @@ import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
-import { createDeps } from './deps';
+import { createDeps, type AppDeps } from './deps';
+import { listenForEvents } from './lib/event-bus';
+import { startJobQueue } from './lib/job-queue';
+import type { Clock } from './lib/clock';
+import { startWorkers } from './services/workers';
 import { connectDatabase } from './db/client';
 import { applyMigrations } from './db/migrations';
 import { loadEnvOrExit, type Env } from './env';
@@ -24,13 +28,28 @@ export async function startServer(options: {
   logger: Logger;
   port?: number;
   serveClient?: boolean;
-}): Promise<RunningServer> {
+  clock?: Clock;
+  /** Background work (notification delivery, sweeps); on unless a test wants a bare API. */
+  background?: boolean;
+}): Promise<RunningServer & { deps: AppDeps }> {
   const { env, logger } = options;
   const database = connectDatabase(options.databaseUrl);
   await applyMigrations(database.db);
-  const app = createApp(
-    createDeps({ env, database, logger, webDist: options.serveClient === false ? undefined : webDist }),
-  );
+  const background = options.background !== false;
+  const jobs = background ? await startJobQueue(options.databaseUrl, logger) : null;
+  const events = listenForEvents(options.databaseUrl, logger);
+  await events.ready;
+  const deps = createDeps({
+    env,
+    database,
+    logger,
+    clock: options.clock,
+    jobs,
+    events,
+    webDist: options.serveClient === false ? undefined : webDist,
+  });
+  if (jobs) await startWorkers(deps);
+  const app = createApp(deps);
   const server = app.listen(options.port ?? env.PORT, '127.0.0.1');
   await once(server, 'listening');
   const { port } = server.address() as AddressInfo;
@@ -38,17 +57,25 @@ export async function startServer(options: {
   let closing: Promise<void> | undefined;
   return {
     url: `http://localhost:${port}`,
+    deps,
     close() {
       closing ??= (async () => {
         const closed = new Promise<void>((resolve) => server.close(() => resolve()));
         server.closeIdleConnections();
+        // Live event streams never finish by themselves: give requests a moment, then end them.
+        const grace = setTimeout(() => server.closeAllConnections(), shutdownGraceMs);
         await closed;
+        clearTimeout(grace);
+        await jobs?.stop({ graceful: true, timeout: 10_000 });
+        await events.close();
         await database.pool.end();
       })();
       return closing;
     },
   };
 }
+
+const shutdownGraceMs = 2_000;
 
 /** Stops cleanly on SIGINT/SIGTERM, running the given steps in order. */
 export function onShutdown(logger: Logger, steps: Array<() => Promise<void>>) {

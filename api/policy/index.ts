@@ -23,16 +23,34 @@ export const permissions = {
   'staff:read': admins,
   'staff:manage': admins,
   'invitations:manage': admins,
+  'readings:read': everyone,
+  // Owners record home tests on their own tanks; the readings service checks the source.
+  'readings:write': everyone,
+  'limits:read': everyone,
+  'limits:write': staff,
+  'devices:manage': staff,
+  'alerts:read': everyone,
+  'alerts:manage': staff,
+  'notifications:own': everyone,
+  'equipment:write': staff,
+  'livestock:write': staff,
+  'species:read': everyone,
+  'species:write': staff,
+  'photos:read': everyone,
+  'photos:write': staff,
 } satisfies Record<string, Role[]>;
 
 export type Permission = keyof typeof permissions;
 
 /** Marks a route handler with the policy it enforces; the route audit test reads this. */
 export interface PolicyMarked {
-  policy?: Permission | 'public';
+  policy?: Permission | 'public' | 'device';
 }
 
-function marked<T extends RequestHandler>(handler: T, policy: Permission | 'public'): T & PolicyMarked {
+function marked<T extends RequestHandler>(
+  handler: T,
+  policy: Permission | 'public' | 'device',
+): T & PolicyMarked {
   return Object.assign(handler, { policy });
 }
 
@@ -47,6 +65,14 @@ export function can(permission: Permission): RequestHandler & PolicyMarked {
 
 /** For the few routes anyone may call (health, sign-in); the audit test keeps the list. */
 export const publicRoute: RequestHandler & PolicyMarked = marked((_req, _res, next) => next(), 'public');
+
+/**
+ * For routes a device calls with its bearer token instead of a session (middleware/device-token.ts
+ * proves the token); the audit test keeps the list, apart from the public one.
+ */
+export function devicePolicy<T extends RequestHandler>(handler: T): T & PolicyMarked {
+  return marked(handler, 'device');
+}
 
 export function requireActor(actor: Actor | null | undefined): Actor {
   if (!actor) throw unauthorized();

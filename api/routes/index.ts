@@ -1,7 +1,12 @@
 import type { Router } from 'express';
+import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
 import { healthRouter } from './health';
 import { invitationsRouter } from './invitations';
 import { meRouter } from './me';
+import { equipmentRouter } from './equipment';
+import { livestockRouter } from './livestock';
+import { photosRouter, tankPhotosRouter } from './photos';
+import { speciesRouter } from './species';
 import { clientsRouter, staffRouter, usersRouter } from './staff';
 import { tanksRouter } from './tanks';
 
@@ -12,8 +17,17 @@ export const sessionlessRouters: ReadonlyArray<readonly [string, Router]> = [['/
 export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/me', meRouter],
   ['/tanks', tanksRouter],
+  ['/tanks/:tankId/equipment', equipmentRouter],
+  ['/tanks/:tankId/livestock', livestockRouter],
+  ['/tanks/:tankId/photos', tankPhotosRouter],
+  ['/photos', photosRouter],
+  ['/species', speciesRouter],
   ['/staff', staffRouter],
   ['/clients', clientsRouter],
   ['/users', usersRouter],
   ['/invitations', invitationsRouter],
+  ['/alerts', alertsRouter],
+  ['/notifications', notificationsRouter],
+  ['/push', pushRouter],
+  ['/events', eventsRouter],
 ];

@@ -4,23 +4,28 @@ export interface TestClock {
   now: Clock;
   advance(ms: number): void;
   set(date: Date): void;
-  /** Back to the real time; call it after a test that moved the clock. */
+  /** Back to the start (or the real time); call it after a test that moved the clock. */
   reset(): void;
 }
 
-/** A clock that starts at the real time and moves only when a test says so. */
-export function createTestClock(start = new Date()): TestClock {
-  let current = start.getTime();
+/**
+ * With a start: a frozen clock that moves only when told (pure rule tests). Without: the real
+ * time plus an offset that tests change, so time still passes for a running server.
+ */
+export function createTestClock(start?: Date): TestClock {
+  const base = start?.getTime() ?? null;
+  let offset = 0;
+  const origin = () => base ?? Date.now();
   return {
-    now: () => new Date(current),
+    now: () => new Date(origin() + offset),
     advance: (ms) => {
-      current += ms;
+      offset += ms;
     },
     set: (date) => {
-      current = date.getTime();
+      offset = date.getTime() - origin();
     },
     reset: () => {
-      current = Date.now();
+      offset = 0;
     },
   };
 }

@@ -1,6 +1,16 @@
 import { randomBytes } from 'node:crypto';
 import type { Db } from '../../api/db/client';
-import { companies, tankMembers, tanks, users } from '../../api/db/schema/index';
+import {
+  companies,
+  equipment,
+  livestock,
+  livestockStatusEvents,
+  readings,
+  tankMembers,
+  tanks,
+  users,
+} from '../../api/db/schema/index';
+import type { ParameterKey } from '@shared/parameters/keys';
 import type { Role } from '../../api/services/actors';
 
 const unique = () => randomBytes(4).toString('hex');
@@ -52,14 +62,72 @@ export async function createPerson(
 
 export async function createTank(
   db: Db,
-  options: { companyId: string; name?: string; owners?: { id: string }[] },
+  options: { companyId: string; name?: string; owners?: { id: string }[] } & Partial<
+    Omit<typeof tanks.$inferInsert, 'companyId' | 'name'>
+  >,
 ) {
+  const { owners: _owners, ...columns } = options;
   const [tank] = await db
     .insert(tanks)
-    .values({ companyId: options.companyId, name: options.name ?? `Tank ${unique()}` })
+    .values({ ...columns, name: options.name ?? `Tank ${unique()}` })
     .returning();
   for (const owner of options.owners ?? []) {
     await db.insert(tankMembers).values({ tankId: tank!.id, userId: owner.id });
   }
   return tank!;
+}
+
+/** Readings as the readings API stores them; `source` defaults to a device reading. */
+export async function insertReadings(
+  db: Db,
+  tank: { id: string; companyId: string },
+  list: Array<{ parameter: ParameterKey; value: number; measuredAt: Date; source?: 'visit' | 'home-test' | 'device' }>,
+) {
+  if (list.length === 0) return [];
+  const rows = list.map((r) => ({
+    companyId: tank.companyId,
+    tankId: tank.id,
+    parameter: r.parameter,
+    value: r.value,
+    enteredValue: r.value,
+    enteredUnit: 'stored',
+    measuredAt: r.measuredAt,
+    source: r.source ?? ('device' as const),
+  }));
+  await db.insert(readings).values(rows);
+  return rows.map((r) => ({ parameter: r.parameter, value: r.value, measuredAt: r.measuredAt, source: r.source }));
+}
+
+/** An animal already in the tank (catalogue species), with the first line of its history. */
+export async function addLivestockTo(
+  db: Db,
+  tank: { id: string; companyId: string },
+  options: Partial<typeof livestock.$inferInsert> & { catalogueSpeciesId: string },
+) {
+  const [row] = await db
+    .insert(livestock)
+    .values({ companyId: tank.companyId, tankId: tank.id, ...options })
+    .returning();
+  await db
+    .insert(livestockStatusEvents)
+    .values({ livestockId: row!.id, status: row!.status, note: 'Added to the tank.', changedAt: new Date() });
+  return row!;
+}
+
+export async function addEquipmentTo(
+  db: Db,
+  tank: { id: string; companyId: string },
+  options: Partial<typeof equipment.$inferInsert> = {},
+) {
+  const [row] = await db
+    .insert(equipment)
+    .values({
+      companyId: tank.companyId,
+      tankId: tank.id,
+      kind: 'heater',
+      description: `Heater ${unique()}`,
+      ...options,
+    })
+    .returning();
+  return row!;
 }

@@ -1,7 +1,8 @@
 import type { AddressInfo } from 'node:net';
 import { once } from 'node:events';
 import { generateKeyPairSync } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import webpush from 'web-push';
 import os from 'node:os';
 import path from 'node:path';
 import { createApp } from '../../api/app';
@@ -9,6 +10,10 @@ import { createDeps, type AppDeps } from '../../api/deps';
 import { startIdentityProvider, type RunningIdentityProvider } from '../../api/dev/identity-provider';
 import { startMailServer, type RunningMailServer } from '../../api/dev/mail-server';
 import { startObjectStorage } from '../../api/dev/object-storage';
+import { startPushService, type RunningPushService } from '../../api/dev/push-service';
+import { listenForEvents } from '../../api/lib/event-bus';
+import { startJobQueue } from '../../api/lib/job-queue';
+import { startWorkers } from '../../api/services/workers';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
 import { createTestClock, type TestClock } from './clock';
@@ -27,6 +32,8 @@ export interface TestStack {
   database: TestDatabase;
   idp: RunningIdentityProvider;
   mail: RunningMailServer;
+  /** The local push service, with `background`. */
+  push: RunningPushService | null;
   clock: TestClock;
   /** Headers a request from the app's own pages carries on a state change. */
   sameOrigin: Record<string, string>;
@@ -39,7 +46,14 @@ export interface TestStack {
  * The app listening on a free port with its real neighbours: a fresh database, the identity
  * provider stand-in and the SMTP stand-in. Nothing is mocked.
  */
-export async function startTestStack(options: { forgingProxy?: boolean; env?: Record<string, string> } = {}) {
+export async function startTestStack(
+  options: {
+    forgingProxy?: boolean;
+    env?: Record<string, string>;
+    /** Run the job queue, its workers, web push (to the local push service) and live events. */
+    background?: boolean;
+  } = {},
+) {
   const database = await createTestDatabase();
   const port = await freePort();
   const origin = `http://localhost:${port}`;
@@ -75,6 +89,19 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
   } else {
     idp = await startIdentityProvider({ port: 0, accounts: [], clients });
   }
+  let push: RunningPushService | null = null;
+  const extraEnv: Record<string, string> = {};
+  if (options.background) {
+    push = await startPushService({ port: 0, dir: storageDir });
+    const keys = webpush.generateVAPIDKeys();
+    const caFile = path.join(storageDir, 'push-ca.pem');
+    writeFileSync(caFile, push.caCertPem);
+    Object.assign(extraEnv, {
+      VAPID_PUBLIC_KEY: keys.publicKey,
+      VAPID_PRIVATE_KEY: keys.privateKey,
+      PUSH_TRUSTED_CA_FILE: caFile,
+    });
+  }
   const env = parseEnv({
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
@@ -87,10 +114,16 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
     SMTP_PORT: String(mail.smtpPort),
     S3_ENDPOINT: storage.endpoint,
     S3_BUCKET: storage.bucket,
+    ...extraEnv,
     ...options.env,
   });
   const clock = createTestClock();
-  const deps = createDeps({ env, database, logger: createLogger('silent'), clock: clock.now });
+  const logger = createLogger('silent');
+  const jobs = options.background ? await startJobQueue(database.url, logger) : null;
+  const events = options.background ? listenForEvents(database.url, logger) : null;
+  await events?.ready;
+  const deps = createDeps({ env, database, logger, clock: clock.now, jobs, events });
+  if (jobs) await startWorkers(deps);
   const app = createApp(deps);
   const server = app.listen(port, '127.0.0.1');
   await once(server, 'listening');
@@ -103,6 +136,7 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
     database,
     idp,
     mail,
+    push,
     clock,
     sameOrigin: { origin, 'x-requested-with': 'brinewatch' },
     forge:
@@ -113,6 +147,9 @@ export async function startTestStack(options: { forgingProxy?: boolean; env?: Re
     async close() {
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
+      await jobs?.stop({ graceful: false, timeout: 2000 });
+      await events?.close();
+      await push?.close();
       await proxy?.close();
       await idp.close();
       await mail.close();

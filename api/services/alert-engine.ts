@@ -1,0 +1,423 @@
+import { and, asc, desc, eq, gte, inArray, lte, ne, sql } from 'drizzle-orm';
+import { describeAlert, type AlertFacts } from '@shared/alerts/describe-alert';
+import { evaluateFreeAmmonia } from '@shared/alerts/free-ammonia';
+import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
+import { evaluateLivestock, type LivestockInhabitant } from '@shared/alerts/livestock';
+import { evaluateRate } from '@shared/alerts/rate';
+import {
+  evaluateThreshold,
+  initialThresholdState,
+  thresholdState,
+  type ThresholdState,
+} from '@shared/alerts/threshold';
+import { findSpecies } from '@shared/livestock/catalogue';
+import { parameterCatalogue } from '@shared/parameters/catalogue';
+import type { ParameterKey } from '@shared/parameters/keys';
+import { limitTemplates } from '@shared/parameters/limit-templates';
+import type { ParameterLimits } from '@shared/schemas/limits';
+import type { ReadingSource } from '@shared/schemas/readings';
+import { presentStatuses } from '@shared/schemas/livestock-status';
+import type { Db } from '../db/client';
+import {
+  alertEvents,
+  alertRuleStates,
+  alerts,
+  companies,
+  livestock,
+  readings,
+  tankLimits,
+  tanks,
+} from '../db/schema/index';
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export interface NewReading {
+  parameter: ParameterKey;
+  value: number;
+  measuredAt: Date;
+  source: ReadingSource;
+}
+
+/** Device data must stay out of range this long before it opens or escalates an alert (common practice). */
+export const deviceDwell = { readings: 3, minutes: 10 } as const;
+
+interface TankContext {
+  id: string;
+  companyId: string;
+  name: string;
+  timeZone: string;
+  limits: Partial<Record<ParameterKey, ParameterLimits>>;
+  inhabitants: LivestockInhabitant[];
+}
+
+async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
+  const [tank] = await tx
+    .select({
+      id: tanks.id,
+      companyId: tanks.companyId,
+      name: tanks.name,
+      style: tanks.style,
+      timeZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
+    })
+    .from(tanks)
+    .innerJoin(companies, eq(companies.id, tanks.companyId))
+    .where(eq(tanks.id, tankId));
+  if (!tank) return null;
+  const rows = await tx.select().from(tankLimits).where(eq(tankLimits.tankId, tankId));
+  const limits: Partial<Record<ParameterKey, ParameterLimits>> = { ...limitTemplates[tank.style] };
+  for (const row of rows) {
+    limits[row.parameter] = {
+      warnLow: row.warnLow,
+      warnHigh: row.warnHigh,
+      critLow: row.critLow,
+      critHigh: row.critHigh,
+    };
+  }
+  const animals = await tx
+    .select({ speciesId: livestock.catalogueSpeciesId })
+    .from(livestock)
+    .where(and(eq(livestock.tankId, tankId), inArray(livestock.status, [...presentStatuses])));
+  const inhabitants: LivestockInhabitant[] = [];
+  for (const { speciesId } of animals) {
+    const species = speciesId ? findSpecies(speciesId) : undefined;
+    if (!species) continue;
+    inhabitants.push({
+      speciesId: species.id,
+      commonName: species.commonName,
+      scientificName: species.scientificName,
+      ranges: species.profile.ranges,
+    });
+  }
+  return { ...tank, limits, inhabitants };
+}
+
+async function loadState(tx: Tx, tankId: string, ruleKey: string): Promise<ThresholdState> {
+  const [row] = await tx
+    .select({ state: alertRuleStates.state })
+    .from(alertRuleStates)
+    .where(and(eq(alertRuleStates.tankId, tankId), eq(alertRuleStates.ruleKey, ruleKey)));
+  const parsed = row ? thresholdState.safeParse(row.state) : null;
+  return parsed?.success ? parsed.data : initialThresholdState;
+}
+
+async function saveState(tx: Tx, tankId: string, ruleKey: string, state: ThresholdState) {
+  await tx
+    .insert(alertRuleStates)
+    .values({ tankId, ruleKey, state })
+    .onConflictDoUpdate({ target: [alertRuleStates.tankId, alertRuleStates.ruleKey], set: { state } });
+}
+
+function openAlertFor(tx: Tx, tankId: string, ruleKey: string) {
+  return tx
+    .select()
+    .from(alerts)
+    .where(and(eq(alerts.tankId, tankId), eq(alerts.ruleKey, ruleKey), ne(alerts.status, 'resolved')))
+    .for('update')
+    .then((rows) => rows[0] ?? null);
+}
+
+interface Transition {
+  kind: AlertKind;
+  ruleKey: string;
+  parameter: ParameterKey | null;
+  severity: AlertSeverity;
+  facts: AlertFacts;
+  value: number | null;
+  limit: number | null;
+  direction: string | null;
+  at: Date;
+}
+
+/**
+ * Writes one transition: opens the alert (or changes the open one) and records the event.
+ * Returns the event id, which is the outbox entry notifications are planned from.
+ */
+async function applyTransition(
+  tx: Tx,
+  tank: TankContext,
+  change: Transition,
+  type: 'opened' | 'escalated' | 'de-escalated' | 'resolved',
+): Promise<string | null> {
+  const description = describeAlert(change.facts, { tankName: tank.name, timeZone: tank.timeZone });
+  const existing = await openAlertFor(tx, tank.id, change.ruleKey);
+  let alertId: string;
+  if (type === 'opened') {
+    if (existing) return null;
+    const [created] = await tx
+      .insert(alerts)
+      .values({
+        companyId: tank.companyId,
+        tankId: tank.id,
+        kind: change.kind,
+        ruleKey: change.ruleKey,
+        parameter: change.parameter,
+        severity: change.severity,
+        title: description.title,
+        body: description.body,
+        value: change.value,
+        limitValue: change.limit,
+        direction: change.direction,
+        openedAt: change.at,
+        lastSeenAt: change.at,
+      })
+      .returning({ id: alerts.id });
+    alertId = created!.id;
+  } else {
+    if (!existing) return null;
+    alertId = existing.id;
+    await tx
+      .update(alerts)
+      .set({
+        severity: change.severity,
+        title: description.title,
+        body: description.body,
+        value: change.value,
+        limitValue: change.limit,
+        lastSeenAt: change.at,
+        ...(type === 'resolved' ? { status: 'resolved' as const, resolvedAt: change.at } : {}),
+      })
+      .where(eq(alerts.id, alertId));
+  }
+  const [event] = await tx
+    .insert(alertEvents)
+    .values({ alertId, type, severity: change.severity, value: change.value, at: change.at })
+    .returning({ id: alertEvents.id });
+  return event!.id;
+}
+
+async function evaluateLimit(tx: Tx, tank: TankContext, parameter: ParameterKey, batch: NewReading[]) {
+  const ruleKey = `limit:${parameter}`;
+  let state = await loadState(tx, tank.id, ruleKey);
+  const events: string[] = [];
+  const limits = tank.limits[parameter] ?? null;
+  const { deadband } = parameterCatalogue[parameter];
+  for (const reading of batch) {
+    const outcome = evaluateThreshold(state, reading, limits, {
+      deadband,
+      ...(reading.source === 'device' ? { dwell: deviceDwell } : {}),
+    });
+    state = outcome.state;
+    if (outcome.action === 'none' || !outcome.severity || !outcome.direction || outcome.limit === null)
+      continue;
+    const transition = (action: 'open' | 'escalate' | 'de-escalate' | 'resolve'): Transition => ({
+      kind: 'limit',
+      ruleKey,
+      parameter,
+      severity: outcome.severity!,
+      value: reading.value,
+      limit: outcome.limit,
+      direction: outcome.direction,
+      at: reading.measuredAt,
+      facts: {
+        kind: 'limit',
+        action,
+        parameter,
+        value: reading.value,
+        measuredAt: reading.measuredAt,
+        source: reading.source,
+        severity: outcome.severity!,
+        direction: outcome.direction!,
+        limit: outcome.limit!,
+      },
+    });
+    if (outcome.action === 'open' && outcome.replacesOpenAlert) {
+      const previous = await openAlertFor(tx, tank.id, ruleKey);
+      if (previous) {
+        await tx
+          .update(alerts)
+          .set({ status: 'resolved', resolvedAt: reading.measuredAt })
+          .where(eq(alerts.id, previous.id));
+        const [closed] = await tx
+          .insert(alertEvents)
+          .values({
+            alertId: previous.id,
+            type: 'resolved',
+            severity: previous.severity,
+            value: reading.value,
+            at: reading.measuredAt,
+          })
+          .returning({ id: alertEvents.id });
+        events.push(closed!.id);
+      }
+    }
+    const type = (
+      { open: 'opened', escalate: 'escalated', 'de-escalate': 'de-escalated', resolve: 'resolved' } as const
+    )[outcome.action];
+    const id = await applyTransition(tx, tank, transition(outcome.action), type);
+    if (id) events.push(id);
+  }
+  await saveState(tx, tank.id, ruleKey, state);
+  return events;
+}
+
+/** Opens while the condition holds, resolves once it is gone; for rules judged on the latest value. */
+async function setCondition(tx: Tx, tank: TankContext, change: Transition | null, ruleKey: string, at: Date) {
+  const existing = await openAlertFor(tx, tank.id, ruleKey);
+  if (change && !existing) return applyTransition(tx, tank, change, 'opened');
+  if (change && existing && existing.severity !== change.severity) {
+    const rank = { notice: 0, warning: 1, critical: 2 } as const;
+    return applyTransition(
+      tx,
+      tank,
+      change,
+      rank[change.severity] > rank[existing.severity] ? 'escalated' : 'de-escalated',
+    );
+  }
+  if (!change && existing) {
+    await tx.update(alerts).set({ status: 'resolved', resolvedAt: at }).where(eq(alerts.id, existing.id));
+    const [event] = await tx
+      .insert(alertEvents)
+      .values({ alertId: existing.id, type: 'resolved', severity: existing.severity, at })
+      .returning({ id: alertEvents.id });
+    return event!.id;
+  }
+  return null;
+}
+
+async function evaluateLivestockRule(tx: Tx, tank: TankContext, parameter: ParameterKey, latest: NewReading) {
+  if (tank.inhabitants.length === 0) return null;
+  const concerns = evaluateLivestock(parameter, latest.value, tank.inhabitants);
+  const ruleKey = `livestock:${parameter}`;
+  const change: Transition | null =
+    concerns.length === 0
+      ? null
+      : {
+          kind: 'livestock',
+          ruleKey,
+          parameter,
+          severity: 'warning',
+          value: latest.value,
+          limit: concerns[0]!.limit,
+          direction: concerns[0]!.direction,
+          at: latest.measuredAt,
+          facts: { kind: 'livestock', parameter, measuredAt: latest.measuredAt, concerns },
+        };
+  return setCondition(tx, tank, change, ruleKey, latest.measuredAt);
+}
+
+async function evaluateRateRule(tx: Tx, tank: TankContext, parameter: ParameterKey, latest: NewReading) {
+  const rule = parameterCatalogue[parameter].rateOfChange;
+  if (!rule) return null;
+  // Twice the rule's period: enough history for evaluateRate to average a slightly long gap.
+  const windowStart = new Date(latest.measuredAt.getTime() - 2 * rule.perMs);
+  const series = await tx
+    .select({ value: readings.value, measuredAt: readings.measuredAt })
+    .from(readings)
+    .where(
+      and(
+        eq(readings.tankId, tank.id),
+        eq(readings.parameter, parameter),
+        gte(readings.measuredAt, windowStart),
+        lte(readings.measuredAt, latest.measuredAt),
+      ),
+    )
+    .orderBy(asc(readings.measuredAt));
+  const outcome = evaluateRate(series, rule);
+  const ruleKey = `rate:${parameter}`;
+  const existing = await openAlertFor(tx, tank.id, ruleKey);
+  if (outcome.breach) {
+    if (existing) return null;
+    return applyTransition(
+      tx,
+      tank,
+      {
+        kind: 'rate',
+        ruleKey,
+        parameter,
+        severity: 'warning',
+        value: latest.value,
+        limit: rule.maxChange,
+        direction: outcome.breach.direction,
+        at: latest.measuredAt,
+        facts: { kind: 'rate', parameter, breach: outcome.breach, rule },
+      },
+      'opened',
+    );
+  }
+  return outcome.settled ? setCondition(tx, tank, null, ruleKey, latest.measuredAt) : null;
+}
+
+/** Free ammonia needs the pH and temperature (and salinity) measured closest before the ammonia test. */
+async function evaluateFreeAmmoniaRule(tx: Tx, tank: TankContext, latest: NewReading) {
+  const nearest = async (parameter: ParameterKey) => {
+    const [row] = await tx
+      .select({ value: readings.value })
+      .from(readings)
+      .where(
+        and(
+          eq(readings.tankId, tank.id),
+          eq(readings.parameter, parameter),
+          lte(readings.measuredAt, latest.measuredAt),
+        ),
+      )
+      .orderBy(desc(readings.measuredAt))
+      .limit(1);
+    return row?.value ?? null;
+  };
+  const [pH, tempC, salinity] = [
+    await nearest('ph'),
+    await nearest('temperature'),
+    await nearest('salinity'),
+  ];
+  if (pH === null || tempC === null) return null;
+  const outcome = evaluateFreeAmmonia(latest.value, pH, tempC, salinity ?? 0);
+  const ruleKey = 'free-ammonia:ammonia';
+  const change: Transition | null =
+    outcome.severity === null
+      ? null
+      : {
+          kind: 'free-ammonia',
+          ruleKey,
+          parameter: 'ammonia',
+          severity: outcome.severity,
+          value: outcome.freeAmmonia,
+          limit: outcome.limit,
+          direction: 'high',
+          at: latest.measuredAt,
+          facts: {
+            kind: 'free-ammonia',
+            totalAmmonia: latest.value,
+            pH,
+            tempC,
+            freeAmmonia: outcome.freeAmmonia,
+            severity: outcome.severity,
+            measuredAt: latest.measuredAt,
+          },
+        };
+  return setCondition(tx, tank, change, ruleKey, latest.measuredAt);
+}
+
+/**
+ * Runs every rule that a batch of new readings can trigger, for one tank, in one transaction
+ * serialised per tank (an advisory lock), so two batches cannot open the same alert twice.
+ * Call it after the readings are committed. Returns the new alert events (the outbox).
+ */
+export async function evaluateNewReadings(
+  db: Db,
+  tankId: string,
+  batch: readonly NewReading[],
+): Promise<string[]> {
+  if (batch.length === 0) return [];
+  return db.transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${tankId}))`);
+    const tank = await loadTank(tx, tankId);
+    if (!tank) return [];
+    const events: string[] = [];
+    const byParameter = new Map<ParameterKey, NewReading[]>();
+    for (const reading of batch)
+      byParameter.set(reading.parameter, [...(byParameter.get(reading.parameter) ?? []), reading]);
+    for (const [parameter, list] of byParameter) {
+      list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
+      const latest = list.at(-1)!;
+      events.push(...(await evaluateLimit(tx, tank, parameter, list)));
+      for (const id of [
+        await evaluateLivestockRule(tx, tank, parameter, latest),
+        await evaluateRateRule(tx, tank, parameter, latest),
+        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(tx, tank, latest) : null,
+      ]) {
+        if (id) events.push(id);
+      }
+    }
+    return events;
+  });
+}

@@ -1,0 +1,206 @@
+import { aliasedTable, and, asc, desc, eq, inArray, ne, sql, type SQL } from 'drizzle-orm';
+import type { AlertListQuery, AlertView } from '@shared/schemas/alerts';
+import type { AppDeps } from '../deps';
+import type { Db } from '../db/client';
+import { alertEvents, alerts, tankMembers, tanks, users } from '../db/schema/index';
+import { publishEvent } from '../lib/event-bus';
+import { conflict, notFound } from '../lib/http-error';
+import { queues } from '../lib/job-queue';
+import { visibleTanks } from '../policy/index';
+import type { Actor } from './actors';
+import { fanOutAlertEvent } from './notify';
+
+const acknowledger = aliasedTable(users, 'acknowledger');
+
+const rankSeverity = sql`case ${alerts.severity} when 'critical' then 0 when 'warning' then 1 else 2 end`;
+
+function statusFilter(status: AlertListQuery['status']): SQL | undefined {
+  if (status === 'all') return undefined;
+  if (status === 'active') return ne(alerts.status, 'resolved');
+  return eq(alerts.status, status);
+}
+
+/** The alerts board: the most severe first, then the oldest, within what the actor may see. */
+export async function listAlerts(db: Db, actor: Actor, query: AlertListQuery): Promise<AlertView[]> {
+  const rows = await db
+    .select({
+      alert: alerts,
+      tank: { id: tanks.id, name: tanks.name, siteLabel: tanks.siteLabel },
+      ackName: acknowledger.name,
+    })
+    .from(alerts)
+    .innerJoin(tanks, eq(tanks.id, alerts.tankId))
+    .leftJoin(acknowledger, eq(acknowledger.id, alerts.acknowledgedBy))
+    .where(
+      and(
+        visibleTanks(db, actor),
+        statusFilter(query.status),
+        query.severity ? eq(alerts.severity, query.severity) : undefined,
+        query.tankId ? eq(alerts.tankId, query.tankId) : undefined,
+      ),
+    )
+    .orderBy(query.status === 'resolved' ? desc(alerts.resolvedAt) : rankSeverity, asc(alerts.openedAt))
+    .limit(query.limit);
+  return rows.map(({ alert, tank, ackName }) => present(alert, tank, ackName));
+}
+
+function present(
+  alert: typeof alerts.$inferSelect,
+  tank: { id: string; name: string; siteLabel: string | null },
+  ackName: string | null,
+): AlertView {
+  return {
+    id: alert.id,
+    tank,
+    kind: alert.kind,
+    parameter: alert.parameter,
+    severity: alert.severity,
+    status: alert.status,
+    title: alert.title,
+    body: alert.body,
+    value: alert.value,
+    limitValue: alert.limitValue,
+    openedAt: alert.openedAt.toISOString(),
+    lastSeenAt: alert.lastSeenAt.toISOString(),
+    acknowledgedAt: alert.acknowledgedAt?.toISOString() ?? null,
+    acknowledgedBy: ackName,
+    resolvedAt: alert.resolvedAt?.toISOString() ?? null,
+  };
+}
+
+async function findAlertFor(db: Db, actor: Actor, alertId: string) {
+  const [row] = await db
+    .select({
+      alert: alerts,
+      tank: { id: tanks.id, name: tanks.name, siteLabel: tanks.siteLabel },
+      ackName: acknowledger.name,
+    })
+    .from(alerts)
+    .innerJoin(tanks, eq(tanks.id, alerts.tankId))
+    .leftJoin(acknowledger, eq(acknowledger.id, alerts.acknowledgedBy))
+    .where(and(eq(alerts.id, alertId), visibleTanks(db, actor)));
+  if (!row) throw notFound('alert');
+  return row;
+}
+
+export async function getAlert(db: Db, actor: Actor, alertId: string): Promise<AlertView> {
+  const { alert, tank, ackName } = await findAlertFor(db, actor, alertId);
+  const events = await db
+    .select({ event: alertEvents, actorName: users.name })
+    .from(alertEvents)
+    .leftJoin(users, eq(users.id, alertEvents.actorId))
+    .where(eq(alertEvents.alertId, alert.id))
+    .orderBy(asc(alertEvents.at), asc(alertEvents.createdAt));
+  return {
+    ...present(alert, tank, ackName),
+    events: events.map(({ event, actorName }) => ({
+      id: event.id,
+      type: event.type,
+      severity: event.severity,
+      value: event.value,
+      note: event.note,
+      actorName,
+      at: event.at.toISOString(),
+    })),
+  };
+}
+
+export async function acknowledgeAlert(deps: AppDeps, actor: Actor, alertId: string, note?: string) {
+  const { alert } = await findAlertFor(deps.db, actor, alertId);
+  if (alert.status !== 'open') throw conflict('not_open', 'Only an open alert can be acknowledged.');
+  const now = deps.clock();
+  const eventId = await deps.db.transaction(async (tx) => {
+    await tx
+      .update(alerts)
+      .set({ status: 'acknowledged', acknowledgedAt: now, acknowledgedBy: actor.id })
+      .where(eq(alerts.id, alert.id));
+    const [event] = await tx
+      .insert(alertEvents)
+      // Acknowledging tells nobody new; it is recorded, and the board updates live.
+      .values({
+        alertId: alert.id,
+        type: 'acknowledged',
+        severity: alert.severity,
+        note: note ?? null,
+        actorId: actor.id,
+        at: now,
+        fannedOutAt: now,
+      })
+      .returning({ id: alertEvents.id });
+    return event!.id;
+  });
+  await announceAlertChange(deps, alert.tankId, alert.companyId, alert.id);
+  return { eventId, alert: await getAlert(deps.db, actor, alert.id) };
+}
+
+export async function resolveAlert(deps: AppDeps, actor: Actor, alertId: string, note: string) {
+  const { alert } = await findAlertFor(deps.db, actor, alertId);
+  if (alert.status === 'resolved') throw conflict('already_resolved', 'This alert is already resolved.');
+  const now = deps.clock();
+  const eventId = await deps.db.transaction(async (tx) => {
+    await tx
+      .update(alerts)
+      .set({ status: 'resolved', resolvedAt: now, resolvedBy: actor.id })
+      .where(eq(alerts.id, alert.id));
+    const [event] = await tx
+      .insert(alertEvents)
+      .values({
+        alertId: alert.id,
+        type: 'resolved',
+        severity: alert.severity,
+        note,
+        actorId: actor.id,
+        at: now,
+      })
+      .returning({ id: alertEvents.id });
+    return event!.id;
+  });
+  await afterAlertEvents(deps, [eventId]);
+  return getAlert(deps.db, actor, alert.id);
+}
+
+/** Everyone who watches a tank's alerts live: its owners and the company's staff. */
+async function watchersOf(db: Db, tankId: string, companyId: string): Promise<string[]> {
+  const owners = await db
+    .select({ id: tankMembers.userId })
+    .from(tankMembers)
+    .where(eq(tankMembers.tankId, tankId));
+  const staff = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(
+      and(
+        eq(users.companyId, companyId),
+        inArray(users.role, ['technician', 'admin']),
+        eq(users.status, 'active'),
+      ),
+    );
+  return [...new Set([...owners, ...staff].map((row) => row.id))];
+}
+
+async function announceAlertChange(deps: AppDeps, tankId: string, companyId: string, alertId: string) {
+  await publishEvent(deps.pool, {
+    type: 'alert',
+    userIds: await watchersOf(deps.db, tankId, companyId),
+    tankId,
+    alertId,
+  });
+}
+
+/**
+ * After alert events are committed: tell every watching screen at once, and plan the
+ * notifications — through the job queue when one runs, in-process otherwise (API-only tests).
+ */
+export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[]) {
+  for (const eventId of eventIds) {
+    const [row] = await deps.db
+      .select({ alertId: alerts.id, tankId: alerts.tankId, companyId: alerts.companyId })
+      .from(alertEvents)
+      .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+      .where(eq(alertEvents.id, eventId));
+    if (!row) continue;
+    await announceAlertChange(deps, row.tankId, row.companyId, row.alertId);
+    if (deps.jobs) await deps.jobs.send(queues.fanOut, { eventId }, { singletonKey: eventId });
+    else await fanOutAlertEvent(deps, eventId);
+  }
+}

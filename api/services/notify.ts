@@ -1,0 +1,334 @@
+import { and, eq, gt, inArray, isNull, lte, ne, sql } from 'drizzle-orm';
+import { firstSteps } from '@shared/alerts/first-steps';
+import type { AlertSeverity } from '@shared/alerts/kinds';
+import {
+  defaultNotificationPreferences,
+  notificationPreferences as preferencesSchema,
+  type NotificationPreferences,
+} from '@shared/schemas/notifications';
+import type { LimitDirection } from '@shared/schemas/limits';
+import type { AppDeps } from '../deps';
+import {
+  alertEvents,
+  alerts,
+  companies,
+  deliveries,
+  notificationPreferences,
+  notifications,
+  onCallShifts,
+  pushSubscriptions,
+  tankMembers,
+  tanks,
+  users,
+} from '../db/schema/index';
+import { appOrigin } from '../env';
+import { publishEvent } from '../lib/event-bus';
+import { escapeHtml } from '../lib/html';
+import { queues } from '../lib/job-queue';
+import { alertTopic } from '../lib/web-push-sender';
+
+/** Who hears about an alert: the tank's owners and technician; for critical ones, whoever is on call. */
+async function recipientsFor(
+  deps: AppDeps,
+  tankId: string,
+  companyId: string,
+  severity: AlertSeverity,
+  now: Date,
+) {
+  const members = deps.db
+    .select({ userId: tankMembers.userId })
+    .from(tankMembers)
+    .where(eq(tankMembers.tankId, tankId));
+  const technician = deps.db
+    .select({ userId: sql<string>`${tanks.assignedTechnicianId}`.as('user_id') })
+    .from(tanks)
+    .where(and(eq(tanks.id, tankId), sql`${tanks.assignedTechnicianId} is not null`));
+  const ids = new Set<string>([
+    ...(await members).map((r) => r.userId),
+    ...(await technician).map((r) => r.userId),
+  ]);
+  if (severity === 'critical') {
+    const onCall = await deps.db
+      .select({ userId: onCallShifts.userId })
+      .from(onCallShifts)
+      .where(
+        and(
+          eq(onCallShifts.companyId, companyId),
+          lte(onCallShifts.startsAt, now),
+          gt(onCallShifts.endsAt, now),
+        ),
+      );
+    for (const row of onCall) ids.add(row.userId);
+  }
+  if (ids.size === 0) return [];
+  return deps.db
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      role: users.role,
+      timeZone: sql<string>`coalesce(${users.timeZone}, ${companies.timeZone})`,
+      preferences: notificationPreferences.preferences,
+    })
+    .from(users)
+    .innerJoin(companies, eq(companies.id, users.companyId))
+    .leftJoin(notificationPreferences, eq(notificationPreferences.userId, users.id))
+    .where(and(inArray(users.id, [...ids]), eq(users.status, 'active')));
+}
+
+export function preferencesOf(stored: unknown, timeZone: string): NotificationPreferences {
+  const parsed = preferencesSchema.safeParse(stored);
+  return parsed.success ? parsed.data : { ...defaultNotificationPreferences, timeZone };
+}
+
+/** Quiet hours in the person's own time zone; a window may run past midnight (22:00–07:00). */
+export function inQuietHours(preferences: NotificationPreferences, now: Date): boolean {
+  if (!preferences.quietHours) return false;
+  const local = new Intl.DateTimeFormat('en-GB', {
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+    timeZone: preferences.timeZone,
+  }).format(now);
+  const { start, end } = preferences.quietHours;
+  return start <= end ? local >= start && local < end : local >= start || local < end;
+}
+
+/**
+ * Plans the notifications for one alert event: an in-app notification for each person who wants
+ * one, and a delivery record plus a queued job per e-mail and push destination. Every record is
+ * keyed by (event, channel, destination), so planning twice sends nothing twice.
+ */
+export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
+  const [row] = await deps.db
+    .select({ event: alertEvents, alert: alerts, tankName: tanks.name })
+    .from(alertEvents)
+    .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+    .innerJoin(tanks, eq(tanks.id, alerts.tankId))
+    .where(eq(alertEvents.id, eventId));
+  if (!row) return;
+  const { event, alert } = row;
+  const now = deps.clock();
+  const audience = await recipientsFor(deps, alert.tankId, alert.companyId, event.severity, now);
+  const announce = event.type === 'opened' || event.type === 'escalated';
+  const link = `/tanks/${alert.tankId}`;
+  const title = event.type === 'resolved' ? `Resolved: ${alert.title}` : alert.title;
+
+  for (const person of audience) {
+    const preferences = preferencesOf(person.preferences, person.timeZone);
+    const quiet = event.severity !== 'critical' && inQuietHours(preferences, now);
+    if (preferences.inApp.includes(event.severity)) {
+      await deps.db
+        .insert(notifications)
+        .values({
+          userId: person.id,
+          alertId: alert.id,
+          alertEventId: event.id,
+          severity: event.severity,
+          title,
+          body: alert.body,
+          link,
+        })
+        .onConflictDoNothing();
+    }
+    if (quiet) continue;
+    const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
+    if (announce && preferences.email.includes(event.severity))
+      planned.push({ channel: 'email', destination: person.email });
+    if (preferences.push.includes(event.severity)) {
+      const subscriptions = await deps.db
+        .select({ id: pushSubscriptions.id })
+        .from(pushSubscriptions)
+        .where(eq(pushSubscriptions.userId, person.id));
+      for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
+    }
+    for (const delivery of planned) {
+      const [created] = await deps.db
+        .insert(deliveries)
+        .values({
+          alertEventId: event.id,
+          userId: person.id,
+          channel: delivery.channel,
+          destination: delivery.destination,
+        })
+        .onConflictDoNothing()
+        .returning({ id: deliveries.id });
+      if (created && deps.jobs) {
+        await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
+          deliveryId: created.id,
+        });
+      }
+    }
+  }
+  await deps.db.update(alertEvents).set({ fannedOutAt: now }).where(eq(alertEvents.id, event.id));
+  await publishEvent(deps.pool, {
+    type: 'notification',
+    userIds: audience.map((p) => p.id),
+    tankId: alert.tankId,
+    alertId: alert.id,
+  });
+}
+
+/** Everything a message about one delivery needs, loaded fresh (the alert may have moved on). */
+async function loadDelivery(deps: AppDeps, deliveryId: string) {
+  const [row] = await deps.db
+    .select({
+      delivery: deliveries,
+      event: alertEvents,
+      alert: alerts,
+      tankName: tanks.name,
+      userName: users.name,
+    })
+    .from(deliveries)
+    .innerJoin(alertEvents, eq(alertEvents.id, deliveries.alertEventId))
+    .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+    .innerJoin(tanks, eq(tanks.id, alerts.tankId))
+    .innerJoin(users, eq(users.id, deliveries.userId))
+    .where(eq(deliveries.id, deliveryId));
+  return row ?? null;
+}
+
+function stepsFor(alert: typeof alerts.$inferSelect, severity: AlertSeverity) {
+  if (
+    severity !== 'critical' ||
+    !alert.parameter ||
+    (alert.direction !== 'low' && alert.direction !== 'high')
+  )
+    return null;
+  return firstSteps(alert.parameter, alert.direction as LimitDirection, 'critical');
+}
+
+async function markSent(deps: AppDeps, deliveryId: string) {
+  await deps.db
+    .update(deliveries)
+    .set({ status: 'sent', sentAt: deps.clock(), attempts: sql`${deliveries.attempts} + 1` })
+    .where(eq(deliveries.id, deliveryId));
+}
+
+async function markAttempt(deps: AppDeps, deliveryId: string, error: string) {
+  await deps.db
+    .update(deliveries)
+    .set({ attempts: sql`${deliveries.attempts} + 1`, lastError: error.slice(0, 500) })
+    .where(eq(deliveries.id, deliveryId));
+}
+
+/** Header values never carry a line break, whatever a tank is called. */
+const headerSafe = (value: string) => value.replace(/[\r\n]+/g, ' ').slice(0, 200);
+
+export async function deliverEmail(deps: AppDeps, deliveryId: string) {
+  const row = await loadDelivery(deps, deliveryId);
+  if (!row || row.delivery.status !== 'pending') return;
+  const { alert, event, delivery } = row;
+  const origin = appOrigin(deps.env);
+  const link = `${origin}/tanks/${alert.tankId}`;
+  const preferencesLink = `${origin}/settings/notifications`;
+  const steps = stepsFor(alert, event.severity);
+  const text = [
+    alert.title,
+    '',
+    alert.body,
+    ...(steps ? ['', 'First steps:', ...steps.steps.map((s) => `- ${s}`), '', ...steps.cautions] : []),
+    '',
+    `Open the tank: ${link}`,
+    '',
+    `Change which alerts you get: ${preferencesLink}`,
+  ].join('\n');
+  const html = `<h1 style="font-size:18px">${escapeHtml(alert.title)}</h1>
+<p>${escapeHtml(alert.body)}</p>
+${steps ? `<h2 style="font-size:16px">First steps</h2><ol>${steps.steps.map((s) => `<li>${escapeHtml(s)}</li>`).join('')}</ol>${steps.cautions.map((c) => `<p><strong>${escapeHtml(c)}</strong></p>`).join('')}` : ''}
+<p><a href="${escapeHtml(link)}">Open the tank in Brinewatch</a></p>
+<p style="font-size:12px;color:#555"><a href="${escapeHtml(preferencesLink)}">Change which alerts you get</a></p>`;
+  try {
+    await deps.mailer.send({
+      to: delivery.destination,
+      subject: headerSafe(`${event.severity === 'critical' ? 'Critical: ' : ''}${alert.title}`),
+      text,
+      html,
+      headers: { 'List-Unsubscribe': `<${preferencesLink}>`, 'X-Brinewatch-Alert': alert.id },
+    });
+  } catch (error) {
+    await markAttempt(deps, deliveryId, error instanceof Error ? error.message : String(error));
+    throw error;
+  }
+  await markSent(deps, deliveryId);
+}
+
+export class RetryLater extends Error {}
+
+export async function deliverPush(deps: AppDeps, deliveryId: string) {
+  const row = await loadDelivery(deps, deliveryId);
+  if (!row || row.delivery.status !== 'pending' || !deps.push) return;
+  const { alert, event, delivery } = row;
+  const [subscription] = await deps.db
+    .select()
+    .from(pushSubscriptions)
+    .where(eq(pushSubscriptions.id, delivery.destination));
+  if (!subscription) {
+    await deps.db.update(deliveries).set({ status: 'gone' }).where(eq(deliveries.id, deliveryId));
+    return;
+  }
+  const steps = stepsFor(alert, event.severity);
+  const payload = {
+    alertId: alert.id,
+    tankId: alert.tankId,
+    severity: event.severity,
+    status: event.type === 'resolved' ? 'resolved' : 'open',
+    title: event.type === 'resolved' ? `Resolved: ${alert.title}` : alert.title,
+    body: steps ? `${alert.body} ${steps.steps[0] ?? ''}`.trim() : alert.body,
+    url: `/tanks/${alert.tankId}`,
+  };
+  const outcome = await deps.push.send(
+    { endpoint: subscription.endpoint, keys: { p256dh: subscription.p256dh, auth: subscription.auth } },
+    payload,
+    {
+      ttlSeconds: event.severity === 'critical' ? 24 * 3600 : 6 * 3600,
+      urgency: event.severity === 'critical' ? 'high' : 'normal',
+      topic: alertTopic(alert.id),
+    },
+  );
+  switch (outcome.outcome) {
+    case 'delivered':
+      await markSent(deps, deliveryId);
+      await deps.db
+        .update(pushSubscriptions)
+        .set({ lastSuccessAt: deps.clock() })
+        .where(eq(pushSubscriptions.id, subscription.id));
+      return;
+    case 'gone':
+      // RFC 8030 §7.3: the subscription has expired; forget it.
+      await deps.db.delete(pushSubscriptions).where(eq(pushSubscriptions.id, subscription.id));
+      await deps.db.update(deliveries).set({ status: 'gone' }).where(eq(deliveries.id, deliveryId));
+      return;
+    case 'rejected':
+      await deps.db
+        .update(deliveries)
+        .set({ status: 'failed', lastError: outcome.detail })
+        .where(eq(deliveries.id, deliveryId));
+      return;
+    case 'retry':
+      await markAttempt(deps, deliveryId, outcome.reason);
+      if (outcome.afterMs && deps.jobs) {
+        // 429: wait exactly as long as the push service asked, then try once more.
+        await deps.jobs.sendAfter(queues.push, { deliveryId }, null, Math.ceil(outcome.afterMs / 1000));
+        return;
+      }
+      throw new RetryLater(outcome.reason);
+  }
+}
+
+/** Events whose fan-out never ran (the process stopped between commit and queueing). */
+export async function pendingFanOuts(deps: AppDeps, olderThanMs: number) {
+  const cutoff = new Date(deps.clock().getTime() - olderThanMs);
+  const rows = await deps.db
+    .select({ id: alertEvents.id })
+    .from(alertEvents)
+    .where(
+      and(
+        isNull(alertEvents.fannedOutAt),
+        lte(alertEvents.createdAt, cutoff),
+        ne(alertEvents.type, 'acknowledged'),
+      ),
+    )
+    .limit(100);
+  return rows.map((r) => r.id);
+}

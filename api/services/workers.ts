@@ -1,0 +1,54 @@
+import { eq } from 'drizzle-orm';
+import type { Job } from 'pg-boss';
+import type { AppDeps } from '../deps';
+import { deliveries } from '../db/schema/index';
+import { queues } from '../lib/job-queue';
+import { afterAlertEvents } from './alerts';
+import { deliverEmail, deliverPush, fanOutAlertEvent, pendingFanOuts } from './notify';
+import { sweepOverdueTests, sweepStaleDevices } from './sweeps';
+
+type DeliveryJob = { deliveryId: string };
+
+/**
+ * The background half of the app, running in every API process (pg-boss hands each job to one
+ * of them). Handlers are idempotent: every delivery is checked against its record before sending.
+ */
+export async function startWorkers(deps: AppDeps) {
+  const boss = deps.jobs;
+  if (!boss) throw new Error('startWorkers needs the job queue');
+  await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
+    for (const job of jobs) await fanOutAlertEvent(deps, job.data.eventId);
+  });
+  await boss.work<DeliveryJob>(
+    queues.email,
+    { pollingIntervalSeconds: 1 },
+    async (jobs: Job<DeliveryJob>[]) => {
+      for (const job of jobs) await deliverEmail(deps, job.data.deliveryId);
+    },
+  );
+  await boss.work<DeliveryJob>(
+    queues.push,
+    { pollingIntervalSeconds: 1 },
+    async (jobs: Job<DeliveryJob>[]) => {
+      for (const job of jobs) await deliverPush(deps, job.data.deliveryId);
+    },
+  );
+  // Out of retries: the delivery is marked failed, which staff see on the deliveries list.
+  await boss.work<DeliveryJob>(queues.dead, async (jobs) => {
+    for (const job of jobs) {
+      await deps.db
+        .update(deliveries)
+        .set({ status: 'failed' })
+        .where(eq(deliveries.id, job.data.deliveryId));
+    }
+  });
+  await boss.work<{ overdue?: boolean }>(queues.sweep, async (jobs) => {
+    for (const job of jobs) {
+      const opened = job.data?.overdue ? await sweepOverdueTests(deps) : await sweepStaleDevices(deps);
+      await afterAlertEvents(deps, opened);
+      for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
+    }
+  });
+  await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });
+  await boss.schedule(queues.sweep, '0 7 * * *', { overdue: true }, { key: 'overdue-tests' });
+}
