@@ -14,7 +14,7 @@ describe('landing page', () => {
       await page.goto('/');
       await expect.poll(() => page.getByTestId('service-status').textContent()).toBe('All systems running');
       expect(await page.getByRole('heading', { level: 1 }).textContent()).toContain('Your tank');
-      expect(await page.getByRole('link', { name: 'Sign in' }).isVisible()).toBe(true);
+      expect(await page.getByRole('main').getByRole('link', { name: 'Sign in' }).isVisible()).toBe(true);
       expect(await axeViolations(page)).toEqual([]);
       await screenshot(page, `landing-${viewport}`);
     });

@@ -1,0 +1,37 @@
+import { z } from 'zod';
+
+export const onCallShiftInput = z
+  .object({
+    userId: z.uuid(),
+    startsAt: z.iso.datetime({ offset: true }),
+    endsAt: z.iso.datetime({ offset: true }),
+  })
+  .refine((shift) => new Date(shift.endsAt) > new Date(shift.startsAt), {
+    message: 'The shift must end after it starts.',
+    path: ['endsAt'],
+  });
+export type OnCallShiftInput = z.infer<typeof onCallShiftInput>;
+
+export const onCallShiftView = z.object({
+  id: z.uuid(),
+  user: z.object({ id: z.uuid(), name: z.string() }),
+  startsAt: z.iso.datetime(),
+  endsAt: z.iso.datetime(),
+  current: z.boolean(),
+});
+export type OnCallShiftView = z.infer<typeof onCallShiftView>;
+
+export const shiftIdParams = z.object({ shiftId: z.uuid() });
+
+export const deliveryView = z.object({
+  id: z.uuid(),
+  channel: z.enum(['push', 'email', 'in-app']),
+  status: z.enum(['pending', 'sent', 'gone', 'failed']),
+  attempts: z.number(),
+  lastError: z.string().nullable(),
+  recipient: z.string(),
+  alertTitle: z.string(),
+  tankName: z.string(),
+  createdAt: z.iso.datetime(),
+});
+export type DeliveryView = z.infer<typeof deliveryView>;

@@ -1,0 +1,13 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Invitation } from '@shared/schemas/invitations';
+import { api } from '../../../lib/api-client';
+
+/** Newest first, every status; staff and client invitations together. */
+export const getInvitations = (signal?: AbortSignal) => api<Invitation[]>('/invitations', { signal });
+
+export const invitationsQueryKey = ['invitations'] as const;
+
+export const invitationsQueryOptions = () =>
+  queryOptions({ queryKey: invitationsQueryKey, queryFn: ({ signal }) => getInvitations(signal) });
+
+export const useInvitations = () => useQuery(invitationsQueryOptions());

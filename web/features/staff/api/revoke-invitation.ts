@@ -1,0 +1,14 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import { invitationsQueryKey } from './list-invitations';
+
+export const revokeInvitation = (invitationId: string) =>
+  api<void>(`/invitations/${invitationId}`, { method: 'DELETE' });
+
+export const useRevokeInvitation = () => {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: revokeInvitation,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: invitationsQueryKey }),
+  });
+};
