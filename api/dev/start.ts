@@ -1,4 +1,6 @@
+import path from 'node:path';
 import { loadEnvOrExit } from '../env';
+import { loadOrCreateVapidKeys } from '../lib/vapid-keys';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
 import { seedDemo } from '../db/seed/index';
@@ -12,7 +14,15 @@ import { startStandIns } from './stand-ins';
  * services, then the app serving the built client. `--dev` adds Vite's dev server.
  */
 async function main() {
-  const env = loadEnvOrExit();
+  const parsedEnv = loadEnvOrExit();
+  // Web push needs VAPID keys (RFC 8292): the demo makes a pair once and keeps it under DATA_DIR.
+  const vapid =
+    parsedEnv.VAPID_PUBLIC_KEY && parsedEnv.VAPID_PRIVATE_KEY
+      ? null
+      : await loadOrCreateVapidKeys(path.join(parsedEnv.DATA_DIR, 'vapid'));
+  const env = vapid
+    ? { ...parsedEnv, VAPID_PUBLIC_KEY: vapid.publicKey, VAPID_PRIVATE_KEY: vapid.privateKey }
+    : parsedEnv;
   const logger = createLogger(env.LOG_LEVEL);
   const say = (line: string) => logger.info(line);
   const steps: Array<() => Promise<void>> = [];

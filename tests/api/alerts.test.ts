@@ -3,7 +3,13 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { alerts, notifications } from '../../api/db/schema/index';
 import { afterAlertEvents } from '../../api/services/alerts';
 import { evaluateNewReadings } from '../../api/services/alert-engine';
-import { createCompany, createPerson, createTank, insertReadings, type TestPerson } from '../helpers/factories';
+import {
+  createCompany,
+  createPerson,
+  createTank,
+  insertReadings,
+  type TestPerson,
+} from '../helpers/factories';
 import { HttpBrowser } from '../helpers/http-browser';
 import { minutes } from '../helpers/clock';
 import { signIn, startTestStack, type TestStack } from '../helpers/stack';
@@ -23,9 +29,18 @@ describe('alerts from readings', () => {
     stack = await startTestStack();
     const { db } = stack.database;
     const company = await createCompany(db);
-    owner = await createPerson(db, { companyId: company.id, role: 'owner', issuer: stack.idp.issuer, name: 'Opal Owner' });
+    owner = await createPerson(db, {
+      companyId: company.id,
+      role: 'owner',
+      issuer: stack.idp.issuer,
+      name: 'Opal Owner',
+    });
     otherOwner = await createPerson(db, { companyId: company.id, role: 'owner', issuer: stack.idp.issuer });
-    technician = await createPerson(db, { companyId: company.id, role: 'technician', issuer: stack.idp.issuer });
+    technician = await createPerson(db, {
+      companyId: company.id,
+      role: 'technician',
+      issuer: stack.idp.issuer,
+    });
     tank = await createTank(db, { companyId: company.id, name: 'Surgery reef', owners: [owner] });
     ownerBrowser = new HttpBrowser();
     techBrowser = new HttpBrowser();
@@ -36,7 +51,9 @@ describe('alerts from readings', () => {
   });
   afterAll(() => stack.close());
   afterEach(async () => {
-    await stack.database.pool.query('delete from alerts; delete from alert_rule_states; delete from readings');
+    await stack.database.pool.query(
+      'delete from alerts; delete from alert_rule_states; delete from readings',
+    );
   });
 
   async function record(list: Parameters<typeof insertReadings>[2]) {
@@ -64,10 +81,19 @@ describe('alerts from readings', () => {
 
     const board = await get(techBrowser, '/api/alerts');
     expect(board.body).toEqual([
-      expect.objectContaining({ kind: 'limit', parameter: 'temperature', severity: 'critical', status: 'open', value: 29.4 }),
+      expect.objectContaining({
+        kind: 'limit',
+        parameter: 'temperature',
+        severity: 'critical',
+        status: 'open',
+        value: 29.4,
+      }),
     ]);
     const inbox = await get(ownerBrowser, '/api/notifications');
-    expect(inbox.body).toMatchObject({ unread: 1, items: [{ severity: 'critical', link: `/tanks/${tank.id}` }] });
+    expect(inbox.body).toMatchObject({
+      unread: 1,
+      items: [{ severity: 'critical', link: `/tanks/${tank.id}` }],
+    });
     expect((inbox.body as { items: { title: string }[] }).items[0]!.title).toMatch(/Temperature/);
   });
 
@@ -83,13 +109,18 @@ describe('alerts from readings', () => {
   it('escalates the same alert from warning to critical, and records each step', async () => {
     const t0 = Date.now() - minutes(30);
     await record([{ parameter: 'temperature', value: 27.8, measuredAt: new Date(t0), source: 'home-test' }]);
-    await record([{ parameter: 'temperature', value: 29.3, measuredAt: new Date(t0 + minutes(10)), source: 'home-test' }]);
+    await record([
+      { parameter: 'temperature', value: 29.3, measuredAt: new Date(t0 + minutes(10)), source: 'home-test' },
+    ]);
 
     const rows = await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'limit'));
     expect(rows).toHaveLength(1);
     expect(rows[0]!.severity).toBe('critical');
     const detail = await get(techBrowser, `/api/alerts/${rows[0]!.id}`);
-    expect((detail.body as { events: { type: string }[] }).events.map((e) => e.type)).toEqual(['opened', 'escalated']);
+    expect((detail.body as { events: { type: string }[] }).events.map((e) => e.type)).toEqual([
+      'opened',
+      'escalated',
+    ]);
   });
 
   it('opens at most one alert for 100 device readings wobbling ±0.05 around the warning limit', async () => {
@@ -108,10 +139,14 @@ describe('alerts from readings', () => {
   it('resolves the alert by itself once the water is back inside the limit by the deadband', async () => {
     const t0 = Date.now() - minutes(30);
     await record([{ parameter: 'temperature', value: 28.0, measuredAt: new Date(t0), source: 'home-test' }]);
-    await record([{ parameter: 'temperature', value: 27.4, measuredAt: new Date(t0 + minutes(5)), source: 'home-test' }]);
+    await record([
+      { parameter: 'temperature', value: 27.4, measuredAt: new Date(t0 + minutes(5)), source: 'home-test' },
+    ]);
     expect((await stack.database.db.select().from(alerts))[0]!.status).toBe('open');
 
-    await record([{ parameter: 'temperature', value: 27.0, measuredAt: new Date(t0 + minutes(10)), source: 'home-test' }]);
+    await record([
+      { parameter: 'temperature', value: 27.0, measuredAt: new Date(t0 + minutes(10)), source: 'home-test' },
+    ]);
 
     expect((await stack.database.db.select().from(alerts))[0]!.status).toBe('resolved');
   });
@@ -120,7 +155,9 @@ describe('alerts from readings', () => {
     await record([{ parameter: 'temperature', value: 29.4, measuredAt: new Date(), source: 'home-test' }]);
     const [alert] = await stack.database.db.select().from(alerts);
 
-    const acked = await post(techBrowser, `/api/alerts/${alert!.id}/acknowledge`, { note: 'Calling the client' });
+    const acked = await post(techBrowser, `/api/alerts/${alert!.id}/acknowledge`, {
+      note: 'Calling the client',
+    });
     expect(acked.status).toBe(200);
     expect(acked.body).toMatchObject({ status: 'acknowledged', acknowledgedBy: technician.name });
     expect((await post(techBrowser, `/api/alerts/${alert!.id}/acknowledge`, {})).status).toBe(409);
@@ -154,7 +191,10 @@ describe('alerts from readings', () => {
     );
     try {
       await record([{ parameter: 'temperature', value: 28.6, measuredAt: new Date(), source: 'home-test' }]);
-      const [livestockAlert] = await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'livestock'));
+      const [livestockAlert] = await stack.database.db
+        .select()
+        .from(alerts)
+        .where(eq(alerts.kind, 'livestock'));
       expect(livestockAlert?.body).toMatch(/hammer coral/i);
     } finally {
       await stack.database.pool.query('delete from livestock where tank_id = $1', [tank.id]);
@@ -168,7 +208,9 @@ describe('alerts from readings', () => {
       { parameter: 'temperature', value: 26, measuredAt: new Date(at), source: 'home-test' },
       { parameter: 'salinity', value: 35, measuredAt: new Date(at), source: 'home-test' },
     ]);
-    await record([{ parameter: 'ammonia', value: 1, measuredAt: new Date(at + minutes(1)), source: 'home-test' }]);
+    await record([
+      { parameter: 'ammonia', value: 1, measuredAt: new Date(at + minutes(1)), source: 'home-test' },
+    ]);
 
     const rows = await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'free-ammonia'));
     expect(rows).toEqual([expect.objectContaining({ severity: 'critical', status: 'open' })]);
@@ -180,7 +222,10 @@ describe('alerts from readings', () => {
       { parameter: 'temperature', value: 25.0, measuredAt: new Date(at), source: 'home-test' },
       { parameter: 'temperature', value: 26.4, measuredAt: new Date(at + minutes(30)), source: 'home-test' },
     ]);
-    const rows = await stack.database.db.select().from(alerts).where(and(eq(alerts.kind, 'rate')));
+    const rows = await stack.database.db
+      .select()
+      .from(alerts)
+      .where(and(eq(alerts.kind, 'rate')));
     expect(rows).toEqual([expect.objectContaining({ parameter: 'temperature', status: 'open' })]);
     const sent = await stack.database.db.select().from(notifications);
     expect(sent.length).toBeGreaterThan(0);

@@ -1,0 +1,89 @@
+import { eq } from 'drizzle-orm';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { alerts, devices } from '../../api/db/schema/index';
+import { hashToken, newSecretToken } from '../../api/lib/tokens';
+import { sweepOverdueTests, sweepStaleDevices } from '../../api/services/sweeps';
+import { days, minutes } from '../helpers/clock';
+import { createCompany, createTank, insertReadings } from '../helpers/factories';
+import { startTestStack, type TestStack } from '../helpers/stack';
+
+describe('scheduled alert sweeps', () => {
+  let stack: TestStack;
+  let tank: { id: string; companyId: string };
+
+  beforeAll(async () => {
+    stack = await startTestStack();
+    const company = await createCompany(stack.database.db);
+    tank = await createTank(stack.database.db, { companyId: company.id, name: 'Office reef' });
+  });
+  afterAll(() => stack.close());
+  afterEach(async () => {
+    stack.clock.reset();
+    await stack.database.pool.query('delete from alerts; delete from readings; delete from devices');
+  });
+
+  async function addDevice(lastSeenAt: Date) {
+    const [device] = await stack.database.db
+      .insert(devices)
+      .values({
+        companyId: tank.companyId,
+        tankId: tank.id,
+        name: 'Sump probe',
+        tokenHash: hashToken(newSecretToken()),
+        tokenHint: 'bw_xxxx',
+        lastSeenAt,
+      })
+      .returning();
+    return device!;
+  }
+
+  it('opens one alert for a device silent for more than 30 minutes, and closes it when it reports again', async () => {
+    const device = await addDevice(new Date(stack.clock.now().getTime() - minutes(31)));
+
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(0);
+    const [open] = await stack.database.db.select().from(alerts);
+    expect(open).toMatchObject({
+      kind: 'device-stale',
+      status: 'open',
+      ruleKey: `device-stale:${device.id}`,
+    });
+    expect(open!.body).toMatch(/Sump probe/);
+
+    await stack.database.db
+      .update(devices)
+      .set({ lastSeenAt: stack.clock.now() })
+      .where(eq(devices.id, device.id));
+    await sweepStaleDevices(stack.deps);
+
+    expect((await stack.database.db.select().from(alerts))[0]!.status).toBe('resolved');
+  });
+
+  it('leaves a device that reported 29 minutes ago alone', async () => {
+    await addDevice(new Date(stack.clock.now().getTime() - minutes(29)));
+    expect(await sweepStaleDevices(stack.deps)).toEqual([]);
+  });
+
+  it('raises a low-urgency notice when a home test is overdue, and clears it after a new test', async () => {
+    const lastTest = new Date(stack.clock.now().getTime() - days(8));
+    await insertReadings(stack.database.db, tank, [
+      { parameter: 'alkalinity', value: 8.2, measuredAt: lastTest, source: 'home-test' },
+    ]);
+
+    await sweepOverdueTests(stack.deps);
+    const [notice] = await stack.database.db.select().from(alerts);
+    expect(notice).toMatchObject({
+      kind: 'test-overdue',
+      severity: 'notice',
+      parameter: 'alkalinity',
+      status: 'open',
+    });
+
+    await insertReadings(stack.database.db, tank, [
+      { parameter: 'alkalinity', value: 8.3, measuredAt: stack.clock.now(), source: 'home-test' },
+    ]);
+    await sweepOverdueTests(stack.deps);
+
+    expect((await stack.database.db.select().from(alerts))[0]!.status).toBe('resolved');
+  });
+});
