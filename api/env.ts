@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-const port = z.coerce.number().int().min(1).max(65535);
+const port = z.coerce.number({ error: 'must be a port number (1–65535)' }).int().min(1).max(65535);
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
