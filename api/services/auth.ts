@@ -1,5 +1,6 @@
 import type { Request } from 'express';
 import { depsOf } from '../deps';
+import { appOrigin } from '../env';
 import { SignInRefused, type VerifiedIdentity } from '../lib/oidc-client';
 import { acceptPendingInvitation } from './invitations';
 import { findUserByIdentity } from './users';
@@ -47,7 +48,7 @@ export async function completeSignIn(req: Request): Promise<SignInOutcome> {
     await saveSession(req);
     return { kind: 'refused', reason: 'This sign-in link has already been used or has expired.' };
   }
-  const callbackUrl = new URL(req.originalUrl, deps.env.APP_ORIGIN ?? `http://localhost:${deps.env.PORT}`);
+  const callbackUrl = new URL(req.originalUrl, appOrigin(deps.env));
   let identity: VerifiedIdentity;
   try {
     identity = await deps.oidc.finishLogin(callbackUrl, pending);
