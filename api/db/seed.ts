@@ -1,8 +1,11 @@
+import path from 'node:path';
 import { openLocalDatabase } from '../dev/local-database';
+import { startObjectStorage } from '../dev/object-storage';
 import { loadEnvOrExit } from '../env';
 import { connectDatabase } from './client';
 import { applyMigrations } from './migrations';
 import { seedDemo } from './seed/index';
+import { objectStorageFor } from './seed/photos';
 
 /** `npm run db:seed` (and `npm run db:migrate` with --migrate-only). */
 async function main() {
@@ -12,7 +15,24 @@ async function main() {
   try {
     await applyMigrations(db);
     if (!process.argv.includes('--migrate-only')) {
-      await seedDemo(db, { issuer: env.OIDC_ISSUER });
+      // The self-contained demo keeps its photos in the object-storage stand-in under DATA_DIR,
+      // started here for the seed as the database is; otherwise the configured bucket is used.
+      const s3 = new URL(env.S3_ENDPOINT);
+      const standIn = env.DATABASE_URL
+        ? null
+        : await startObjectStorage({
+            host: s3.hostname,
+            port: Number(s3.port),
+            dir: path.join(env.DATA_DIR, 's3'),
+            bucket: env.S3_BUCKET,
+          });
+      const storage = objectStorageFor(env);
+      try {
+        await seedDemo(db, { issuer: env.OIDC_ISSUER, storage });
+      } finally {
+        storage.close();
+        await standIn?.close();
+      }
       console.log('Demo scenario seeded.');
     } else {
       console.log('Migrations applied.');

@@ -4,6 +4,7 @@ import { loadOrCreateVapidKeys } from '../lib/vapid-keys';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
 import { seedDemo } from '../db/seed/index';
+import { objectStorageFor } from '../db/seed/photos';
 import { createLogger } from '../lib/logger';
 import { onShutdown, startServer } from '../server';
 import { openLocalDatabase } from './local-database';
@@ -31,13 +32,15 @@ async function main() {
   const database = await openLocalDatabase(env, say);
   steps.unshift(() => database.stop());
 
-  const seeding = connectDatabase(database.url, { max: 1 });
-  await applyMigrations(seeding.db);
-  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER });
-  await seeding.pool.end();
-
   const standIns = await startStandIns(env, { mailboxPort: env.MAILBOX_PORT });
   steps.unshift(() => standIns.close());
+  // After the stand-ins: the demo's photos are stored in the object-storage stand-in.
+  const seeding = connectDatabase(database.url, { max: 1 });
+  await applyMigrations(seeding.db);
+  const seedStorage = objectStorageFor(env);
+  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage });
+  seedStorage.close();
+  await seeding.pool.end();
   say(`Identity provider stand-in at ${standIns.idp.issuer}`);
   say(`Object storage stand-in (S3 API) at ${standIns.storage.endpoint}`);
   say(

@@ -32,6 +32,8 @@ export const permissions = {
   'alerts:read': everyone,
   'alerts:manage': staff,
   'notifications:own': everyone,
+  'on-call:read': staff,
+  'on-call:manage': admins,
   'equipment:write': staff,
   'livestock:write': staff,
   'species:read': everyone,

@@ -1,17 +1,28 @@
 import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
+import { devicesRouter } from './devices';
 import { healthRouter } from './health';
+import { ingestRouter } from './ingest';
 import { invitationsRouter } from './invitations';
+import { limitsRouter } from './limits';
 import { meRouter } from './me';
+import { deliveriesRouter, onCallRouter } from './on-call';
 import { equipmentRouter } from './equipment';
 import { livestockRouter } from './livestock';
 import { photosRouter, tankPhotosRouter } from './photos';
+import { readingsRouter } from './readings';
 import { speciesRouter } from './species';
 import { clientsRouter, staffRouter, usersRouter } from './staff';
 import { tanksRouter } from './tanks';
 
-/** Answers before sessions are read, so it still answers when the session store cannot. */
-export const sessionlessRouters: ReadonlyArray<readonly [string, Router]> = [['/health', healthRouter]];
+/**
+ * Answer before sessions are read: health still answers when the session store cannot, and
+ * device ingest authenticates by bearer token, never by cookie (so no session or CSRF check).
+ */
+export const sessionlessRouters: ReadonlyArray<readonly [string, Router]> = [
+  ['/health', healthRouter],
+  ['/ingest', ingestRouter],
+];
 
 /** Every other API router and where it is mounted under /api. The route audit test walks both lists. */
 export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
@@ -20,6 +31,9 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/tanks/:tankId/equipment', equipmentRouter],
   ['/tanks/:tankId/livestock', livestockRouter],
   ['/tanks/:tankId/photos', tankPhotosRouter],
+  ['/tanks/:tankId/readings', readingsRouter],
+  ['/tanks/:tankId/limits', limitsRouter],
+  ['/tanks/:tankId/devices', devicesRouter],
   ['/photos', photosRouter],
   ['/species', speciesRouter],
   ['/staff', staffRouter],
@@ -30,4 +44,6 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/notifications', notificationsRouter],
   ['/push', pushRouter],
   ['/events', eventsRouter],
+  ['/on-call', onCallRouter],
+  ['/deliveries', deliveriesRouter],
 ];

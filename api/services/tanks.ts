@@ -1,19 +1,294 @@
-import { asc } from 'drizzle-orm';
+import { and, asc, eq, exists, ilike, inArray, isNull, ne, or, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import { tankStyleWaterType } from '@shared/parameters/limit-templates';
+import { photoUrls } from '@shared/schemas/photos';
+import type {
+  AssignableStaff,
+  createTankInput,
+  PersonRef,
+  PhotoRef,
+  TankDetail,
+  TankListQuery,
+  TankSummary,
+  updateTankInput,
+} from '@shared/schemas/tanks';
+import type { z } from 'zod';
 import type { Db } from '../db/client';
-import { tanks } from '../db/schema/index';
+import { companies, photos, tankMembers, tanks, users } from '../db/schema/index';
+import { HttpError, type ErrorIssue } from '../lib/http-error';
 import { findTankFor, visibleTanks } from '../policy/index';
-import type { TankSummary } from '@shared/schemas/tanks';
 import type { Actor } from './actors';
+import { healthForTanks } from './tank-health';
 
-export function listTanks(db: Db, actor: Actor): Promise<TankSummary[]> {
-  return db
-    .select({ id: tanks.id, name: tanks.name, siteLabel: tanks.siteLabel })
-    .from(tanks)
-    .where(visibleTanks(db, actor))
-    .orderBy(asc(tanks.name));
+type CreateTank = z.output<typeof createTankInput>;
+type UpdateTank = z.output<typeof updateTankInput>;
+type TankRow = typeof tanks.$inferSelect;
+type PhotoRow = typeof photos.$inferSelect;
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+const technician = alias(users, 'technician');
+
+export function photoRefOf(photo: Pick<PhotoRow, 'id' | 'width' | 'height' | 'caption'>): PhotoRef {
+  return {
+    id: photo.id,
+    ...photoUrls(photo.id),
+    width: photo.width,
+    height: photo.height,
+    caption: photo.caption,
+  };
 }
 
-export async function getTank(db: Db, actor: Actor, tankId: string): Promise<TankSummary> {
-  const tank = await findTankFor(db, actor, tankId, 'read');
-  return { id: tank.id, name: tank.name, siteLabel: tank.siteLabel };
+/** A 400 naming the fields at fault, in the same shape `validate` gives. */
+export function invalidFields(issues: ErrorIssue[]): HttpError {
+  return new HttpError(400, 'invalid_request', 'Some fields need attention.', issues);
+}
+
+/** `%` and `_` in a search box are letters, not wildcards. */
+export function containsPattern(text: string): string {
+  return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+}
+
+async function ownersOf(db: Db, tankIds: string[]): Promise<Map<string, PersonRef[]>> {
+  const byTank = new Map<string, PersonRef[]>(tankIds.map((id) => [id, []]));
+  if (tankIds.length === 0) return byTank;
+  const rows = await db
+    .select({ tankId: tankMembers.tankId, id: users.id, name: users.name })
+    .from(tankMembers)
+    .innerJoin(users, eq(users.id, tankMembers.userId))
+    .where(inArray(tankMembers.tankId, tankIds))
+    .orderBy(asc(users.name));
+  for (const row of rows) byTank.get(row.tankId)?.push({ id: row.id, name: row.name });
+  return byTank;
+}
+
+const summaryColumns = {
+  tank: tanks,
+  technicianName: technician.name,
+  cover: { id: photos.id, width: photos.width, height: photos.height, caption: photos.caption },
+};
+
+function summaryQuery(db: Db) {
+  return db
+    .select(summaryColumns)
+    .from(tanks)
+    .leftJoin(technician, eq(technician.id, tanks.assignedTechnicianId))
+    .leftJoin(photos, eq(photos.id, tanks.coverPhotoId));
+}
+
+type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>>[number];
+
+function toSummary(row: SummaryRow, owners: PersonRef[], status: TankSummary['status']): TankSummary {
+  const { tank } = row;
+  return {
+    id: tank.id,
+    name: tank.name,
+    siteLabel: tank.siteLabel,
+    waterType: tank.waterType,
+    style: tank.style,
+    displayVolumeL: tank.displayVolumeL,
+    sumpVolumeL: tank.sumpVolumeL,
+    serviceIntervalDays: tank.serviceIntervalDays,
+    assignedTechnician:
+      tank.assignedTechnicianId && row.technicianName
+        ? { id: tank.assignedTechnicianId, name: row.technicianName }
+        : null,
+    owners,
+    coverPhoto: row.cover ? photoRefOf(row.cover) : null,
+    status,
+  };
+}
+
+export async function listTanks(
+  db: Db,
+  actor: Actor,
+  query: TankListQuery,
+  now: Date,
+): Promise<TankSummary[]> {
+  const conditions: SQL[] = [visibleTanks(db, actor)];
+  if (query.q) {
+    const pattern = containsPattern(query.q);
+    const ownerNamed = db
+      .select({ one: tankMembers.userId })
+      .from(tankMembers)
+      .innerJoin(users, eq(users.id, tankMembers.userId))
+      .where(and(eq(tankMembers.tankId, tanks.id), ilike(users.name, pattern)));
+    conditions.push(or(ilike(tanks.name, pattern), ilike(tanks.siteLabel, pattern), exists(ownerNamed))!);
+  }
+  if (query.technicianId === 'none') conditions.push(isNull(tanks.assignedTechnicianId));
+  else if (query.technicianId) conditions.push(eq(tanks.assignedTechnicianId, query.technicianId));
+
+  const rows = await summaryQuery(db)
+    .where(and(...conditions))
+    .orderBy(asc(tanks.name), asc(tanks.id));
+  const ids = rows.map((row) => row.tank.id);
+  const [owners, health] = await Promise.all([ownersOf(db, ids), healthForTanks(db, ids, now)]);
+  return rows.map((row) =>
+    toSummary(row, owners.get(row.tank.id) ?? [], health.get(row.tank.id)?.status ?? 'no-data'),
+  );
+}
+
+export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: Date): Promise<TankDetail> {
+  await findTankFor(db, actor, tankId, 'read');
+  const [row] = await db
+    .select({
+      ...summaryColumns,
+      company: { id: companies.id, name: companies.name, timeZone: companies.timeZone },
+    })
+    .from(tanks)
+    .innerJoin(companies, eq(companies.id, tanks.companyId))
+    .leftJoin(technician, eq(technician.id, tanks.assignedTechnicianId))
+    .leftJoin(photos, eq(photos.id, tanks.coverPhotoId))
+    .where(eq(tanks.id, tankId));
+  const [owners, health] = await Promise.all([ownersOf(db, [tankId]), healthForTanks(db, [tankId], now)]);
+  const tank = row!.tank;
+  return {
+    ...toSummary(row!, owners.get(tankId) ?? [], health.get(tankId)?.status ?? 'no-data'),
+    dimensions:
+      tank.lengthCm !== null && tank.widthCm !== null && tank.heightCm !== null
+        ? { lengthCm: tank.lengthCm, widthCm: tank.widthCm, heightCm: tank.heightCm }
+        : null,
+    setUpOn: tank.setUpOn,
+    notes: tank.notes,
+    timeZone: tank.timeZone,
+    effectiveTimeZone: tank.timeZone ?? row!.company.timeZone,
+    company: { id: row!.company.id, name: row!.company.name },
+    createdAt: tank.createdAt.toISOString(),
+    updatedAt: tank.updatedAt.toISOString(),
+  };
+}
+
+/** Staff who can be put in charge of a tank: active technicians and admins of the company. */
+export function listAssignableStaff(db: Db, actor: Actor): Promise<AssignableStaff[]> {
+  return db
+    .select({ id: users.id, name: users.name, role: users.role })
+    .from(users)
+    .where(and(eq(users.companyId, actor.companyId), ne(users.role, 'owner'), eq(users.status, 'active')))
+    .orderBy(asc(users.name)) as Promise<AssignableStaff[]>;
+}
+
+/** People and photos a tank refers to must belong to the same company (and photo to the tank). */
+async function checkReferences(
+  db: Db,
+  actor: Actor,
+  input: { assignedTechnicianId?: string | null; ownerIds?: string[]; coverPhotoId?: string | null },
+  tankId: string | null,
+): Promise<void> {
+  const issues: ErrorIssue[] = [];
+  if (input.assignedTechnicianId) {
+    const [person] = await db
+      .select({ id: users.id })
+      .from(users)
+      .where(
+        and(
+          eq(users.id, input.assignedTechnicianId),
+          eq(users.companyId, actor.companyId),
+          ne(users.role, 'owner'),
+          eq(users.status, 'active'),
+        ),
+      );
+    if (!person)
+      issues.push({ path: 'body.assignedTechnicianId', message: 'choose one of your active staff' });
+  }
+  if (input.ownerIds && input.ownerIds.length > 0) {
+    const distinct = [...new Set(input.ownerIds)];
+    const found = await db
+      .select({ id: users.id })
+      .from(users)
+      .where(and(inArray(users.id, distinct), eq(users.companyId, actor.companyId), eq(users.role, 'owner')));
+    if (found.length !== distinct.length) {
+      issues.push({ path: 'body.ownerIds', message: 'choose owners from your own clients' });
+    }
+  }
+  if (input.coverPhotoId) {
+    const [photo] = tankId
+      ? await db
+          .select({ id: photos.id })
+          .from(photos)
+          .where(and(eq(photos.id, input.coverPhotoId), eq(photos.tankId, tankId)))
+      : [];
+    if (!photo) issues.push({ path: 'body.coverPhotoId', message: 'choose a photo of this tank' });
+  }
+  if (issues.length > 0) throw invalidFields(issues);
+}
+
+function dimensionColumns(dimensions: CreateTank['dimensions']) {
+  if (dimensions === undefined) return {};
+  return {
+    lengthCm: dimensions?.lengthCm ?? null,
+    widthCm: dimensions?.widthCm ?? null,
+    heightCm: dimensions?.heightCm ?? null,
+  };
+}
+
+async function replaceOwners(db: Db | Tx, tankId: string, ownerIds: string[]) {
+  await db.delete(tankMembers).where(eq(tankMembers.tankId, tankId));
+  const distinct = [...new Set(ownerIds)];
+  if (distinct.length > 0) {
+    await db.insert(tankMembers).values(distinct.map((userId) => ({ tankId, userId })));
+  }
+}
+
+export async function createTank(db: Db, actor: Actor, input: CreateTank, now: Date): Promise<TankDetail> {
+  await checkReferences(db, actor, input, null);
+  const tankId = await db.transaction(async (tx) => {
+    const [tank] = await tx
+      .insert(tanks)
+      .values({
+        companyId: actor.companyId,
+        name: input.name,
+        siteLabel: input.siteLabel ?? null,
+        style: input.style,
+        waterType: tankStyleWaterType[input.style],
+        displayVolumeL: input.displayVolume,
+        sumpVolumeL: input.sumpVolume ?? 0,
+        ...dimensionColumns(input.dimensions ?? null),
+        setUpOn: input.setUpOn ?? null,
+        assignedTechnicianId: input.assignedTechnicianId ?? null,
+        serviceIntervalDays: input.serviceIntervalDays,
+        notes: input.notes ?? null,
+        timeZone: input.timeZone ?? null,
+      })
+      .returning({ id: tanks.id });
+    await replaceOwners(tx, tank!.id, input.ownerIds ?? []);
+    return tank!.id;
+  });
+  return getTankDetail(db, actor, tankId, now);
+}
+
+export async function updateTank(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  input: UpdateTank,
+  now: Date,
+): Promise<TankDetail> {
+  const existing: TankRow = await findTankFor(db, actor, tankId, 'write');
+  const style = input.style ?? existing.style;
+  if (input.waterType && input.waterType !== tankStyleWaterType[style]) {
+    throw invalidFields([
+      { path: 'body.waterType', message: `this tank's style is for ${tankStyleWaterType[style]} water` },
+    ]);
+  }
+  await checkReferences(db, actor, input, tankId);
+  await db.transaction(async (tx) => {
+    const changes = {
+      ...(input.name !== undefined && { name: input.name }),
+      ...(input.siteLabel !== undefined && { siteLabel: input.siteLabel }),
+      ...(input.style !== undefined && { style: input.style, waterType: tankStyleWaterType[input.style] }),
+      ...(input.displayVolume !== undefined && { displayVolumeL: input.displayVolume }),
+      ...(input.sumpVolume !== undefined && { sumpVolumeL: input.sumpVolume }),
+      ...dimensionColumns(input.dimensions),
+      ...(input.setUpOn !== undefined && { setUpOn: input.setUpOn }),
+      ...(input.assignedTechnicianId !== undefined && { assignedTechnicianId: input.assignedTechnicianId }),
+      ...(input.serviceIntervalDays !== undefined && { serviceIntervalDays: input.serviceIntervalDays }),
+      ...(input.notes !== undefined && { notes: input.notes }),
+      ...(input.timeZone !== undefined && { timeZone: input.timeZone }),
+      ...(input.coverPhotoId !== undefined && { coverPhotoId: input.coverPhotoId }),
+    };
+    if (Object.keys(changes).length > 0) {
+      await tx.update(tanks).set(changes).where(eq(tanks.id, tankId));
+    }
+    if (input.ownerIds !== undefined) await replaceOwners(tx, tankId, input.ownerIds);
+  });
+  return getTankDetail(db, actor, tankId, now);
 }

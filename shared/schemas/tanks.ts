@@ -1,10 +1,178 @@
 import { z } from 'zod';
+import { litresFromImperialGallons, litresFromUsGallons, usGallonsFromLitres } from '@shared/chemistry/index';
+import { tankStatusSchema } from '@shared/parameters/health';
+import { tankStyle, tankStyleWaterType } from '@shared/parameters/limit-templates';
+import { waterType } from '@shared/schemas/species';
 
 export const tankIdParams = z.object({ tankId: z.uuid() });
+
+export const volumeUnits = ['litres', 'us-gallons', 'imperial-gallons'] as const;
+export const volumeUnit = z.enum(volumeUnits);
+export type VolumeUnit = z.infer<typeof volumeUnit>;
+
+export const volumeUnitLabels: Readonly<Record<VolumeUnit, { short: string; long: string }>> = {
+  litres: { short: 'L', long: 'litres' },
+  'us-gallons': { short: 'US gal', long: 'US gallons' },
+  'imperial-gallons': { short: 'imp gal', long: 'imperial gallons' },
+};
+
+/** The largest public aquaria hold millions of litres; a client's tank is far below this. */
+export const maxTankVolumeL = 100_000;
+
+export function litresFrom(value: number, unit: VolumeUnit): number {
+  switch (unit) {
+    case 'litres':
+      return value;
+    case 'us-gallons':
+      return litresFromUsGallons(value);
+    case 'imperial-gallons':
+      return litresFromImperialGallons(value);
+  }
+}
+
+export function volumeIn(litres: number, unit: VolumeUnit): number {
+  switch (unit) {
+    case 'litres':
+      return litres;
+    case 'us-gallons':
+      return usGallonsFromLitres(litres);
+    case 'imperial-gallons':
+      return litres / litresFromImperialGallons(1);
+  }
+}
+
+/** A volume as the person entered it; the parsed value is in litres, the unit we store. */
+export const volumeEntry = z
+  .object({ value: z.number().min(0, 'a volume cannot be negative'), unit: volumeUnit })
+  .transform(({ value, unit }) => litresFrom(value, unit))
+  .refine((litres) => litres <= maxTankVolumeL, {
+    message: `a tank holds at most ${maxTankVolumeL.toLocaleString('en')} litres here`,
+  });
+
+export function isTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export const timeZone = z
+  .string()
+  .trim()
+  .min(1)
+  .max(64)
+  .refine(isTimeZone, 'use a time zone such as Europe/London');
+
+export const isoDate = z.iso.date('use a date as YYYY-MM-DD');
+
+const centimetres = z.number().positive('must be above 0').max(2000, 'must be at most 2000 cm');
+export const tankDimensions = z.object({
+  lengthCm: centimetres,
+  widthCm: centimetres,
+  heightCm: centimetres,
+});
+export type TankDimensions = z.infer<typeof tankDimensions>;
+
+const optionalText = (max: number) => z.string().trim().max(max).nullable().optional();
+
+const tankFields = {
+  name: z.string().trim().min(1, 'give the tank a name').max(120),
+  siteLabel: optionalText(200),
+  waterType: waterType.optional(),
+  style: tankStyle,
+  displayVolume: volumeEntry,
+  sumpVolume: volumeEntry.optional(),
+  dimensions: tankDimensions.nullable().optional(),
+  setUpOn: isoDate.nullable().optional(),
+  assignedTechnicianId: z.uuid().nullable().optional(),
+  serviceIntervalDays: z.int().min(1, 'at least 1 day').max(365, 'at most 365 days'),
+  ownerIds: z.array(z.uuid()).max(20).optional(),
+  notes: optionalText(4000),
+  /** Only when the tank is not in the company's time zone. */
+  timeZone: timeZone.nullable().optional(),
+};
+
+/** The style decides the water; a water type sent beside it must agree. */
+function styleSuitsWater(
+  input: { style?: z.infer<typeof tankStyle>; waterType?: string },
+  ctx: z.RefinementCtx,
+) {
+  if (input.style && input.waterType && tankStyleWaterType[input.style] !== input.waterType) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['style'],
+      message: `this style is for ${tankStyleWaterType[input.style]} water, not ${input.waterType}`,
+    });
+  }
+}
+
+export const createTankInput = z
+  .object({ ...tankFields, serviceIntervalDays: tankFields.serviceIntervalDays.default(14) })
+  .superRefine(styleSuitsWater);
+export type CreateTankInput = z.input<typeof createTankInput>;
+
+export const updateTankInput = z
+  .object({ ...tankFields, coverPhotoId: z.uuid().nullable() })
+  .partial()
+  .superRefine(styleSuitsWater);
+export type UpdateTankInput = z.input<typeof updateTankInput>;
+
+export const tankListQuery = z.object({
+  /** Matches the tank's name, its site or an owner's name. */
+  q: z.string().trim().max(100).optional(),
+  /** A staff member's id, or "none" for tanks nobody is assigned to. */
+  technicianId: z.union([z.uuid(), z.literal('none')]).optional(),
+});
+export type TankListQuery = z.infer<typeof tankListQuery>;
+
+export const personRef = z.object({ id: z.uuid(), name: z.string() });
+export type PersonRef = z.infer<typeof personRef>;
+
+export const photoRef = z.object({
+  id: z.uuid(),
+  url: z.string(),
+  thumbnailUrl: z.string(),
+  width: z.int(),
+  height: z.int(),
+  caption: z.string().nullable(),
+});
+export type PhotoRef = z.infer<typeof photoRef>;
 
 export const tankSummary = z.object({
   id: z.uuid(),
   name: z.string(),
   siteLabel: z.string().nullable(),
+  waterType,
+  style: tankStyle,
+  displayVolumeL: z.number(),
+  sumpVolumeL: z.number(),
+  serviceIntervalDays: z.int(),
+  assignedTechnician: personRef.nullable(),
+  owners: z.array(personRef),
+  coverPhoto: photoRef.nullable(),
+  status: tankStatusSchema,
 });
 export type TankSummary = z.infer<typeof tankSummary>;
+
+export const tankDetail = tankSummary.extend({
+  dimensions: tankDimensions.nullable(),
+  setUpOn: z.string().nullable(),
+  notes: z.string().nullable(),
+  /** The tank's own zone, when it overrides the company's. */
+  timeZone: z.string().nullable(),
+  /** The zone the tank's times are shown in: its own, else the company's. */
+  effectiveTimeZone: z.string(),
+  company: z.object({ id: z.uuid(), name: z.string() }),
+  createdAt: z.iso.datetime(),
+  updatedAt: z.iso.datetime(),
+});
+export type TankDetail = z.infer<typeof tankDetail>;
+
+export const assignableStaff = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  role: z.enum(['technician', 'admin']),
+});
+export type AssignableStaff = z.infer<typeof assignableStaff>;

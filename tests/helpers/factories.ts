@@ -81,7 +81,12 @@ export async function createTank(
 export async function insertReadings(
   db: Db,
   tank: { id: string; companyId: string },
-  list: Array<{ parameter: ParameterKey; value: number; measuredAt: Date; source?: 'visit' | 'home-test' | 'device' }>,
+  list: Array<{
+    parameter: ParameterKey;
+    value: number;
+    measuredAt: Date;
+    source?: 'visit' | 'home-test' | 'device';
+  }>,
 ) {
   if (list.length === 0) return [];
   const rows = list.map((r) => ({
@@ -95,22 +100,29 @@ export async function insertReadings(
     source: r.source ?? ('device' as const),
   }));
   await db.insert(readings).values(rows);
-  return rows.map((r) => ({ parameter: r.parameter, value: r.value, measuredAt: r.measuredAt, source: r.source }));
+  return rows.map((r) => ({
+    parameter: r.parameter,
+    value: r.value,
+    measuredAt: r.measuredAt,
+    source: r.source,
+  }));
 }
 
 /** An animal already in the tank (catalogue species), with the first line of its history. */
 export async function addLivestockTo(
   db: Db,
   tank: { id: string; companyId: string },
-  options: Partial<typeof livestock.$inferInsert> & { catalogueSpeciesId: string },
+  options: Partial<typeof livestock.$inferInsert> & { catalogueSpeciesId: string; changedAt?: Date },
 ) {
+  // A day ago by default, so anything a test records "now" comes after it.
+  const { changedAt = new Date(Date.now() - 86_400_000), ...columns } = options;
   const [row] = await db
     .insert(livestock)
-    .values({ companyId: tank.companyId, tankId: tank.id, ...options })
+    .values({ companyId: tank.companyId, tankId: tank.id, ...columns })
     .returning();
   await db
     .insert(livestockStatusEvents)
-    .values({ livestockId: row!.id, status: row!.status, note: 'Added to the tank.', changedAt: new Date() });
+    .values({ livestockId: row!.id, status: row!.status, note: 'Added to the tank.', changedAt });
   return row!;
 }
 

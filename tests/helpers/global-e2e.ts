@@ -5,6 +5,7 @@ import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { connectDatabase } from '../../api/db/client';
 import { seedDemo } from '../../api/db/seed/index';
+import { objectStorageFor } from '../../api/db/seed/photos';
 import { startStandIns } from '../../api/dev/stand-ins';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
@@ -48,7 +49,9 @@ export default async function setup(project: TestProject) {
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
-  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER });
+  const seedStorage = objectStorageFor(env);
+  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage });
+  seedStorage.close();
   await seeding.pool.end();
   const server = await startServer({ env, databaseUrl: database.url, logger: createLogger('silent') });
   project.provide('appUrl', server.url);

@@ -2,6 +2,8 @@ import { Link, NavLink, Outlet, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
 import { useMe } from '../features/auth/api/get-me';
 import { UserMenu } from '../features/auth/components/user-menu';
+import { NotificationBell } from '../features/notifications/components/notification-bell';
+import { useLiveEvents } from '../features/notifications/live-events';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
   `inline-flex min-h-11 items-center rounded-md px-3 text-sm font-bold no-underline transition-colors ${
@@ -14,6 +16,7 @@ function MainNav() {
   if (me?.role === 'owner') links.push({ to: '/tanks', label: 'My tanks' });
   if (me && me.role !== 'owner') {
     links.push({ to: '/console', label: 'Tanks', end: true }, { to: '/console/clients', label: 'Clients' });
+    links.push({ to: '/console/alerts', label: 'Alerts' });
     if (me.role === 'admin') links.push({ to: '/console/staff', label: 'Staff' });
   }
   links.push({ to: '/calculators', label: 'Calculators' });
@@ -33,6 +36,7 @@ function MainNav() {
 
 export function RootLayout() {
   const navigation = useNavigation();
+  useLiveEvents();
   return (
     <div className="flex min-h-dvh flex-col">
       <a
@@ -48,7 +52,11 @@ export function RootLayout() {
             <span className="text-lg font-bold tracking-tight">Brinewatch</span>
           </Link>
           <MainNav />
-          <UserMenu />
+          {/* On a phone the bell joins the brand's row; the user menu wraps below as before. */}
+          <div className="contents sm:flex sm:items-center sm:gap-2">
+            <NotificationBell />
+            <UserMenu />
+          </div>
         </div>
         {navigation.state === 'loading' && (
           <div className="h-0.5 animate-pulse bg-brine-300" role="progressbar" aria-label="Loading page" />

@@ -40,6 +40,10 @@ const router = createBrowserRouter([
                 index: true,
                 lazy: async () => ({ Component: (await import('./routes/tanks')).MyTanksRoute }),
               },
+              {
+                path: ':tankId',
+                lazy: async () => ({ Component: (await import('./routes/tank')).TankRoute }),
+              },
             ],
           },
           {
@@ -51,10 +55,38 @@ const router = createBrowserRouter([
                 lazy: async () => ({ Component: (await import('./routes/console')).ConsoleHomeRoute }),
               },
               {
+                path: 'tanks/new',
+                lazy: async () => ({
+                  Component: (await import('./routes/console-tank-new')).ConsoleTankNewRoute,
+                }),
+              },
+              {
+                path: 'tanks/:tankId/edit',
+                lazy: async () => ({
+                  Component: (await import('./routes/console-tank-edit')).ConsoleTankEditRoute,
+                }),
+              },
+              {
+                path: 'tanks/:tankId/livestock',
+                lazy: async () => ({
+                  Component: (await import('./routes/console-tank-livestock')).ConsoleTankLivestockRoute,
+                }),
+              },
+              {
+                path: 'tanks/:tankId/equipment',
+                lazy: async () => ({
+                  Component: (await import('./routes/console-tank-equipment')).ConsoleTankEquipmentRoute,
+                }),
+              },
+              {
                 path: 'clients',
                 lazy: async () => ({
                   Component: (await import('./routes/console-clients')).ConsoleClientsRoute,
                 }),
+              },
+              {
+                path: 'alerts',
+                lazy: async () => ({ Component: (await import('./routes/alerts-board')).ConsoleAlertsRoute }),
               },
               {
                 path: 'staff',
@@ -67,6 +99,18 @@ const router = createBrowserRouter([
                     }),
                   },
                 ],
+              },
+            ],
+          },
+          {
+            path: 'settings',
+            element: <RequireRole roles={everyone} />,
+            children: [
+              {
+                path: 'notifications',
+                lazy: async () => ({
+                  Component: (await import('./routes/settings-notifications')).NotificationSettingsRoute,
+                }),
               },
             ],
           },

@@ -28,6 +28,8 @@ export const companySpecies = pgTable(
       .references(() => companies.id, { onDelete: 'cascade' }),
     commonName: text('common_name').notNull(),
     scientificName: text('scientific_name').notNull(),
+    /** Scientific family when known; rivalry between related fish is judged by it. */
+    family: text('family'),
     /** The same care-profile shape as the catalogue, validated by shared/schemas/species.ts. */
     profile: jsonb('profile').notNull(),
     ...timestamps,

@@ -1,8 +1,23 @@
 import { createHash } from 'node:crypto';
 import { sql } from 'drizzle-orm';
+import { addDays } from '@shared/schemas/equipment';
+import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { demoPeople } from '../../dev/demo-people';
+import type { ObjectStorage } from '../../lib/object-storage';
 import type { Db } from '../client';
-import { companies, tankMembers, tanks, users } from '../schema/index';
+import {
+  companies,
+  equipment,
+  livestock,
+  livestockStatusEvents,
+  tankMembers,
+  tanks,
+  users,
+} from '../schema/index';
+import { seedDemoPhotos } from './photos';
+import { demoEquipment, demoLivestock, demoTanks } from './scenario';
+
+export { demoTanks } from './scenario';
 
 /** Stable ids for demo rows (name-based, like UUID v5), so seeding twice updates in place. */
 export function demoId(key: string): string {
@@ -10,50 +25,42 @@ export function demoId(key: string): string {
   return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-5${hex.slice(13, 16)}-a${hex.slice(17, 20)}-${hex.slice(20, 32)}`;
 }
 
-export const demoTanks = [
-  {
-    key: 'ashdown-reef',
-    name: 'Living room reef',
-    siteLabel: 'Ashdown family home — living room',
-    owners: ['u-helen'],
-  },
-  {
-    key: 'ashdown-river',
-    name: "Kids' river tank",
-    siteLabel: 'Ashdown family home — playroom',
-    owners: ['u-helen'],
-  },
-  {
-    key: 'quayside-reef',
-    name: 'Waiting room reef',
-    siteLabel: 'Quayside Dental — waiting room',
-    owners: ['u-felix'],
-  },
-  {
-    key: 'saltfig-lagoon',
-    name: 'Dining room lagoon',
-    siteLabel: 'Salt Fig Kitchen — dining room',
-    owners: ['u-rosa'],
-  },
-  {
-    key: 'ferrous-planted',
-    name: 'Reception planted tank',
-    siteLabel: 'Ferrous Studio — reception',
-    owners: ['u-sam'],
-  },
-] as const;
+export const demoTankId = (tankKey: string) => demoId(tankKey);
+export const demoLivestockId = (tankKey: string, key: string) => demoId(`livestock:${tankKey}:${key}`);
 
 export const demoCompanies = [
   { slug: 'driftglass', name: 'Driftglass Aquatic Care', timeZone: 'Europe/London' },
   { slug: 'northpool', name: 'Northpool Aquaria', timeZone: 'Europe/Dublin' },
 ] as const;
 
+export interface SeedOptions {
+  issuer: string;
+  /** Where the demo photos go; without it the scenario is written without photos. */
+  storage?: ObjectStorage;
+  /** The day the story is told from; dates in the scenario count back from it. */
+  now?: Date;
+}
+
+/** Updates every column but the key on conflict, so a second run leaves each row as the first did. */
+function excludedAll(columns: string[]) {
+  return Object.fromEntries(columns.map((column) => [column, sql.raw(`excluded.${toSnake(column)}`)]));
+}
+
+function toSnake(name: string): string {
+  return name.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`);
+}
+
 /**
- * Writes the invented demo scenario. Idempotent: rows are keyed by natural keys
- * (company slug, identity) and updated in place, so running it twice changes nothing.
+ * Writes the invented demo scenario. Idempotent: rows are keyed by natural keys (company slug,
+ * identity) or by `demoId`, and updated in place, so running it twice changes nothing.
  */
-export async function seedDemo(db: Db, options: { issuer: string }): Promise<void> {
-  await db.transaction(async (tx) => {
+export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
+  const now = options.now ?? new Date();
+  const today = now.toISOString().slice(0, 10);
+  const daysAgo = (days: number) => addDays(today, -days);
+  const momentDaysAgo = (days: number) => new Date(now.getTime() - days * 86_400_000);
+
+  const { driftglass, userId } = await db.transaction(async (tx) => {
     const companyRows = await tx
       .insert(companies)
       .values([...demoCompanies])
@@ -82,29 +89,130 @@ export async function seedDemo(db: Db, options: { issuer: string }): Promise<voi
       })
       .returning({ id: users.id, subject: users.subject });
     const userId = new Map(userRows.map((row) => [row.subject, row.id]));
-
     const driftglass = companyId.get('driftglass')!;
+
+    const tankRows = demoTanks.map((t) => ({
+      id: demoTankId(t.key),
+      companyId: driftglass,
+      name: t.name,
+      siteLabel: t.siteLabel,
+      style: t.style,
+      waterType: tankStyleWaterType[t.style],
+      displayVolumeL: t.displayVolumeL,
+      sumpVolumeL: t.sumpVolumeL,
+      lengthCm: t.dimensionsCm.length,
+      widthCm: t.dimensionsCm.width,
+      heightCm: t.dimensionsCm.height,
+      setUpOn: daysAgo(t.setUpDaysAgo),
+      assignedTechnicianId: userId.get(t.technician)!,
+      serviceIntervalDays: t.serviceIntervalDays,
+      notes: t.notes,
+    }));
     await tx
       .insert(tanks)
-      .values(
-        demoTanks.map((t) => ({
-          id: demoId(t.key),
-          companyId: driftglass,
-          name: t.name,
-          siteLabel: t.siteLabel,
-        })),
-      )
+      .values(tankRows)
       .onConflictDoUpdate({
         target: tanks.id,
-        set: { name: sql`excluded.name`, siteLabel: sql`excluded.site_label` },
+        set: excludedAll(Object.keys(tankRows[0]!).filter((k) => k !== 'id')),
       });
     await tx
       .insert(tankMembers)
       .values(
         demoTanks.flatMap((t) =>
-          t.owners.map((sub) => ({ tankId: demoId(t.key), userId: userId.get(sub)! })),
+          t.owners.map((sub) => ({ tankId: demoTankId(t.key), userId: userId.get(sub)! })),
         ),
       )
       .onConflictDoNothing();
+
+    const equipmentRows = demoTanks.flatMap((t) =>
+      demoEquipment[t.key].map((item) => ({
+        id: demoId(`equipment:${t.key}:${item.key}`),
+        companyId: driftglass,
+        tankId: demoTankId(t.key),
+        kind: item.kind,
+        description: item.description,
+        installedOn: item.installedDaysAgo === undefined ? null : daysAgo(item.installedDaysAgo),
+        maintenanceIntervalDays: item.maintenanceIntervalDays ?? null,
+        lastServicedOn: item.lastServicedDaysAgo === undefined ? null : daysAgo(item.lastServicedDaysAgo),
+        powerBoard: item.powerBoard ?? null,
+        outlet: item.outlet ?? null,
+        notes: item.notes ?? null,
+      })),
+    );
+    await tx
+      .insert(equipment)
+      .values(equipmentRows)
+      .onConflictDoUpdate({
+        target: equipment.id,
+        set: excludedAll(Object.keys(equipmentRows[0]!).filter((k) => k !== 'id')),
+      });
+
+    const livestockRows = demoTanks.flatMap((t) =>
+      demoLivestock[t.key].map((animal) => ({
+        id: demoLivestockId(t.key, animal.key),
+        companyId: driftglass,
+        tankId: demoTankId(t.key),
+        catalogueSpeciesId: animal.speciesId,
+        nickname: animal.nickname ?? null,
+        quantity: animal.quantity ?? 1,
+        addedOn: daysAgo(animal.addedDaysAgo),
+        source: animal.source ?? null,
+        placement: animal.placement ?? null,
+        status: animal.history.at(-1)!.status,
+      })),
+    );
+    await tx
+      .insert(livestock)
+      .values(livestockRows)
+      .onConflictDoUpdate({
+        target: livestock.id,
+        set: excludedAll(Object.keys(livestockRows[0]!).filter((k) => k !== 'id')),
+      });
+
+    const eventRows = demoTanks.flatMap((t) =>
+      demoLivestock[t.key].flatMap((animal) =>
+        animal.history.map((change, index) => ({
+          id: demoId(`livestock-event:${t.key}:${animal.key}:${index}`),
+          livestockId: demoLivestockId(t.key, animal.key),
+          status: change.status,
+          note: change.note,
+          changedBy: userId.get(change.by)!,
+          changedAt: momentDaysAgo(change.daysAgo),
+        })),
+      ),
+    );
+    await tx
+      .insert(livestockStatusEvents)
+      .values(eventRows)
+      .onConflictDoUpdate({
+        target: livestockStatusEvents.id,
+        set: excludedAll(Object.keys(eventRows[0]!).filter((k) => k !== 'id')),
+      });
+
+    // A status someone recorded in the running demo is newer than the scenario's: it stays current.
+    await tx.execute(sql`
+      update livestock set status = latest.status
+      from (
+        select distinct on (livestock_id) livestock_id, status
+        from livestock_status_events
+        order by livestock_id, changed_at desc, created_at desc
+      ) as latest
+      where latest.livestock_id = livestock.id
+        and livestock.id in (${sql.join(
+          livestockRows.map((row) => sql`${row.id}::uuid`),
+          sql`, `,
+        )})`);
+
+    return { driftglass, userId };
   });
+
+  if (options.storage) {
+    await seedDemoPhotos(db, options.storage, {
+      companyId: driftglass,
+      tankId: demoTankId,
+      livestockId: demoLivestockId,
+      photoId: (key) => demoId(`photo:${key}`),
+      uploadedBy: userId.get('u-tomas')!,
+    });
+  }
 }

@@ -1,16 +1,15 @@
-import { useQuery } from '@tanstack/react-query';
-import type { TankSummary } from '@shared/schemas/tanks';
 import { Page } from '../../components/page';
 import { EmptyState, ErrorState, LoadingState } from '../../components/states';
-import { api } from '../../lib/api-client';
+import { useTanksList } from '../../features/tanks/api/get-tanks';
+import { TankCard } from '../../features/tanks/components/tank-card';
 
 export function MyTanksRoute() {
-  const tanks = useQuery({
-    queryKey: ['tanks'],
-    queryFn: ({ signal }) => api<TankSummary[]>('/tanks', { signal }),
-  });
+  const tanks = useTanksList();
   return (
-    <Page title="My tanks">
+    <Page
+      title="My tanks"
+      description="Each tank's health at a glance. Open one for its readings, livestock and equipment."
+    >
       {tanks.isPending ? (
         <LoadingState label="Loading your tanks…" />
       ) : tanks.isError ? (
@@ -22,9 +21,8 @@ export function MyTanksRoute() {
       ) : (
         <ul className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
           {tanks.data.map((tank) => (
-            <li key={tank.id} className="rounded-card bg-white p-5 shadow-card">
-              <h2 className="font-bold text-ink-900">{tank.name}</h2>
-              {tank.siteLabel && <p className="mt-1 text-sm text-ink-700">{tank.siteLabel}</p>}
+            <li key={tank.id}>
+              <TankCard tank={tank} />
             </li>
           ))}
         </ul>

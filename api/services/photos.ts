@@ -1,0 +1,151 @@
+import { and, asc, eq } from 'drizzle-orm';
+import { photoUrls, type PhotoItem } from '@shared/schemas/photos';
+import type { AppDeps } from '../deps';
+import type { Db } from '../db/client';
+import { livestock, photos, tanks } from '../db/schema/index';
+import { processUpload } from '../lib/images';
+import { newPhotoKey, type ObjectStorage, type StoredObject } from '../lib/object-storage';
+import type { Logger } from '../lib/logger';
+import { notFound } from '../lib/http-error';
+import { findTankFor, visibleTanks } from '../policy/index';
+import type { Actor } from './actors';
+import { invalidFields } from './tanks';
+
+type PhotoRow = typeof photos.$inferSelect;
+
+export function photoItemOf(row: PhotoRow): PhotoItem {
+  return {
+    id: row.id,
+    tankId: row.tankId,
+    livestockId: row.livestockId,
+    subject: row.subject,
+    ...photoUrls(row.id),
+    width: row.width,
+    height: row.height,
+    caption: row.caption,
+    uploadedAt: row.createdAt.toISOString(),
+  };
+}
+
+export interface PhotoUpload {
+  bytes: Buffer;
+  livestockId?: string;
+  caption?: string;
+  cover: boolean;
+}
+
+/**
+ * Re-encodes the upload (dropping everything the camera wrote), stores both sizes under keys
+ * made here, then records it. The objects are written first so a row never points at nothing.
+ */
+export async function uploadPhoto(
+  deps: Pick<AppDeps, 'db' | 'storage' | 'clock'>,
+  actor: Actor,
+  tankId: string,
+  upload: PhotoUpload,
+): Promise<PhotoItem> {
+  const { db, storage, clock } = deps;
+  const tank = await findTankFor(db, actor, tankId, 'write');
+  if (upload.livestockId) {
+    const [animal] = await db
+      .select({ id: livestock.id })
+      .from(livestock)
+      .where(and(eq(livestock.id, upload.livestockId), eq(livestock.tankId, tank.id)));
+    if (!animal)
+      throw invalidFields([{ path: 'body.livestockId', message: 'choose livestock in this tank' }]);
+  }
+  const { main, thumbnail } = await processUpload(upload.bytes);
+  const now = clock();
+  const objectKey = newPhotoKey('main', now);
+  const thumbnailKey = newPhotoKey('thumbnail', now);
+  await Promise.all([
+    storage.put(objectKey, main.buffer, main.contentType),
+    storage.put(thumbnailKey, thumbnail.buffer, thumbnail.contentType),
+  ]);
+  try {
+    const row = await db.transaction(async (tx) => {
+      const [created] = await tx
+        .insert(photos)
+        .values({
+          companyId: tank.companyId,
+          tankId: tank.id,
+          livestockId: upload.livestockId ?? null,
+          subject: upload.livestockId ? 'livestock' : 'tank',
+          objectKey,
+          thumbnailKey,
+          contentType: main.contentType,
+          width: main.width,
+          height: main.height,
+          bytes: main.buffer.length,
+          caption: upload.caption || null,
+          uploadedBy: actor.id,
+        })
+        .returning();
+      if (upload.cover)
+        await tx.update(tanks).set({ coverPhotoId: created!.id }).where(eq(tanks.id, tank.id));
+      return created!;
+    });
+    return photoItemOf(row);
+  } catch (error) {
+    // Nothing refers to the objects yet; leaving them would only fill the bucket.
+    await Promise.allSettled([storage.delete(objectKey), storage.delete(thumbnailKey)]);
+    throw error;
+  }
+}
+
+export async function listTankPhotos(db: Db, actor: Actor, tankId: string): Promise<PhotoItem[]> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const rows = await db
+    .select()
+    .from(photos)
+    .where(eq(photos.tankId, tank.id))
+    .orderBy(asc(photos.createdAt), asc(photos.id));
+  return rows.map(photoItemOf);
+}
+
+/** A photo under exactly its tank's access rule: anyone who cannot see the tank gets a 404. */
+async function findVisiblePhoto(db: Db, actor: Actor, photoId: string): Promise<PhotoRow> {
+  const [row] = await db
+    .select({ photo: photos })
+    .from(photos)
+    .innerJoin(tanks, eq(tanks.id, photos.tankId))
+    .where(and(eq(photos.id, photoId), visibleTanks(db, actor)));
+  if (!row) throw notFound('photo');
+  return row.photo;
+}
+
+export async function openPhoto(
+  deps: Pick<AppDeps, 'db' | 'storage'>,
+  actor: Actor,
+  photoId: string,
+  size: 'main' | 'thumbnail',
+): Promise<StoredObject> {
+  const photo = await findVisiblePhoto(deps.db, actor, photoId);
+  const stored = await deps.storage.get(size === 'main' ? photo.objectKey : photo.thumbnailKey);
+  if (!stored) throw notFound('photo');
+  return stored;
+}
+
+export async function deletePhoto(
+  deps: Pick<AppDeps, 'db' | 'storage' | 'logger'>,
+  actor: Actor,
+  photoId: string,
+): Promise<void> {
+  const photo = await findVisiblePhoto(deps.db, actor, photoId);
+  await findTankFor(deps.db, actor, photo.tankId, 'write');
+  await deps.db.delete(photos).where(eq(photos.id, photo.id));
+  await discardObjects(deps.storage, deps.logger, [photo.objectKey, photo.thumbnailKey]);
+}
+
+/**
+ * After the rows are gone the objects are unreachable, so a failure to delete one is logged for
+ * clean-up rather than reported to someone whose deletion has already happened.
+ */
+export async function discardObjects(storage: ObjectStorage, logger: Logger, keys: string[]): Promise<void> {
+  const results = await Promise.allSettled(keys.map((key) => storage.delete(key)));
+  results.forEach((result, index) => {
+    if (result.status === 'rejected') {
+      logger.warn({ err: result.reason, key: keys[index] }, 'could not delete a stored photo');
+    }
+  });
+}

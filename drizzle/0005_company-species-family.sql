@@ -1,0 +1,1 @@
+ALTER TABLE "company_species" ADD COLUMN "family" text;

@@ -1,0 +1,150 @@
+import { Link, useParams } from 'react-router';
+import { Page } from '../../components/page';
+import { ErrorState, LoadingState } from '../../components/states';
+import { TankAlertsSection } from '../../features/alerts/components/tank-alerts-section';
+import { useMe } from '../../features/auth/api/get-me';
+import { EquipmentList } from '../../features/equipment/components/equipment-list';
+import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
+import { useEquipment } from '../../features/equipment/api/get-equipment';
+import { useComfortRange } from '../../features/livestock/api/get-comfort-range';
+import { useLivestock } from '../../features/livestock/api/get-livestock';
+import { ComfortRangePanel } from '../../features/livestock/components/comfort-range-panel';
+import { LivestockGallery } from '../../features/livestock/components/livestock-gallery';
+import { TankReadingsSection } from '../../features/readings/components/tank-readings-section';
+import { useTank } from '../../features/tanks/api/get-tank';
+import { TankOverview } from '../../features/tanks/components/tank-overview';
+import { todayIn } from '../../features/tanks/utils/format';
+
+const actionClass =
+  'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
+
+function Section({
+  id,
+  title,
+  description,
+  children,
+}: {
+  id: string;
+  title: string;
+  description?: string;
+  children: React.ReactNode;
+}) {
+  return (
+    <section aria-labelledby={id} className="mt-8">
+      <h2 id={id} className="text-xl font-bold text-ink-900">
+        {title}
+      </h2>
+      {description && <p className="mt-1 text-sm text-ink-700">{description}</p>}
+      <div className="mt-3">{children}</div>
+    </section>
+  );
+}
+
+function LivestockSection({ tankId, timeZone }: { tankId: string; timeZone: string }) {
+  const livestock = useLivestock(tankId);
+  const comfort = useComfortRange(tankId);
+  return (
+    <Section
+      id="livestock-title"
+      title="Livestock"
+      description="What lives in the tank and how each is doing."
+    >
+      {livestock.isPending ? (
+        <LoadingState label="Loading livestock…" />
+      ) : livestock.isError ? (
+        <ErrorState error={livestock.error} what="the livestock" onRetry={() => void livestock.refetch()} />
+      ) : (
+        <LivestockGallery livestock={livestock.data} timeZone={timeZone} />
+      )}
+      {comfort.data && (comfort.data.species.length > 0 || comfort.data.conflicts.length > 0) && (
+        <details className="mt-4 rounded-card bg-white p-4 shadow-card">
+          <summary className="flex min-h-11 cursor-pointer items-center font-bold text-ink-900">
+            Comfort range: the water they all tolerate
+          </summary>
+          <div className="mt-2">
+            <ComfortRangePanel comfort={comfort.data} />
+          </div>
+        </details>
+      )}
+    </Section>
+  );
+}
+
+function EquipmentSection({ tankId, timeZone }: { tankId: string; timeZone: string }) {
+  const equipment = useEquipment(tankId);
+  return (
+    <Section
+      id="equipment-title"
+      title="Equipment and power boards"
+      description="Where everything is plugged in, so you can switch off the right outlet."
+    >
+      {equipment.isPending ? (
+        <LoadingState label="Loading equipment…" />
+      ) : equipment.isError ? (
+        <ErrorState error={equipment.error} what="the equipment" onRetry={() => void equipment.refetch()} />
+      ) : (
+        <div className="space-y-6">
+          <PowerBoardMap equipment={equipment.data} />
+          <div>
+            <h3 className="mb-2 text-lg font-bold text-ink-900">Equipment and maintenance</h3>
+            <EquipmentList equipment={equipment.data} today={todayIn(timeZone)} />
+          </div>
+        </div>
+      )}
+    </Section>
+  );
+}
+
+export function TankRoute() {
+  const { tankId = '' } = useParams();
+  const tank = useTank(tankId);
+  const { data: me } = useMe();
+  const isStaff = me?.role === 'technician' || me?.role === 'admin';
+
+  if (tank.isPending) {
+    return (
+      <Page title="Tank">
+        <LoadingState label="Loading the tank…" />
+      </Page>
+    );
+  }
+  if (tank.isError) {
+    return (
+      <Page title="Tank">
+        <ErrorState error={tank.error} what="this tank" onRetry={() => void tank.refetch()} />
+      </Page>
+    );
+  }
+  const timeZone = tank.data.effectiveTimeZone;
+  return (
+    <Page
+      title={tank.data.name}
+      description={tank.data.siteLabel}
+      actions={
+        isStaff ? (
+          <>
+            <Link to={`/console/tanks/${tankId}/edit`} className={actionClass}>
+              Edit tank
+            </Link>
+            <Link to={`/console/tanks/${tankId}/livestock`} className={actionClass}>
+              Manage livestock
+            </Link>
+            <Link to={`/console/tanks/${tankId}/equipment`} className={actionClass}>
+              Manage equipment
+            </Link>
+          </>
+        ) : undefined
+      }
+    >
+      <TankOverview tank={tank.data} />
+      <div className="mt-8">
+        <TankAlertsSection tankId={tankId} />
+      </div>
+      <div className="mt-8">
+        <TankReadingsSection tankId={tankId} canEdit />
+      </div>
+      <LivestockSection tankId={tankId} timeZone={timeZone} />
+      <EquipmentSection tankId={tankId} timeZone={timeZone} />
+    </Page>
+  );
+}

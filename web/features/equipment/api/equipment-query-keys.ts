@@ -1,0 +1,3 @@
+export const equipmentKeys = {
+  list: (tankId: string) => ['tanks', 'detail', tankId, 'equipment'] as const,
+};

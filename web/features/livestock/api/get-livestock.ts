@@ -1,0 +1,15 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { LivestockItem } from '@shared/schemas/livestock';
+import { api } from '../../../lib/api-client';
+import { livestockKeys } from './livestock-query-keys';
+
+export const getLivestock = (tankId: string, signal?: AbortSignal) =>
+  api<LivestockItem[]>(`/tanks/${tankId}/livestock`, { signal });
+
+export const livestockQueryOptions = (tankId: string) =>
+  queryOptions({
+    queryKey: livestockKeys.list(tankId),
+    queryFn: ({ signal }) => getLivestock(tankId, signal),
+  });
+
+export const useLivestock = (tankId: string) => useQuery(livestockQueryOptions(tankId));

@@ -1,0 +1,200 @@
+import { useState, type FormEvent } from 'react';
+import type { LivestockItem } from '@shared/schemas/livestock';
+import { livestockStatusLabels } from '@shared/schemas/livestock';
+import { livestockStatuses, type LivestockStatus } from '@shared/schemas/livestock-status';
+import { Button } from '../../../components/button';
+import { ApiError } from '../../../lib/api-client';
+import { fieldErrors, SelectField, TextAreaField, TextField } from '../../tanks/components/fields';
+import { PhotoUploader } from '../../tanks/components/photo-uploader';
+import { capitalise, formatMoment } from '../../tanks/utils/format';
+import { useDeleteLivestock } from '../api/delete-livestock';
+import { useUpdateLivestock } from '../api/update-livestock';
+import { displayName, hazardOf } from './livestock-gallery';
+import { HandlingCaution } from './handling-caution';
+import { LivestockPicture } from './livestock-picture';
+import { LivestockStatusBadge } from './livestock-status-badge';
+
+function ChangeForm({ tankId, item, onDone }: { tankId: string; item: LivestockItem; onDone: () => void }) {
+  const [status, setStatus] = useState<LivestockStatus>(item.status);
+  const [statusNote, setStatusNote] = useState('');
+  const [quantity, setQuantity] = useState(String(item.quantity));
+  const [placement, setPlacement] = useState(item.placement ?? '');
+  const [nickname, setNickname] = useState(item.nickname ?? '');
+  const update = useUpdateLivestock(tankId);
+  const errors = update.error instanceof ApiError ? fieldErrors(update.error.issues) : {};
+
+  const submit = (event: FormEvent) => {
+    event.preventDefault();
+    const statusChanged = status !== item.status || statusNote.trim() !== '';
+    update.mutate(
+      {
+        livestockId: item.id,
+        input: {
+          quantity: Number(quantity),
+          placement: placement.trim() || null,
+          nickname: nickname.trim() || null,
+          ...(statusChanged ? { status, statusNote: statusNote.trim() || null } : {}),
+        },
+      },
+      { onSuccess: onDone },
+    );
+  };
+
+  return (
+    <form
+      onSubmit={submit}
+      noValidate
+      className="mt-3 space-y-3 rounded-lg bg-ink-50 p-3"
+      aria-label={`Update ${displayName(item)}`}
+    >
+      <div className="grid gap-3 sm:grid-cols-2">
+        <SelectField
+          label="Condition"
+          value={status}
+          onChange={(value) => setStatus(value as LivestockStatus)}
+          options={livestockStatuses.map((value) => ({ value, label: livestockStatusLabels[value] }))}
+          hint="Removed: it left the tank. The history is kept."
+          error={errors.status}
+        />
+        <TextField
+          label="How many"
+          inputMode="numeric"
+          value={quantity}
+          onChange={setQuantity}
+          error={errors.quantity}
+        />
+        <TextField label="Nickname" value={nickname} onChange={setNickname} maxLength={80} />
+        <TextField label="Where in the tank" value={placement} onChange={setPlacement} maxLength={120} />
+      </div>
+      <TextAreaField
+        label="What you saw (kept in the history)"
+        value={statusNote}
+        onChange={setStatusNote}
+        rows={2}
+        maxLength={500}
+        error={errors.statusNote}
+      />
+      {update.isError && (
+        <p role="alert" className="text-sm font-bold text-alert-700">
+          The change could not be saved.
+        </p>
+      )}
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" disabled={update.isPending}>
+          {update.isPending ? 'Saving…' : 'Save'}
+        </Button>
+        <Button tone="secondary" onClick={onDone}>
+          Cancel
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+function ManagedItem({ tankId, item, timeZone }: { tankId: string; item: LivestockItem; timeZone: string }) {
+  const [mode, setMode] = useState<'view' | 'change' | 'photo'>('view');
+  const remove = useDeleteLivestock(tankId);
+  const name = displayName(item);
+  const hazard = hazardOf(item);
+  const latest = item.history[0];
+  return (
+    <li className="rounded-card bg-white p-4 shadow-card">
+      <div className="flex gap-3">
+        <div className="h-20 w-24 shrink-0 overflow-hidden rounded-lg">
+          <LivestockPicture
+            photo={item.photos.at(-1)}
+            group={item.species.profile.group}
+            alt={`Photo of the ${item.species.commonName}`}
+          />
+        </div>
+        <div className="min-w-0 flex-1">
+          <div className="flex flex-wrap items-start justify-between gap-2">
+            <div className="min-w-0">
+              <h3 className="font-bold text-ink-950">
+                {name}
+                {item.quantity > 1 && <span className="font-normal text-ink-700"> × {item.quantity}</span>}
+              </h3>
+              <p className="text-sm text-ink-700">
+                {item.nickname && `${capitalise(item.species.commonName)} · `}
+                <i>{item.species.scientificName}</i>
+              </p>
+            </div>
+            <LivestockStatusBadge status={item.status} />
+          </div>
+          {latest && (
+            <p className="mt-1 text-sm text-ink-700">
+              {formatMoment(latest.changedAt, timeZone)}
+              {latest.note && `: ${latest.note}`}
+            </p>
+          )}
+        </div>
+      </div>
+      {hazard && (
+        <div className="mt-3">
+          <HandlingCaution hazard={hazard} compact />
+        </div>
+      )}
+      {mode === 'view' && (
+        <div className="mt-3 flex flex-wrap gap-2">
+          <Button tone="secondary" onClick={() => setMode('change')}>
+            Update<span className="sr-only"> {name}</span>
+          </Button>
+          <Button tone="secondary" onClick={() => setMode('photo')}>
+            Add photo<span className="sr-only"> of {name}</span>
+          </Button>
+          <Button
+            tone="secondary"
+            className="text-alert-700"
+            disabled={remove.isPending}
+            onClick={() => {
+              if (
+                window.confirm(
+                  `Delete the entry for ${name}? Use the condition "Removed" instead if it left the tank.`,
+                )
+              ) {
+                remove.mutate(item.id);
+              }
+            }}
+          >
+            Delete entry<span className="sr-only"> for {name}</span>
+          </Button>
+        </div>
+      )}
+      {mode === 'change' && <ChangeForm tankId={tankId} item={item} onDone={() => setMode('view')} />}
+      {mode === 'photo' && (
+        <div className="mt-3 space-y-2 rounded-lg bg-ink-50 p-3">
+          <PhotoUploader tankId={tankId} livestockId={item.id} label={`Photo of ${name}`} />
+          <Button tone="secondary" onClick={() => setMode('view')}>
+            Done
+          </Button>
+        </div>
+      )}
+    </li>
+  );
+}
+
+/** Staff's list of what lives in the tank, with condition changes, photos and corrections. */
+export function LivestockManager({
+  tankId,
+  livestock,
+  timeZone,
+}: {
+  tankId: string;
+  livestock: readonly LivestockItem[];
+  timeZone: string;
+}) {
+  if (livestock.length === 0) {
+    return (
+      <p className="rounded-card border border-dashed border-ink-300 bg-white p-5 text-sm text-ink-700">
+        Nothing recorded yet.
+      </p>
+    );
+  }
+  return (
+    <ul className="space-y-3">
+      {livestock.map((item) => (
+        <ManagedItem key={item.id} tankId={tankId} item={item} timeZone={timeZone} />
+      ))}
+    </ul>
+  );
+}

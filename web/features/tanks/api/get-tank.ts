@@ -1,0 +1,12 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { TankDetail } from '@shared/schemas/tanks';
+import { api } from '../../../lib/api-client';
+import { tankKeys } from './tank-query-keys';
+
+export const getTank = (tankId: string, signal?: AbortSignal) =>
+  api<TankDetail>(`/tanks/${tankId}`, { signal });
+
+export const tankQueryOptions = (tankId: string) =>
+  queryOptions({ queryKey: tankKeys.detail(tankId), queryFn: ({ signal }) => getTank(tankId, signal) });
+
+export const useTank = (tankId: string) => useQuery(tankQueryOptions(tankId));

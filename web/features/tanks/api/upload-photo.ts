@@ -1,0 +1,29 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { PhotoItem } from '@shared/schemas/photos';
+import { api } from '../../../lib/api-client';
+import { tankKeys } from './tank-query-keys';
+
+export interface PhotoUploadInput {
+  file: File;
+  caption?: string;
+  livestockId?: string;
+  cover?: boolean;
+}
+
+export function uploadPhoto(tankId: string, input: PhotoUploadInput) {
+  const form = new FormData();
+  if (input.caption) form.append('caption', input.caption);
+  if (input.livestockId) form.append('livestockId', input.livestockId);
+  if (input.cover) form.append('cover', 'true');
+  form.append('photo', input.file);
+  return api<PhotoItem>(`/tanks/${tankId}/photos`, { method: 'POST', body: form });
+}
+
+/** A new photo can change the tank's cover and an animal's gallery, so the whole tank refreshes. */
+export function useUploadPhoto(tankId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: PhotoUploadInput) => uploadPhoto(tankId, input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: tankKeys.all }),
+  });
+}
