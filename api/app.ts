@@ -52,7 +52,8 @@ export function createApp(deps: AppDeps) {
       contentSecurityPolicy: {
         directives: {
           // Fonts and styles ship with the app: nothing is fetched from elsewhere.
-          'font-src': ["'self'"],
+          // Vite inlines the smallest font files as data: URIs.
+          'font-src': ["'self'", 'data:'],
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
           'worker-src': ["'self'"],

@@ -8,6 +8,7 @@ import { conflict, notFound } from '../lib/http-error';
 import { queues } from '../lib/job-queue';
 import { visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
+import { evaluateNewReadings, type NewReading } from './alert-engine';
 import { fanOutAlertEvent } from './notify';
 
 const acknowledger = aliasedTable(users, 'acknowledger');
@@ -60,6 +61,7 @@ function present(
     body: alert.body,
     value: alert.value,
     limitValue: alert.limitValue,
+    direction: alert.direction,
     openedAt: alert.openedAt.toISOString(),
     lastSeenAt: alert.lastSeenAt.toISOString(),
     acknowledgedAt: alert.acknowledgedAt?.toISOString() ?? null,
@@ -202,5 +204,18 @@ export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[
     await announceAlertChange(deps, row.tankId, row.companyId, row.alertId);
     if (deps.jobs) await deps.jobs.send(queues.fanOut, { eventId }, { singletonKey: eventId });
     else await fanOutAlertEvent(deps, eventId);
+  }
+}
+
+/**
+ * Called by every path that stores readings, after their commit. The readings are already
+ * safe, so a failure here is logged rather than turned into an error for the sender (who would
+ * only send the same readings again); evaluating them again later is harmless.
+ */
+export async function raiseAlertsFor(deps: AppDeps, tankId: string, batch: readonly NewReading[]) {
+  try {
+    await afterAlertEvents(deps, await evaluateNewReadings(deps.db, tankId, batch));
+  } catch (error) {
+    deps.logger.error({ err: error, tankId }, 'alert evaluation failed');
   }
 }

@@ -36,6 +36,7 @@ export const alertView = z.object({
   body: z.string(),
   value: z.number().nullable(),
   limitValue: z.number().nullable(),
+  direction: z.string().nullable(),
   openedAt: z.iso.datetime(),
   lastSeenAt: z.iso.datetime(),
   acknowledgedAt: z.iso.datetime().nullable(),

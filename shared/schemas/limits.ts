@@ -68,3 +68,57 @@ export const rateRule = z.object({
   perMs: z.int().positive(),
 });
 export type RateRule = z.infer<typeof rateRule>;
+
+/**
+ * Changes to a tank's limits, per parameter: new limits (all four bounds null = not watched), or
+ * null to drop the tank's own limits and fall back to its style's template.
+ */
+export const updateLimitsInput = z
+  .object({ limits: z.partialRecord(parameterKey, parameterLimits.nullable()) })
+  .superRefine(({ limits }, ctx) => {
+    for (const [parameter, bounds] of Object.entries(limits) as [ParameterKey, ParameterLimits | null][]) {
+      if (bounds === null) continue;
+      const { label, bounds: plausible } = parameterCatalogue[parameter];
+      for (const [field, value] of Object.entries(bounds)) {
+        if (value !== null && !isPlausible(parameter, value)) {
+          ctx.addIssue({
+            code: 'custom',
+            path: ['limits', parameter, field],
+            message: `${label} limits must lie between ${plausible.min} and ${plausible.max}`,
+          });
+        }
+      }
+    }
+  });
+export type UpdateLimitsInput = z.infer<typeof updateLimitsInput>;
+
+export interface ComfortBandView {
+  min: number;
+  max: number;
+  /** Common names of the inhabitants that set each end. */
+  limitedBy: { low: string[]; high: string[] };
+}
+
+export interface ParameterLimitsView {
+  parameter: ParameterKey;
+  /** What is in force: the tank's own limits, else the template's, else none. */
+  limits: ParameterLimits | null;
+  source: 'tank' | 'template' | null;
+  /** The style's common-practice default, shown beside the tank's own. */
+  template: ParameterLimits | null;
+  comfort: ComfortBandView | null;
+  /** When the inhabitants' ranges leave no common ground. */
+  comfortConflict: string | null;
+  updatedAt: string | null;
+}
+
+export interface TankLimitsView {
+  style: string;
+  /** Where the defaults come from (common practice, not a standard). */
+  templateSource: string;
+  /** Where the care ranges behind the comfort range come from. */
+  comfortSource: string;
+  /** How many present inhabitants the comfort range is drawn from. */
+  inhabitants: number;
+  parameters: ParameterLimitsView[];
+}

@@ -7,6 +7,8 @@ import {
   UnitNotAllowedError,
   type UnitContext,
 } from '@shared/parameters/units';
+import type { ParameterHealth, TankStatus } from '@shared/parameters/health';
+import type { ParameterLimits } from './limits';
 
 export const readingSources = ['visit', 'home-test', 'device'] as const;
 export const readingSource = z.enum(readingSources);
@@ -97,3 +99,206 @@ export const deviceReadingBatch = z.object({
   readings: z.array(deviceReadingInput).min(1).max(1000),
 });
 export type DeviceReadingBatch = z.infer<typeof deviceReadingBatch>;
+
+/** Readings a person records: staff at a visit or as a home test, owners as home tests only. */
+export const manualSources = ['visit', 'home-test'] as const;
+export const manualSource = z.enum(manualSources, {
+  error: 'use visit or home-test (device readings come only from a device)',
+});
+export type ManualSource = z.infer<typeof manualSource>;
+
+export const readingSourceLabels: Readonly<Record<ReadingSource, string>> = {
+  visit: 'Visit',
+  'home-test': 'Home test',
+  device: 'Device',
+};
+
+/** The earliest and latest a person's reading may be dated, relative to the server's clock. */
+export const futureToleranceMs = 5 * 60_000;
+
+export const createReadingsInput = manualReadingBatch.extend({
+  /** Staff choose; owners record home tests, which is also their default. */
+  source: manualSource.optional(),
+});
+export type CreateReadingsInput = z.infer<typeof createReadingsInput>;
+
+/** One imported CSV row: a manual reading that names its own source. */
+export const importedReadingInput = z
+  .object({
+    parameter: parameterKey,
+    value: z.number(),
+    unit: z.string().max(40),
+    measuredAt,
+    source: manualSource,
+    method: z.string().trim().min(1).max(80).optional(),
+    note: z.string().trim().max(1000).optional(),
+    sampleTempC: instrumentTempC.optional(),
+    referenceTempC: instrumentTempC.optional(),
+  })
+  .superRefine(checkEntered);
+export type ImportedReadingInput = z.infer<typeof importedReadingInput>;
+
+/** A CSV import is one batch, all or nothing, so it is bounded like one. */
+export const maxImportRows = 5000;
+
+export const importReadingsInput = z.object({
+  readings: z.array(importedReadingInput).min(1).max(maxImportRows),
+});
+export type ImportReadingsInput = z.infer<typeof importReadingsInput>;
+
+/**
+ * What the ingest route validates up front: only the envelope. Each reading is checked on its own
+ * (`deviceReadingInput`), so one bad row is set aside instead of failing the batch.
+ */
+export const maxDeviceBatch = 1000;
+export const deviceIngestEnvelope = z.object({ readings: z.array(z.unknown()).min(1) });
+
+export const ingestRejectionReasons = [
+  'invalid',
+  'unknown-parameter',
+  'unknown-unit',
+  'future',
+  'before-tank',
+  'implausible',
+] as const;
+export type IngestRejectionReason = (typeof ingestRejectionReasons)[number];
+
+export interface IngestResult {
+  accepted: number;
+  duplicate: number;
+  rejected: { index: number; reason: IngestRejectionReason; message: string }[];
+}
+
+const isoInstant = z.iso.datetime({ offset: true });
+
+export const readingHistoryQuery = z
+  .object({
+    parameter: parameterKey,
+    from: isoInstant,
+    to: isoInstant,
+    points: z.coerce.number().int().min(10).max(2000).default(500),
+  })
+  .superRefine((query, ctx) => {
+    const span = Date.parse(query.to) - Date.parse(query.from);
+    if (!(span > 0)) ctx.addIssue({ code: 'custom', path: ['to'], message: 'to must be after from' });
+    else if (span > 5 * 366 * 24 * 3_600_000) {
+      ctx.addIssue({ code: 'custom', path: ['from'], message: 'a window covers at most five years' });
+    }
+  });
+export type ReadingHistoryQuery = z.infer<typeof readingHistoryQuery>;
+
+export const readingListQuery = z.object({
+  parameter: parameterKey.optional(),
+  source: readingSource.optional(),
+  from: isoInstant.optional(),
+  to: isoInstant.optional(),
+  /** The `next` cursor of the previous page. */
+  before: z
+    .string()
+    .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_\d+$/, 'use the cursor the previous page gave')
+    .optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+});
+export type ReadingListQuery = z.infer<typeof readingListQuery>;
+
+export const readingExportQuery = readingListQuery.omit({ before: true, limit: true });
+export type ReadingExportQuery = z.infer<typeof readingExportQuery>;
+
+/** A stored reading as the API shows it. */
+export interface Reading {
+  id: number;
+  parameter: z.infer<typeof parameterKey>;
+  /** In the parameter's stored unit. */
+  value: number;
+  enteredValue: number;
+  enteredUnit: string;
+  measuredAt: string;
+  source: ReadingSource;
+  /** The person who recorded it, or the device that sent it. */
+  recordedBy: string | null;
+  method: string | null;
+  note: string | null;
+  sampleTempC: number | null;
+  referenceTempC: number | null;
+}
+
+export interface ReadingPage {
+  readings: Reading[];
+  next: string | null;
+}
+
+export interface ReadingBucket {
+  /** Start of the bucket (its width is the answer's `bucketMs`). */
+  start: string;
+  min: number;
+  mean: number;
+  max: number;
+  count: number;
+  bySource: Record<ReadingSource, number>;
+}
+
+export interface LimitsInForce {
+  limits: ParameterLimits | null;
+  /** 'tank' for the tank's own limits, 'template' for the style's common-practice defaults. */
+  source: 'tank' | 'template' | null;
+}
+
+/**
+ * A window of history. With no more readings than `points` they come back as they are (`raw`);
+ * otherwise as at most `points` buckets, and the visit and home-test readings still come one by one
+ * so the chart can show who measured what.
+ */
+export interface ReadingHistory {
+  parameter: z.infer<typeof parameterKey>;
+  from: string;
+  to: string;
+  mode: 'raw' | 'buckets';
+  bucketMs: number | null;
+  total: number;
+  buckets: ReadingBucket[];
+  readings: Reading[];
+  latest: Reading | null;
+  /** The limits in force now; earlier limits are not kept. */
+  limits: LimitsInForce;
+}
+
+/** One parameter of a tank at a glance: its latest reading judged against its limits. */
+export interface ParameterHealthSummary {
+  parameter: z.infer<typeof parameterKey>;
+  health: ParameterHealth;
+  /** Whether the tank is watched for it (it has a limit); only watched parameters set the status. */
+  watched: boolean;
+  latest: { value: number; measuredAt: string; source: ReadingSource } | null;
+  limits: ParameterLimits | null;
+  limitsSource: LimitsInForce['source'];
+  /** How long the latest reading counts as current; null when it never goes stale. */
+  expectedIntervalMs: number | null;
+}
+
+export interface TankHealthSummary {
+  status: TankStatus;
+  /** Watched parameters and any others with readings, in catalogue order. */
+  parameters: ParameterHealthSummary[];
+  lastReadingAt: string | null;
+}
+
+export interface DeviceSummary {
+  id: string;
+  name: string;
+  /** The first characters of the token, to tell devices apart. */
+  tokenHint: string;
+  lastSeenAt: string | null;
+  revokedAt: string | null;
+  createdAt: string;
+}
+
+/** The answer to creating a device: the only time its token is ever shown. */
+export interface CreatedDevice {
+  device: DeviceSummary;
+  token: string;
+}
+
+export const createDeviceInput = z.object({ name: z.string().trim().min(1, 'name the device').max(80) });
+export type CreateDeviceInput = z.infer<typeof createDeviceInput>;
+
+export const deviceParams = z.object({ tankId: z.uuid(), deviceId: z.uuid() });

@@ -34,6 +34,9 @@ const publicRoutes = [
   'GET /auth/invitation/:token',
 ];
 
+/** Routes a device calls with its bearer token: not public, and never behind the session. */
+const deviceRoutes = ['POST /api/ingest/readings'];
+
 describe('route policies', () => {
   it('finds the registered routes', () => {
     expect(allRoutes.length).toBeGreaterThan(10);
@@ -47,5 +50,12 @@ describe('route policies', () => {
   it('keeps public routes to the allow-list', () => {
     const open = allRoutes.filter((r) => r.policies[0] === 'public').map((r) => r.route);
     expect(open.sort()).toEqual([...publicRoutes].sort());
+  });
+
+  it('keeps device-token routes to their allow-list, mounted where no session is read', () => {
+    const device = allRoutes.filter((r) => r.policies[0] === 'device').map((r) => r.route);
+    const sessionless = sessionlessRouters.flatMap(([path, router]) => routesOf(`/api${path}`, router));
+    expect(device.sort()).toEqual([...deviceRoutes].sort());
+    expect(deviceRoutes.every((route) => sessionless.some((r) => r.route === route))).toBe(true);
   });
 });

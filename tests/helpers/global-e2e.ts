@@ -3,6 +3,7 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
+import webpush from 'web-push';
 import { connectDatabase } from '../../api/db/client';
 import { seedDemo } from '../../api/db/seed/index';
 import { objectStorageFor } from '../../api/db/seed/photos';
@@ -37,6 +38,7 @@ export default async function setup(project: TestProject) {
     Array.from({ length: 5 }, () => freePort()),
   )) as [number, number, number, number, number];
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-e2e-'));
+  const vapid = webpush.generateVAPIDKeys();
   const env = parseEnv({
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
@@ -46,6 +48,8 @@ export default async function setup(project: TestProject) {
     SMTP_PORT: String(smtpPort),
     S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
     DATA_DIR: dataDir,
+    VAPID_PUBLIC_KEY: vapid.publicKey,
+    VAPID_PRIVATE_KEY: vapid.privateKey,
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });

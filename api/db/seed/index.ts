@@ -5,6 +5,7 @@ import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { demoPeople } from '../../dev/demo-people';
 import type { ObjectStorage } from '../../lib/object-storage';
 import type { Db } from '../client';
+import { seedDemoReadings } from './readings';
 import {
   companies,
   equipment,
@@ -215,4 +216,6 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
       uploadedBy: userId.get('u-tomas')!,
     });
   }
+  // A year of readings; it needs the tanks, owners and staff above, and skips itself once done.
+  await seedDemoReadings(db, now);
 }

@@ -141,7 +141,7 @@ export function TankRoute() {
         <TankAlertsSection tankId={tankId} />
       </div>
       <div className="mt-8">
-        <TankReadingsSection tankId={tankId} canEdit />
+        <TankReadingsSection tankId={tankId} canEdit={isStaff} />
       </div>
       <LivestockSection tankId={tankId} timeZone={timeZone} />
       <EquipmentSection tankId={tankId} timeZone={timeZone} />

@@ -1,0 +1,84 @@
+import { and, desc, eq, isNull } from 'drizzle-orm';
+import type { CreatedDevice, DeviceSummary } from '@shared/schemas/readings';
+import type { Db } from '../db/client';
+import { devices } from '../db/schema/index';
+import { notFound } from '../lib/http-error';
+import { hashToken, newSecretToken } from '../lib/tokens';
+import { findTankFor } from '../policy/index';
+import type { Actor } from './actors';
+
+/** What the ingest route knows about its caller, taken from the token alone. */
+export interface DeviceIdentity {
+  id: string;
+  companyId: string;
+  tankId: string;
+}
+
+/** Says "a Brinewatch device token" to secret scanners and to the person pasting it. */
+const tokenPrefix = 'bwd_';
+
+type DeviceRow = typeof devices.$inferSelect;
+
+function present(row: DeviceRow): DeviceSummary {
+  return {
+    id: row.id,
+    name: row.name,
+    tokenHint: row.tokenHint,
+    lastSeenAt: row.lastSeenAt?.toISOString() ?? null,
+    revokedAt: row.revokedAt?.toISOString() ?? null,
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+export async function listDevices(db: Db, actor: Actor, tankId: string): Promise<DeviceSummary[]> {
+  const tank = await findTankFor(db, actor, tankId, 'write');
+  const rows = await db
+    .select()
+    .from(devices)
+    .where(eq(devices.tankId, tank.id))
+    .orderBy(desc(devices.createdAt));
+  return rows.map(present);
+}
+
+/** The token (256 random bits) leaves the server once, in this answer; only its hash is kept. */
+export async function createDevice(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  name: string,
+): Promise<CreatedDevice> {
+  const tank = await findTankFor(db, actor, tankId, 'write');
+  const token = `${tokenPrefix}${newSecretToken()}`;
+  const [row] = await db
+    .insert(devices)
+    .values({
+      companyId: tank.companyId,
+      tankId: tank.id,
+      name,
+      tokenHash: hashToken(token),
+      tokenHint: token.slice(0, tokenPrefix.length + 6),
+      createdBy: actor.id,
+    })
+    .returning();
+  return { device: present(row!), token };
+}
+
+/** Revoked, not deleted: its readings keep saying which device sent them. */
+export async function revokeDevice(db: Db, actor: Actor, tankId: string, deviceId: string, now: Date) {
+  const tank = await findTankFor(db, actor, tankId, 'write');
+  const [row] = await db
+    .update(devices)
+    .set({ revokedAt: now })
+    .where(and(eq(devices.id, deviceId), eq(devices.tankId, tank.id), isNull(devices.revokedAt)))
+    .returning();
+  if (!row) throw notFound('active device');
+  return present(row);
+}
+
+export async function findDeviceByToken(db: Db, token: string): Promise<DeviceIdentity | null> {
+  const [row] = await db
+    .select({ id: devices.id, companyId: devices.companyId, tankId: devices.tankId })
+    .from(devices)
+    .where(and(eq(devices.tokenHash, hashToken(token)), isNull(devices.revokedAt)));
+  return row ?? null;
+}

@@ -1,0 +1,293 @@
+import { once } from 'node:events';
+import type { Response } from 'express';
+import { sql, type SQL } from 'drizzle-orm';
+import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
+import { toStored } from '@shared/parameters/units';
+import { csvHeaderLine, readingCsvLine } from '@shared/readings/csv';
+import {
+  futureToleranceMs,
+  type CreateReadingsInput,
+  type ImportReadingsInput,
+  type ManualReadingInput,
+  type ManualSource,
+  type Reading,
+  type ReadingExportQuery,
+  type ReadingListQuery,
+  type ReadingPage,
+  type ReadingSource,
+  type TankHealthSummary,
+} from '@shared/schemas/readings';
+import type { Db } from '../db/client';
+import { readings, type tanks } from '../db/schema/index';
+import { badRequest, forbidden, type ErrorIssue } from '../lib/http-error';
+import { findTankFor, isStaff } from '../policy/index';
+import type { Actor } from './actors';
+import { healthForTanks } from './tank-health';
+
+type TankRow = typeof tanks.$inferSelect;
+
+/**
+ * The earliest a reading of this tank may be dated: the day it was set up when that is known (a
+ * date without a zone begins at the earliest at UTC+14), else when it was added to Brinewatch.
+ */
+export function tankExistsFrom(tank: Pick<TankRow, 'createdAt' | 'setUpOn'>): Date {
+  if (!tank.setUpOn) return tank.createdAt;
+  return new Date(Date.parse(`${tank.setUpOn}T00:00:00Z`) - 14 * 3_600_000);
+}
+
+export type TimeProblem = 'future' | 'before-tank';
+
+export function timeProblem(measuredAt: Date, existsFrom: Date, now: Date): TimeProblem | null {
+  if (measuredAt.getTime() > now.getTime() + futureToleranceMs) return 'future';
+  if (measuredAt.getTime() < existsFrom.getTime()) return 'before-tank';
+  return null;
+}
+
+export function timeProblemMessage(problem: TimeProblem, existsFrom: Date): string {
+  return problem === 'future'
+    ? 'this time is in the future; check the date and time'
+    : `this is before the tank existed (from ${existsFrom.toISOString().slice(0, 10)})`;
+}
+
+interface ManualRow extends ManualReadingInput {
+  source: ManualSource;
+}
+
+function manualValues(tank: TankRow, actor: Actor, rows: readonly ManualRow[]) {
+  return rows.map((reading) => ({
+    companyId: tank.companyId,
+    tankId: tank.id,
+    parameter: reading.parameter,
+    // The schema has already checked the conversion; this cannot throw for a parsed reading.
+    value: toStored(reading.parameter, reading.value, reading.unit, reading).value,
+    enteredValue: reading.value,
+    enteredUnit: reading.unit,
+    measuredAt: new Date(reading.measuredAt),
+    source: reading.source,
+    recordedBy: actor.id,
+    method: reading.method ?? null,
+    note: reading.note || null,
+    sampleTempC: reading.sampleTempC ?? null,
+    referenceTempC: reading.referenceTempC ?? null,
+  }));
+}
+
+/** All or nothing: every row is checked, and any issue refuses the whole batch with every issue. */
+async function insertManual(
+  db: Db,
+  actor: Actor,
+  tank: TankRow,
+  rows: readonly ManualRow[],
+  now: Date,
+  extraIssues: ErrorIssue[] = [],
+): Promise<Reading[]> {
+  const existsFrom = tankExistsFrom(tank);
+  const issues = [...extraIssues];
+  rows.forEach((row, index) => {
+    const problem = timeProblem(new Date(row.measuredAt), existsFrom, now);
+    if (problem) {
+      issues.push({
+        path: `body.readings.${index}.measuredAt`,
+        message: timeProblemMessage(problem, existsFrom),
+      });
+    }
+  });
+  if (issues.length > 0) {
+    issues.sort((a, b) => a.path.localeCompare(b.path, 'en', { numeric: true }));
+    throw badRequest('invalid_request', 'Some readings need attention; none were saved.', issues);
+  }
+  const saved: (typeof readings.$inferSelect)[] = [];
+  await db.transaction(async (tx) => {
+    // 1000 rows × 14 columns stays far below PostgreSQL's 65,535 parameters per statement.
+    for (let start = 0; start < rows.length; start += 1000) {
+      const values = manualValues(tank, actor, rows.slice(start, start + 1000));
+      saved.push(...(await tx.insert(readings).values(values).returning()));
+    }
+  });
+  return saved.map((row) => ({
+    id: row.id,
+    parameter: row.parameter,
+    value: row.value,
+    enteredValue: row.enteredValue,
+    enteredUnit: row.enteredUnit,
+    measuredAt: row.measuredAt.toISOString(),
+    source: row.source,
+    recordedBy: actor.name,
+    method: row.method,
+    note: row.note,
+    sampleTempC: row.sampleTempC,
+    referenceTempC: row.referenceTempC,
+  }));
+}
+
+export async function recordReadings(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  input: CreateReadingsInput,
+  now: Date,
+): Promise<Reading[]> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const source: ManualSource = input.source ?? (isStaff(actor) ? 'visit' : 'home-test');
+  if (!isStaff(actor) && source !== 'home-test') {
+    throw forbidden('Owners record home tests; visit readings come from the company.');
+  }
+  return insertManual(
+    db,
+    actor,
+    tank,
+    input.readings.map((reading) => ({ ...reading, source })),
+    now,
+  );
+}
+
+export async function importReadings(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  input: ImportReadingsInput,
+  now: Date,
+): Promise<Reading[]> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const sourceIssues: ErrorIssue[] = isStaff(actor)
+    ? []
+    : input.readings.flatMap((reading, index) =>
+        reading.source === 'home-test'
+          ? []
+          : [{ path: `body.readings.${index}.source`, message: 'owners import home tests only' }],
+      );
+  return insertManual(db, actor, tank, input.readings, now, sourceIssues);
+}
+
+export type ReadingRow = {
+  id: number | string;
+  parameter: ParameterKey;
+  value: number;
+  entered_value: number;
+  entered_unit: string;
+  measured_at_ms: number | string;
+  source: ReadingSource;
+  recorded_by: string | null;
+  method: string | null;
+  note: string | null;
+  sample_temp_c: number | null;
+  reference_temp_c: number | null;
+};
+
+/** Columns of a reading for raw SQL, with its time as epoch ms and who or what recorded it. */
+export const readingColumns = (r: SQL) => sql`
+  ${r}.id, ${r}.parameter, ${r}.value, ${r}.entered_value, ${r}.entered_unit,
+  extract(epoch from ${r}.measured_at) * 1000 as measured_at_ms, ${r}.source,
+  coalesce((select u.name from users u where u.id = ${r}.recorded_by),
+           (select d.name from devices d where d.id = ${r}.device_id)) as recorded_by,
+  ${r}.method, ${r}.note, ${r}.sample_temp_c, ${r}.reference_temp_c`;
+
+export function readingFromRow(row: ReadingRow): Reading {
+  return {
+    id: Number(row.id),
+    parameter: row.parameter,
+    value: row.value,
+    enteredValue: row.entered_value,
+    enteredUnit: row.entered_unit,
+    measuredAt: new Date(Math.round(Number(row.measured_at_ms))).toISOString(),
+    source: row.source,
+    recordedBy: row.recorded_by,
+    method: row.method,
+    note: row.note,
+    sampleTempC: row.sample_temp_c,
+    referenceTempC: row.reference_temp_c,
+  };
+}
+
+export const cursorOf = (reading: Reading) => `${reading.measuredAt}_${reading.id}`;
+
+/**
+ * Newest first, by keyset. Each parameter is read down its own stretch of readings_history_idx
+ * and the streams are merged, so a page costs the same on a year of device data as on a week.
+ */
+async function readingsPage(
+  db: Db,
+  tankId: string,
+  filter: Omit<ReadingListQuery, 'limit'>,
+  limit: number,
+): Promise<Reading[]> {
+  const parameters = filter.parameter ? [filter.parameter] : [...parameterKeys];
+  const conditions: SQL[] = [sql`r.tank_id = ${tankId}`, sql`r.parameter = p.parameter`];
+  if (filter.source) conditions.push(sql`r.source = ${filter.source}`);
+  if (filter.from) conditions.push(sql`r.measured_at >= ${filter.from}::timestamptz`);
+  if (filter.to) conditions.push(sql`r.measured_at <= ${filter.to}::timestamptz`);
+  if (filter.before) {
+    const split = filter.before.lastIndexOf('_');
+    const at = filter.before.slice(0, split);
+    const id = Number(filter.before.slice(split + 1));
+    conditions.push(sql`(r.measured_at, r.id) < (${at}::timestamptz, ${id}::bigint)`);
+  }
+  const result = await db.execute<ReadingRow>(sql`
+    select x.* from unnest(${sql.param(parameters)}::parameter_key[]) as p(parameter)
+    cross join lateral (
+      select ${readingColumns(sql`r`)}
+      from readings r
+      where ${sql.join(conditions, sql` and `)}
+      order by r.measured_at desc, r.id desc
+      limit ${limit}
+    ) x
+    order by x.measured_at_ms desc, x.id desc
+    limit ${limit}`);
+  return result.rows.map(readingFromRow);
+}
+
+export async function listReadings(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  query: ReadingListQuery,
+): Promise<ReadingPage> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const rows = await readingsPage(db, tank.id, query, query.limit + 1);
+  const page = rows.slice(0, query.limit);
+  return { readings: page, next: rows.length > query.limit ? cursorOf(page.at(-1)!) : null };
+}
+
+/** Streams the filtered readings as CSV, page by page, so a year of device data never sits in memory. */
+export async function exportReadingsCsv(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  query: ReadingExportQuery,
+  res: Response,
+): Promise<void> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const day = new Date().toISOString().slice(0, 10);
+  const slug =
+    tank.name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'tank';
+  res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+  res.setHeader(
+    'Content-Disposition',
+    `attachment; filename="${slug}-readings-${query.parameter ?? 'all'}-${day}.csv"`,
+  );
+  res.write(csvHeaderLine());
+  const pageSize = 2000;
+  let before: string | undefined;
+  for (;;) {
+    const page = await readingsPage(db, tank.id, { ...query, before }, pageSize);
+    if (page.length === 0) break;
+    if (!res.write(page.map(readingCsvLine).join(''))) await once(res, 'drain');
+    if (page.length < pageSize) break;
+    before = cursorOf(page.at(-1)!);
+  }
+  res.end();
+}
+
+export async function latestReadings(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  now: Date,
+): Promise<TankHealthSummary> {
+  const tank = await findTankFor(db, actor, tankId, 'read');
+  const health = await healthForTanks(db, [tank.id], now);
+  return health.get(tank.id) ?? { status: 'no-data', parameters: [], lastReadingAt: null };
+}

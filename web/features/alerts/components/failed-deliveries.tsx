@@ -1,0 +1,66 @@
+import type { DeliveryView } from '@shared/schemas/on-call';
+import { ErrorState, LoadingState } from '../../../components/states';
+import { useFailedDeliveries } from '../api/list-failed-deliveries';
+import { formatDateTime } from '../utils/time';
+
+const channelLabels: Record<DeliveryView['channel'], string> = {
+  push: 'Push notification',
+  email: 'E-mail',
+  'in-app': 'In the app',
+};
+
+/** Notifications that ran out of retries: someone should ring the person instead. */
+export function FailedDeliveries() {
+  const deliveries = useFailedDeliveries();
+  return (
+    <section aria-labelledby="failed-deliveries-title" className="rounded-card bg-white shadow-card">
+      <div className="p-4 pb-0">
+        <h2 id="failed-deliveries-title" className="text-xl font-bold text-ink-900">
+          Failed deliveries
+        </h2>
+        <p className="mt-1 text-sm text-ink-700">
+          Notifications that could not be delivered after every retry. Call the person if the alert matters.
+        </p>
+      </div>
+      <div className="mt-2">
+        {deliveries.isPending ? (
+          <div className="p-4">
+            <LoadingState label="Loading deliveries…" />
+          </div>
+        ) : deliveries.isError ? (
+          <div className="p-4">
+            <ErrorState
+              error={deliveries.error}
+              what="the failed deliveries"
+              onRetry={() => void deliveries.refetch()}
+            />
+          </div>
+        ) : deliveries.data.length === 0 ? (
+          <p className="p-4 text-ink-700">
+            None. Every notification so far has been delivered or is on its way.
+          </p>
+        ) : (
+          <ul className="divide-y divide-ink-100">
+            {deliveries.data.map((delivery) => (
+              <li key={delivery.id} className="p-4">
+                <p className="font-bold text-ink-900">
+                  {channelLabels[delivery.channel]} to {delivery.recipient}
+                </p>
+                <p className="text-sm text-ink-900">
+                  {delivery.alertTitle} · {delivery.tankName}
+                </p>
+                <p className="text-sm text-ink-700">
+                  {formatDateTime(delivery.createdAt)} · {delivery.attempts}{' '}
+                  {delivery.attempts === 1 ? 'try' : 'tries'}
+                </p>
+                {delivery.lastError && (
+                  <p className="mt-1 break-words text-sm text-alert-700">{delivery.lastError}</p>
+                )}
+              </li>
+            ))}
+          </ul>
+        )}
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,15 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreateReadingsInput, Reading } from '@shared/schemas/readings';
+import { api } from '../../../lib/api-client';
+
+export const createReadings = (tankId: string, input: CreateReadingsInput) =>
+  api<{ readings: Reading[] }>(`/tanks/${tankId}/readings`, { method: 'POST', body: input });
+
+export function useCreateReadings(tankId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: CreateReadingsInput) => createReadings(tankId, input),
+    // New readings change the tank's status, its charts and every list showing it.
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['tanks'] }),
+  });
+}

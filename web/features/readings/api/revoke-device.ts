@@ -1,0 +1,15 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { DeviceSummary } from '@shared/schemas/readings';
+import { api } from '../../../lib/api-client';
+import { devicesQueryKey } from './list-devices';
+
+export const revokeDevice = (tankId: string, deviceId: string) =>
+  api<DeviceSummary>(`/tanks/${tankId}/devices/${deviceId}`, { method: 'DELETE' });
+
+export function useRevokeDevice(tankId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (deviceId: string) => revokeDevice(tankId, deviceId),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: devicesQueryKey(tankId) }),
+  });
+}

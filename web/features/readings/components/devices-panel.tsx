@@ -1,0 +1,172 @@
+import { useId, useState, type FormEvent } from 'react';
+import type { CreatedDevice } from '@shared/schemas/readings';
+import { Button } from '../../../components/button';
+import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { useCreateDevice } from '../api/create-device';
+import { useDevices } from '../api/list-devices';
+import { useRevokeDevice } from '../api/revoke-device';
+import { formatDateTime, timeAgo } from '../utils/format-time';
+
+/** Staff connect a tank's controller or probe: a token per device, shown once, revocable. */
+export function DevicesPanel({ tankId }: { tankId: string }) {
+  const id = useId();
+  const devices = useDevices(tankId);
+  const create = useCreateDevice(tankId);
+  const revoke = useRevokeDevice(tankId);
+  const [name, setName] = useState('');
+  const [created, setCreated] = useState<CreatedDevice | null>(null);
+  const [copied, setCopied] = useState(false);
+  const [confirming, setConfirming] = useState<string | null>(null);
+
+  const submit = (event: FormEvent) => {
+    event.preventDefault();
+    if (!name.trim()) return;
+    create.mutate(
+      { name: name.trim() },
+      {
+        onSuccess: (result) => {
+          setCreated(result);
+          setCopied(false);
+          setName('');
+        },
+      },
+    );
+  };
+
+  const copy = async () => {
+    if (!created) return;
+    try {
+      await navigator.clipboard.writeText(created.token);
+      setCopied(true);
+    } catch {
+      setCopied(false);
+    }
+  };
+
+  return (
+    <section aria-labelledby={`${id}-title`} className="rounded-card bg-white p-4 shadow-card sm:p-6">
+      <h3 id={`${id}-title`} className="text-xl font-bold text-ink-900">
+        Devices
+      </h3>
+      <p className="mt-1 text-sm text-ink-700">
+        A controller or probe posts its readings with its own token. The token is shown once, when the device
+        is added; Brinewatch keeps only a fingerprint of it.
+      </p>
+
+      <div className="mt-4">
+        {devices.isPending ? (
+          <LoadingState label="Loading devices…" />
+        ) : devices.isError ? (
+          <ErrorState error={devices.error} what="the devices" onRetry={() => void devices.refetch()} />
+        ) : devices.data.length === 0 ? (
+          <EmptyState title="No devices on this tank">
+            Add one below to start receiving its readings.
+          </EmptyState>
+        ) : (
+          <ul className="divide-y divide-ink-100 rounded-lg border border-ink-100">
+            {devices.data.map((device) => (
+              <li key={device.id} className="flex flex-wrap items-center justify-between gap-3 p-3">
+                <div className="min-w-0">
+                  <p className="font-bold text-ink-900">
+                    {device.name}{' '}
+                    <span
+                      className={`ml-1 text-sm ${device.revokedAt ? 'text-alert-700' : 'text-healthy-700'}`}
+                    >
+                      {device.revokedAt ? '✕ Revoked' : '✓ Active'}
+                    </span>
+                  </p>
+                  <p className="text-sm text-ink-700">
+                    Token <code>{device.tokenHint}…</code> ·{' '}
+                    {device.lastSeenAt ? (
+                      <>
+                        last seen{' '}
+                        <time dateTime={device.lastSeenAt} title={formatDateTime(device.lastSeenAt)}>
+                          {timeAgo(device.lastSeenAt)}
+                        </time>
+                      </>
+                    ) : (
+                      'not heard from yet'
+                    )}
+                  </p>
+                </div>
+                {!device.revokedAt &&
+                  (confirming === device.id ? (
+                    <div className="flex gap-2">
+                      <Button
+                        tone="danger"
+                        onClick={() => revoke.mutate(device.id, { onSettled: () => setConfirming(null) })}
+                        disabled={revoke.isPending}
+                      >
+                        Revoke now<span className="sr-only"> {device.name}</span>
+                      </Button>
+                      <Button tone="secondary" onClick={() => setConfirming(null)}>
+                        Keep
+                      </Button>
+                    </div>
+                  ) : (
+                    <Button tone="secondary" onClick={() => setConfirming(device.id)}>
+                      Revoke<span className="sr-only"> {device.name}</span>
+                    </Button>
+                  ))}
+              </li>
+            ))}
+          </ul>
+        )}
+      </div>
+
+      {created && (
+        <div role="status" className="mt-4 rounded-lg border-2 border-healthy-700 bg-healthy-100 p-4">
+          <p className="font-bold text-healthy-700">
+            ✓ {created.device.name} added. Copy its token now: it is not shown again.
+          </p>
+          <label htmlFor={`${id}-token`} className="mt-2 block text-sm font-bold text-ink-900">
+            Device token
+          </label>
+          <div className="mt-1 flex gap-2">
+            <input
+              id={`${id}-token`}
+              readOnly
+              value={created.token}
+              onFocus={(event) => event.target.select()}
+              className="min-h-11 w-full min-w-0 rounded-lg border-2 border-ink-300 bg-white px-3 font-mono text-sm"
+            />
+            <Button onClick={() => void copy()} className="shrink-0">
+              {copied ? '✓ Copied' : 'Copy'}
+            </Button>
+          </div>
+          <p className="mt-2 text-sm text-ink-800">
+            The device sends <code>POST /api/ingest/readings</code> with <code>Authorization: Bearer</code>{' '}
+            and this token (see the README).
+          </p>
+          <Button tone="secondary" className="mt-2" onClick={() => setCreated(null)}>
+            Done
+          </Button>
+        </div>
+      )}
+
+      <form onSubmit={submit} className="mt-4 flex flex-wrap items-end gap-2">
+        <div className="min-w-48 flex-1">
+          <label htmlFor={`${id}-name`} className="mb-1 block font-bold text-ink-900">
+            New device name
+          </label>
+          <input
+            id={`${id}-name`}
+            value={name}
+            maxLength={80}
+            onChange={(event) => setName(event.target.value)}
+            placeholder="e.g. Sump controller"
+            className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base focus:border-ink-700"
+          />
+        </div>
+        <Button type="submit" disabled={!name.trim() || create.isPending}>
+          {create.isPending ? 'Adding…' : 'Add device'}
+        </Button>
+      </form>
+      {create.isError && (
+        <p role="alert" className="mt-2 font-bold text-alert-700">
+          The device could not be added: {create.error.message}
+        </p>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,162 @@
+import { lazy, Suspense, useState } from 'react';
+import { parameterCatalogue } from '@shared/parameters/catalogue';
+import type { ParameterKey } from '@shared/parameters/keys';
+import { readingSourceLabels } from '@shared/schemas/readings';
+import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { useReadingHistory } from '../api/get-reading-history';
+import { chartRangeKeys, chartRanges, type ChartRange } from '../utils/chart-ranges';
+import { unitOptions } from '../utils/display-units';
+import { limitsSummary } from '../utils/limits-text';
+import { ReadingsTable } from './readings-table';
+import { SegmentedChoice } from './segmented-choice';
+import { WindowStats } from './window-stats';
+
+// chart.js and its date adapter load only when a chart is first shown.
+const ReadingsChart = lazy(async () => ({ default: (await import('./readings-chart')).ReadingsChart }));
+
+interface ReadingsChartPanelProps {
+  tankId: string;
+  parameters: ParameterKey[];
+  parameter: ParameterKey;
+  onParameterChange: (parameter: ParameterKey) => void;
+  unit: string;
+  onUnitChange: (unit: string) => void;
+  canImport: boolean;
+  defaultImportSource: 'visit' | 'home-test';
+}
+
+export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
+  const { tankId, parameters, parameter, onParameterChange, unit, onUnitChange } = props;
+  const [range, setRange] = useState<ChartRange>('7d');
+  const [view, setView] = useState<'chart' | 'table'>('chart');
+  const history = useReadingHistory({ tankId, parameter, range });
+  const label = parameterCatalogue[parameter].label;
+  const units = unitOptions(parameter);
+
+  return (
+    <section aria-labelledby="history-title" className="rounded-card bg-white p-4 shadow-card sm:p-6">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <h3 id="history-title" className="text-xl font-bold text-ink-900">
+          History
+        </h3>
+        <SegmentedChoice
+          legend="Show as"
+          hideLegend
+          value={view}
+          onChange={setView}
+          options={[
+            { value: 'chart', label: 'Chart' },
+            { value: 'table', label: 'Table' },
+          ]}
+        />
+      </div>
+
+      {view === 'table' ? (
+        <div className="mt-4">
+          <ReadingsTable
+            tankId={tankId}
+            parameters={parameters}
+            initialParameter={parameter}
+            canImport={props.canImport}
+            defaultImportSource={props.defaultImportSource}
+          />
+        </div>
+      ) : (
+        <>
+          <div className="mt-4 grid gap-4 md:grid-cols-[minmax(0,14rem)_1fr_minmax(0,14rem)] md:items-end">
+            <div>
+              <label htmlFor="chart-parameter" className="mb-1 block text-sm font-bold text-ink-900">
+                Parameter
+              </label>
+              <select
+                id="chart-parameter"
+                value={parameter}
+                onChange={(event) => onParameterChange(event.target.value as ParameterKey)}
+                className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700"
+              >
+                {parameters.map((key) => (
+                  <option key={key} value={key}>
+                    {parameterCatalogue[key].label}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <SegmentedChoice
+              legend="Period"
+              value={range}
+              onChange={setRange}
+              options={chartRangeKeys.map((key) => ({ value: key, label: chartRanges[key].label }))}
+            />
+            {units.length > 1 ? (
+              <div>
+                <label htmlFor="chart-unit" className="mb-1 block text-sm font-bold text-ink-900">
+                  Unit
+                </label>
+                <select
+                  id="chart-unit"
+                  value={unit}
+                  onChange={(event) => onUnitChange(event.target.value)}
+                  className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700"
+                >
+                  {units.map((option) => (
+                    <option key={option.value} value={option.value}>
+                      {option.label}
+                    </option>
+                  ))}
+                </select>
+              </div>
+            ) : (
+              <div aria-hidden="true" />
+            )}
+          </div>
+
+          <div className="mt-5">
+            {history.isPending ? (
+              <LoadingState label={`Loading ${label.toLowerCase()} history…`} />
+            ) : history.isError ? (
+              <ErrorState error={history.error} what="this history" onRetry={() => void history.refetch()} />
+            ) : history.data.total === 0 ? (
+              <EmptyState title={`No ${label.toLowerCase()} readings in the ${chartRanges[range].spoken}`}>
+                Try a longer period, or add a reading below.
+              </EmptyState>
+            ) : (
+              <div className="grid gap-5 lg:grid-cols-[1fr_13rem]">
+                <figure className="min-w-0">
+                  <div className="relative h-72 sm:h-96" data-testid="readings-chart">
+                    <Suspense fallback={<LoadingState label="Drawing the chart…" />}>
+                      <ReadingsChart parameter={parameter} unit={unit} history={history.data} />
+                    </Suspense>
+                  </div>
+                  <figcaption className="mt-3 text-sm text-ink-700">
+                    {label} over the {chartRanges[range].spoken}:{' '}
+                    {history.data.mode === 'buckets'
+                      ? `${history.data.total.toLocaleString()} readings, summarised as the mean and range of each period.`
+                      : `${history.data.total.toLocaleString()} readings.`}{' '}
+                    Points mark {readingSourceLabels['home-test'].toLowerCase()}s (triangles) and{' '}
+                    {readingSourceLabels.visit.toLowerCase()}s (diamonds).{' '}
+                    {unit === 'specific gravity' &&
+                      'Specific gravity is shown as read at 25 °C on an instrument referenced to 25 °C (EOS-80 density, UNESCO Technical Paper 44). '}
+                    {history.data.limits.limits ? (
+                      <span data-testid="chart-bands">
+                        Shaded bands: {limitsSummary(parameter, history.data.limits.limits, unit)}
+                        {history.data.limits.source === 'template'
+                          ? ' (common-practice defaults for this style of tank)'
+                          : ''}
+                        .
+                      </span>
+                    ) : (
+                      'This tank has no limits for it.'
+                    )}
+                  </figcaption>
+                </figure>
+                <div aria-label={`${label} over the ${chartRanges[range].spoken}`} role="group">
+                  <WindowStats history={history.data} parameter={parameter} unit={unit} />
+                </div>
+              </div>
+            )}
+          </div>
+        </>
+      )}
+    </section>
+  );
+}

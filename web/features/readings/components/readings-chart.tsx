@@ -1,0 +1,368 @@
+/*
+ * The history chart: chart.js with its date adapter, loaded as its own chunk the first time a
+ * chart is shown (see readings-chart-panel.tsx), so the tank page does not wait for it.
+ */
+import {
+  Chart as ChartJS,
+  Filler,
+  Legend,
+  LinearScale,
+  LineController,
+  LineElement,
+  PointElement,
+  ScatterController,
+  TimeScale,
+  Tooltip,
+  type ChartDataset,
+  type ChartOptions,
+  type Plugin,
+  type TooltipItem,
+} from 'chart.js';
+import 'chartjs-adapter-date-fns';
+import { useMemo } from 'react';
+import { Chart } from 'react-chartjs-2';
+import { parameterCatalogue } from '@shared/parameters/catalogue';
+import type { ParameterKey } from '@shared/parameters/keys';
+import { unitDecimals, unitSymbol } from '@shared/parameters/units';
+import type { ParameterLimits } from '@shared/schemas/limits';
+import { readingSourceLabels, type Reading, type ReadingHistory } from '@shared/schemas/readings';
+import { displayValue, formatIn, limitsIn } from '../utils/display-units';
+
+ChartJS.register(
+  LineController,
+  ScatterController,
+  LineElement,
+  PointElement,
+  LinearScale,
+  TimeScale,
+  Tooltip,
+  Legend,
+  Filler,
+);
+
+const colours = {
+  line: '#0f7f79',
+  range: 'rgba(15, 127, 121, 0.18)',
+  visit: '#0b3440',
+  home: '#8a4b00',
+  watchFill: 'rgba(251, 235, 208, 0.75)',
+  watchLine: '#8a4b00',
+  alertFill: 'rgba(251, 224, 220, 0.9)',
+  alertLine: '#a3261b',
+  grid: 'rgba(29, 90, 106, 0.12)',
+  text: '#1d5a6a',
+};
+
+interface Point {
+  x: number;
+  y: number;
+  /** What the tooltip says about where the point came from. */
+  about: string;
+  detail?: string;
+}
+
+interface Bands {
+  /** In the chart's display unit. */
+  limits: ParameterLimits;
+  unitLabel: (value: number) => string;
+}
+
+/**
+ * Draws the limit bands behind the data: the warning zone tinted, the critical zone tinted more
+ * strongly, each bound a dashed line with its name and value written on it, so the bands read
+ * without colour.
+ */
+const limitBands: Plugin<'line', Bands | undefined> = {
+  id: 'limitBands',
+  beforeDatasetsDraw(chart, _args, bands) {
+    if (!bands?.limits) return;
+    const { ctx, chartArea } = chart;
+    const y = chart.scales.y;
+    if (!y) return;
+    const { warnLow, warnHigh, critLow, critHigh } = bands.limits;
+    const px = (value: number) =>
+      Math.min(chartArea.bottom, Math.max(chartArea.top, y.getPixelForValue(value)));
+    const zone = (from: number, to: number, fill: string) => {
+      const top = Math.min(from, to);
+      const height = Math.abs(to - from);
+      if (height <= 0) return;
+      ctx.fillStyle = fill;
+      ctx.fillRect(chartArea.left, top, chartArea.right - chartArea.left, height);
+    };
+    ctx.save();
+    if (warnHigh !== null)
+      zone(px(warnHigh), critHigh === null ? chartArea.top : px(critHigh), colours.watchFill);
+    if (critHigh !== null) zone(px(critHigh), chartArea.top, colours.alertFill);
+    if (warnLow !== null)
+      zone(px(warnLow), critLow === null ? chartArea.bottom : px(critLow), colours.watchFill);
+    if (critLow !== null) zone(px(critLow), chartArea.bottom, colours.alertFill);
+    const line = (value: number | null, name: string, colour: string, below: boolean) => {
+      if (value === null) return;
+      const at = y.getPixelForValue(value);
+      if (at < chartArea.top || at > chartArea.bottom) return;
+      ctx.strokeStyle = colour;
+      ctx.lineWidth = 1.5;
+      ctx.setLineDash([6, 4]);
+      ctx.beginPath();
+      ctx.moveTo(chartArea.left, at);
+      ctx.lineTo(chartArea.right, at);
+      ctx.stroke();
+      ctx.setLineDash([]);
+      ctx.fillStyle = colour;
+      ctx.font = 'bold 11px "Merriweather Sans", sans-serif';
+      ctx.textAlign = 'right';
+      ctx.textBaseline = below ? 'top' : 'bottom';
+      ctx.fillText(`${name} ${bands.unitLabel(value)}`, chartArea.right - 4, at + (below ? 3 : -3));
+    };
+    line(critHigh, 'Critical', colours.alertLine, false);
+    // A warning label goes under its line unless the critical line sits right above it.
+    const roomAbove =
+      warnHigh !== null &&
+      critHigh !== null &&
+      y.getPixelForValue(warnHigh) - y.getPixelForValue(critHigh) > 14;
+    line(warnHigh, 'Warning', colours.watchLine, !roomAbove);
+    line(warnLow, 'Warning', colours.watchLine, true);
+    line(critLow, 'Critical', colours.alertLine, true);
+    ctx.restore();
+  },
+};
+
+interface ReadingsChartProps {
+  parameter: ParameterKey;
+  unit: string;
+  history: ReadingHistory;
+}
+
+/** A symbol for the unit a reading was entered in, or the unit's own name if it is not one we know. */
+function enteredSymbol(parameter: ParameterKey, unit: string): string {
+  try {
+    return unitSymbol(parameter, unit);
+  } catch {
+    return unit;
+  }
+}
+
+function manualPoints(
+  parameter: ParameterKey,
+  unit: string,
+  readings: Reading[],
+  source: Reading['source'],
+): Point[] {
+  return readings
+    .filter((r) => r.source === source)
+    .map((r) => {
+      const who = r.recordedBy ? ` by ${r.recordedBy}` : '';
+      const entered =
+        r.enteredUnit !== unit
+          ? `entered as ${r.enteredValue} ${enteredSymbol(parameter, r.enteredUnit)}`.trim()
+          : '';
+      return {
+        x: Date.parse(r.measuredAt),
+        y: displayValue(parameter, r.value, unit),
+        about: `${readingSourceLabels[r.source]}${who}`,
+        detail: [entered, r.method, r.note].filter(Boolean).join(' · ') || undefined,
+      };
+    });
+}
+
+export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) {
+  const symbol = unitSymbol(parameter, unit);
+  const label = parameterCatalogue[parameter].label;
+
+  const { datasets, extent } = useMemo(() => {
+    const convert = (value: number) => displayValue(parameter, value, unit);
+    const sets: ChartDataset<'line' | 'scatter', Point[]>[] = [];
+    const values: number[] = [];
+    if (history.mode === 'buckets') {
+      const width = history.bucketMs ?? 0;
+      const mid = (start: string) => Date.parse(start) + width / 2;
+      const counts = (b: ReadingHistory['buckets'][number]) =>
+        [
+          b.bySource.device && `${b.bySource.device} device`,
+          b.bySource['home-test'] &&
+            `${b.bySource['home-test']} home test${b.bySource['home-test'] > 1 ? 's' : ''}`,
+          b.bySource.visit && `${b.bySource.visit} visit${b.bySource.visit > 1 ? 's' : ''}`,
+        ]
+          .filter(Boolean)
+          .join(', ');
+      const low = history.buckets.map((b) => ({ x: mid(b.start), y: convert(b.min), about: 'Lowest' }));
+      const high = history.buckets.map((b) => ({ x: mid(b.start), y: convert(b.max), about: 'Highest' }));
+      const mean = history.buckets.map((b) => ({
+        x: mid(b.start),
+        y: convert(b.mean),
+        about: `Mean of ${b.count} reading${b.count > 1 ? 's' : ''} (${counts(b)})`,
+        detail: `lowest ${formatIn(parameter, b.min, unit)}, highest ${formatIn(parameter, b.max, unit)}`,
+      }));
+      values.push(...low.map((p) => p.y), ...high.map((p) => p.y));
+      sets.push(
+        {
+          type: 'line',
+          label: 'Lowest',
+          data: low,
+          borderWidth: 0,
+          pointRadius: 0,
+          pointHitRadius: 0,
+          fill: false,
+        },
+        {
+          type: 'line',
+          label: 'Range in each period',
+          data: high,
+          borderWidth: 0,
+          pointRadius: 0,
+          pointHitRadius: 0,
+          backgroundColor: colours.range,
+          fill: '-1',
+        },
+        {
+          type: 'line',
+          label: 'Mean',
+          data: mean,
+          borderColor: colours.line,
+          backgroundColor: colours.line,
+          borderWidth: 2,
+          pointRadius: 0,
+          pointHitRadius: 6,
+          tension: 0.2,
+        },
+      );
+    } else {
+      const device = history.readings
+        .filter((r) => r.source === 'device')
+        .map((r) => ({
+          x: Date.parse(r.measuredAt),
+          y: convert(r.value),
+          about: `Device${r.recordedBy ? ` (${r.recordedBy})` : ''}`,
+        }));
+      values.push(...device.map((p) => p.y));
+      if (device.length > 0) {
+        sets.push({
+          type: 'line',
+          label: 'Device readings',
+          data: device,
+          borderColor: colours.line,
+          backgroundColor: colours.line,
+          borderWidth: 2,
+          pointRadius: device.length > 60 ? 0 : 2.5,
+          pointHitRadius: 6,
+          pointStyle: 'circle',
+        });
+      }
+    }
+    const home = manualPoints(parameter, unit, history.readings, 'home-test');
+    const visits = manualPoints(parameter, unit, history.readings, 'visit');
+    values.push(...home.map((p) => p.y), ...visits.map((p) => p.y));
+    if (home.length > 0) {
+      sets.push({
+        type: 'scatter',
+        label: 'Home tests',
+        data: home,
+        pointStyle: 'triangle',
+        pointRadius: 6,
+        pointHoverRadius: 8,
+        backgroundColor: colours.home,
+        borderColor: '#ffffff',
+        borderWidth: 1,
+      });
+    }
+    if (visits.length > 0) {
+      sets.push({
+        type: 'scatter',
+        label: 'Visits',
+        data: visits,
+        pointStyle: 'rectRot',
+        pointRadius: 6.5,
+        pointHoverRadius: 8.5,
+        backgroundColor: colours.visit,
+        borderColor: '#ffffff',
+        borderWidth: 1,
+      });
+    }
+    return { datasets: sets, extent: values };
+  }, [history, parameter, unit]);
+
+  const limits = history.limits.limits;
+  const options = useMemo((): ChartOptions<'line'> => {
+    const convert = (value: number) => displayValue(parameter, value, unit);
+    // The axis shows the data and the warning band; a critical bound only once the data nears it.
+    const shown = [...extent];
+    if (limits?.warnLow != null) shown.push(convert(limits.warnLow));
+    if (limits?.warnHigh != null) shown.push(convert(limits.warnHigh));
+    const dataLow = Math.min(...extent);
+    const dataHigh = Math.max(...extent);
+    if (limits?.critLow != null && limits.warnLow != null && dataLow < convert(limits.warnLow))
+      shown.push(convert(limits.critLow));
+    if (limits?.critHigh != null && limits.warnHigh != null && dataHigh > convert(limits.warnHigh))
+      shown.push(convert(limits.critHigh));
+    const low = shown.length ? Math.min(...shown) : 0;
+    const high = shown.length ? Math.max(...shown) : 1;
+    const pad = (high - low || Math.abs(high) || 1) * 0.08;
+    return {
+      responsive: true,
+      maintainAspectRatio: false,
+      animation: false,
+      parsing: false,
+      normalized: true,
+      interaction: { mode: 'nearest', intersect: false },
+      scales: {
+        x: {
+          type: 'time',
+          min: Date.parse(history.from),
+          max: Date.parse(history.to),
+          grid: { color: colours.grid },
+          ticks: { color: colours.text, maxRotation: 0, autoSkipPadding: 16 },
+        },
+        y: {
+          // Suggested, not fixed, so the axis rounds out to readable ticks.
+          suggestedMin: low - pad,
+          suggestedMax: high + pad,
+          grid: { color: colours.grid },
+          ticks: { color: colours.text },
+          title: { display: true, text: symbol ? `${label} (${symbol})` : label, color: colours.text },
+        },
+      },
+      plugins: {
+        legend: {
+          position: 'bottom',
+          labels: {
+            usePointStyle: true,
+            color: colours.text,
+            filter: (item) => item.text !== 'Lowest',
+          },
+        },
+        tooltip: {
+          callbacks: {
+            title: (items) => {
+              const first = items[0];
+              return first ? new Date((first.raw as Point).x).toLocaleString() : '';
+            },
+            label: (item: TooltipItem<'line'>) => {
+              const point = item.raw as Point;
+              return `${point.about}: ${point.y.toFixed(unitDecimals(parameter, unit))}${symbol ? ` ${symbol}` : ''}`;
+            },
+            afterLabel: (item: TooltipItem<'line'>) => (item.raw as Point).detail ?? '',
+          },
+          filter: (item) => item.dataset.label !== 'Lowest' && item.dataset.label !== 'Range in each period',
+        },
+        limitBands: limits
+          ? {
+              limits: limitsIn(parameter, limits, unit),
+              unitLabel: (value: number) =>
+                `${value.toFixed(unitDecimals(parameter, unit))}${symbol ? ` ${symbol}` : ''}`,
+            }
+          : undefined,
+      } as ChartOptions<'line'>['plugins'],
+    };
+  }, [extent, history.from, history.to, label, limits, parameter, symbol, unit]);
+
+  return (
+    <Chart
+      type="line"
+      data={{ datasets: datasets as ChartDataset<'line', Point[]>[] }}
+      options={options}
+      plugins={[limitBands as Plugin<'line'>]}
+      role="img"
+      aria-label={`Chart of ${label.toLowerCase()} in ${symbol || 'pH'}; the same readings are listed in the table view.`}
+    />
+  );
+}

@@ -1,0 +1,122 @@
+import { useState } from 'react';
+import { parameterCatalogue } from '@shared/parameters/catalogue';
+import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
+import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { useMe } from '../../auth/api/get-me';
+import { useLimits } from '../api/get-limits';
+import { useLatestReadings } from '../api/get-latest-readings';
+import { preferredUnit, rememberUnit } from '../utils/display-units';
+import { timeAgo } from '../utils/format-time';
+import { DevicesPanel } from './devices-panel';
+import { LatestReadings } from './latest-readings';
+import { LimitsEditor } from './limits-editor';
+import { ReadingEntryForm } from './reading-entry-form';
+import { ReadingsChartPanel } from './readings-chart-panel';
+import { TankStatusBadge } from './tank-status-badge';
+
+/** The order parameters are usually talked about in, most watched first. */
+const byCatalogue = (a: ParameterKey, b: ParameterKey) => parameterKeys.indexOf(a) - parameterKeys.indexOf(b);
+
+/**
+ * Everything about a tank's water on its page: the latest reading of each parameter judged
+ * against its limits, the history chart and table, entering readings, and — for staff — the
+ * limits and the devices. `canEdit` is true for the company's staff.
+ */
+export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEdit: boolean }) {
+  const me = useMe();
+  // Staff tools only for staff, whatever the page passes: the API would refuse an owner anyway.
+  const staff = canEdit && me.data != null && me.data.role !== 'owner';
+  const latest = useLatestReadings(tankId);
+  const limits = useLimits(tankId);
+  const [selected, setSelected] = useState<ParameterKey | null>(null);
+  const [units, setUnits] = useState<Partial<Record<ParameterKey, string>>>({});
+
+  if (latest.isPending) return <LoadingState label="Loading the water readings…" />;
+  if (latest.isError) {
+    return (
+      <ErrorState error={latest.error} what="this tank's readings" onRetry={() => void latest.refetch()} />
+    );
+  }
+
+  const health = latest.data;
+  const forWater = limits.data?.parameters.map((p) => p.parameter) ?? [];
+  const shown = health.parameters.map((p) => p.parameter);
+  const chartable = [...new Set([...shown, ...forWater])].sort(byCatalogue);
+  const withReadings = health.parameters.filter((p) => p.latest);
+  const parameter =
+    selected ??
+    withReadings.find((p) => p.parameter === 'temperature')?.parameter ??
+    withReadings[0]?.parameter ??
+    chartable[0] ??
+    'temperature';
+  const unitOf = (key: ParameterKey) => units[key] ?? preferredUnit(key);
+  const chooseUnit = (key: ParameterKey, unit: string) => {
+    rememberUnit(key, unit);
+    setUnits((current) => ({ ...current, [key]: unit }));
+  };
+  const fromDevice = new Set(
+    health.parameters.filter((p) => p.latest?.source === 'device').map((p) => p.parameter),
+  );
+  const handTested = (key: ParameterKey) =>
+    parameterCatalogue[key].homeTestIntervalMs !== null && !fromDevice.has(key);
+  const suggested = (
+    shown.length > 0 ? health.parameters.filter((p) => p.watched).map((p) => p.parameter) : forWater
+  )
+    .filter(handTested)
+    .slice(0, 8);
+
+  return (
+    <section aria-labelledby="readings-title" className="space-y-5">
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <h2 id="readings-title" className="text-2xl font-bold text-ink-900">
+          Water readings
+        </h2>
+        <TankStatusBadge status={health.status} size="lg" />
+        {health.lastReadingAt && (
+          <p className="text-sm text-ink-700">Last reading {timeAgo(health.lastReadingAt)}</p>
+        )}
+      </div>
+
+      {health.parameters.length === 0 ? (
+        <EmptyState title="No readings yet">
+          Readings from visits, home tests and devices appear here, judged against the tank&apos;s limits.
+        </EmptyState>
+      ) : (
+        <LatestReadings
+          parameters={health.parameters}
+          units={Object.fromEntries(health.parameters.map((p) => [p.parameter, unitOf(p.parameter)]))}
+          selected={parameter}
+          onSelect={setSelected}
+        />
+      )}
+
+      {chartable.length > 0 && (
+        <ReadingsChartPanel
+          tankId={tankId}
+          parameters={chartable}
+          parameter={parameter}
+          onParameterChange={setSelected}
+          unit={unitOf(parameter)}
+          onUnitChange={(unit) => chooseUnit(parameter, unit)}
+          canImport
+          defaultImportSource={staff ? 'visit' : 'home-test'}
+        />
+      )}
+
+      <ReadingEntryForm
+        key={`${staff}:${suggested.join(',')}`}
+        tankId={tankId}
+        canRecordVisits={staff}
+        suggested={suggested.length > 0 ? suggested : ['temperature', 'ph']}
+        available={chartable.length > 0 ? chartable : [...parameterKeys]}
+      />
+
+      {staff && (
+        <div className="grid items-start gap-5 xl:grid-cols-[3fr_2fr]">
+          <LimitsEditor tankId={tankId} />
+          <DevicesPanel tankId={tankId} />
+        </div>
+      )}
+    </section>
+  );
+}

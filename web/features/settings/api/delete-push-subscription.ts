@@ -1,0 +1,4 @@
+import { api } from '../../../lib/api-client';
+
+export const deletePushSubscription = (endpoint: string) =>
+  api<void>('/push/subscriptions', { method: 'DELETE', body: { endpoint } });
