@@ -1,5 +1,6 @@
 import { and, eq, gt, inArray, isNull, lte, ne, sql } from 'drizzle-orm';
 import { firstSteps } from '@shared/alerts/first-steps';
+import { inQuietHours } from '@shared/alerts/quiet-hours';
 import type { AlertSeverity } from '@shared/alerts/kinds';
 import {
   defaultNotificationPreferences,
@@ -79,19 +80,6 @@ async function recipientsFor(
 export function preferencesOf(stored: unknown, timeZone: string): NotificationPreferences {
   const parsed = preferencesSchema.safeParse(stored);
   return parsed.success ? parsed.data : { ...defaultNotificationPreferences, timeZone };
-}
-
-/** Quiet hours in the person's own time zone; a window may run past midnight (22:00–07:00). */
-export function inQuietHours(preferences: NotificationPreferences, now: Date): boolean {
-  if (!preferences.quietHours) return false;
-  const local = new Intl.DateTimeFormat('en-GB', {
-    hour: '2-digit',
-    minute: '2-digit',
-    hourCycle: 'h23',
-    timeZone: preferences.timeZone,
-  }).format(now);
-  const { start, end } = preferences.quietHours;
-  return start <= end ? local >= start && local < end : local >= start || local < end;
 }
 
 /**

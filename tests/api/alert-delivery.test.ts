@@ -7,6 +7,7 @@ import { createApp } from '../../api/app';
 import { deliveries, pushSubscriptions } from '../../api/db/schema/index';
 import { createDeps } from '../../api/deps';
 import { listenForEvents } from '../../api/lib/event-bus';
+import { queues } from '../../api/lib/job-queue';
 import { createLogger } from '../../api/lib/logger';
 import { afterAlertEvents } from '../../api/services/alerts';
 import { evaluateNewReadings } from '../../api/services/alert-engine';
@@ -176,6 +177,53 @@ describe('alert notifications', () => {
       )
       .toMatchObject({ status: 'sent', attempts: 3 });
   }, 60_000);
+
+  it('marks a delivery that ran out of retries as failed and lists it for staff', async () => {
+    await stack.mail.pause();
+    try {
+      await raiseCriticalAlert();
+      await expect
+        .poll(
+          async () =>
+            (await stack.database.db.select().from(deliveries).where(eq(deliveries.channel, 'email'))).length,
+          {
+            timeout: 10_000,
+          },
+        )
+        .toBe(1);
+      const [stuck] = await stack.database.db
+        .select()
+        .from(deliveries)
+        .where(eq(deliveries.channel, 'email'));
+      // pg-boss copies a job that exhausted its retries into the dead-letter queue; do that directly.
+      await stack.deps.jobs!.send(queues.dead, { deliveryId: stuck!.id });
+      await expect
+        .poll(
+          async () =>
+            (await stack.database.db.select().from(deliveries).where(eq(deliveries.id, stuck!.id)))[0]
+              ?.status,
+          {
+            timeout: 10_000,
+          },
+        )
+        .toBe('failed');
+
+      const technician = await createPerson(stack.database.db, {
+        companyId: tank.companyId,
+        role: 'technician',
+        issuer: stack.idp.issuer,
+      });
+      const staffBrowser = new HttpBrowser();
+      await signIn(stack, staffBrowser, technician);
+      const listed = (await (await staffBrowser.visit(`${stack.origin}/api/deliveries/failed`)).json()) as {
+        id: string;
+      }[];
+      expect(listed.map((d) => d.id)).toContain(stuck!.id);
+      expect((await ownerBrowser.visit(`${stack.origin}/api/deliveries/failed`)).status).toBe(403);
+    } finally {
+      await stack.mail.resume();
+    }
+  }, 30_000);
 
   it('reaches a live-event client connected to a second API instance on the same database', async () => {
     const logger = createLogger('silent');
