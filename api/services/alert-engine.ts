@@ -14,7 +14,7 @@ import { findSpecies } from '@shared/livestock/catalogue';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates } from '@shared/parameters/limit-templates';
-import type { ParameterLimits } from '@shared/schemas/limits';
+import { rateRuleFromHours, type ParameterLimits, type RateRule } from '@shared/schemas/limits';
 import type { ReadingSource } from '@shared/schemas/readings';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { Db } from '../db/client';
@@ -47,6 +47,8 @@ interface TankContext {
   name: string;
   timeZone: string;
   limits: Partial<Record<ParameterKey, ParameterLimits>>;
+  /** The tank's own rate rules; a parameter without one uses the catalogue default. */
+  rates: Partial<Record<ParameterKey, RateRule>>;
   inhabitants: LivestockInhabitant[];
 }
 
@@ -65,6 +67,7 @@ async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
   if (!tank) return null;
   const rows = await tx.select().from(tankLimits).where(eq(tankLimits.tankId, tankId));
   const limits: Partial<Record<ParameterKey, ParameterLimits>> = { ...limitTemplates[tank.style] };
+  const rates: Partial<Record<ParameterKey, RateRule>> = {};
   for (const row of rows) {
     limits[row.parameter] = {
       warnLow: row.warnLow,
@@ -72,6 +75,9 @@ async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
       critLow: row.critLow,
       critHigh: row.critHigh,
     };
+    if (row.rateMaxChange !== null && row.ratePerHours !== null) {
+      rates[row.parameter] = rateRuleFromHours({ maxChange: row.rateMaxChange, perHours: row.ratePerHours });
+    }
   }
   const animals = await tx
     .select({ speciesId: livestock.catalogueSpeciesId })
@@ -88,7 +94,7 @@ async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
       ranges: species.profile.ranges,
     });
   }
-  return { ...tank, limits, inhabitants };
+  return { ...tank, limits, rates, inhabitants };
 }
 
 async function loadState(tx: Tx, tankId: string, ruleKey: string): Promise<ThresholdState> {
@@ -296,7 +302,7 @@ async function evaluateLivestockRule(tx: Tx, tank: TankContext, parameter: Param
 }
 
 async function evaluateRateRule(tx: Tx, tank: TankContext, parameter: ParameterKey, latest: NewReading) {
-  const rule = parameterCatalogue[parameter].rateOfChange;
+  const rule = tank.rates[parameter] ?? parameterCatalogue[parameter].rateOfChange;
   if (!rule) return null;
   // Twice the rule's period: enough history for evaluateRate to average a slightly long gap.
   const windowStart = new Date(latest.measuredAt.getTime() - 2 * rule.perMs);

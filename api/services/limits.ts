@@ -1,13 +1,15 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import { catalogueSource } from '@shared/livestock/catalogue';
-import { parametersFor } from '@shared/parameters/catalogue';
+import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates, limitTemplatesSource } from '@shared/parameters/limit-templates';
-import type {
-  ParameterLimits,
-  ParameterLimitsView,
-  TankLimitsView,
-  UpdateLimitsInput,
+import {
+  rateRuleInHours,
+  type ParameterLimits,
+  type ParameterLimitsView,
+  type TankLimitsView,
+  type TankRateRule,
+  type UpdateLimitsInput,
 } from '@shared/schemas/limits';
 import type { LimitsInForce } from '@shared/schemas/readings';
 import type { Db } from '../db/client';
@@ -25,6 +27,24 @@ const boundsOf = (row: LimitRow): ParameterLimits => ({
   critLow: row.critLow,
   critHigh: row.critHigh,
 });
+
+const unwatched: ParameterLimits = { warnLow: null, warnHigh: null, critLow: null, critHigh: null };
+
+const sameBounds = (row: LimitRow, limits: ParameterLimits): boolean =>
+  row.warnLow === limits.warnLow &&
+  row.warnHigh === limits.warnHigh &&
+  row.critLow === limits.critLow &&
+  row.critHigh === limits.critHigh;
+
+const rateOf = (row: LimitRow): TankRateRule | null =>
+  row.rateMaxChange === null || row.ratePerHours === null
+    ? null
+    : { maxChange: row.rateMaxChange, perHours: row.ratePerHours };
+
+const defaultRateOf = (parameter: ParameterKey): TankRateRule | null => {
+  const rule = parameterCatalogue[parameter].rateOfChange;
+  return rule ? rateRuleInHours(rule) : null;
+};
 
 /** The tank's own limits for a parameter, else its style's template, else none. */
 export async function limitsInForce(db: Db, tank: TankRow, parameter: ParameterKey): Promise<LimitsInForce> {
@@ -68,6 +88,8 @@ export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<T
             }
           : null,
         comfortConflict: comfort.conflicts.find((c) => c.parameter === parameter)?.message ?? null,
+        rate: row ? rateOf(row) : null,
+        defaultRate: defaultRateOf(parameter),
         updatedAt: row?.updatedAt.toISOString() ?? null,
       };
     });
@@ -80,7 +102,10 @@ export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<T
   };
 }
 
-/** One transaction: a parameter set to null goes back to the template, the others are replaced. */
+/**
+ * One transaction. Limits set to null go back to the template, rates set to null go back to the
+ * catalogue default; the others are replaced, and a parameter left out of either is unchanged.
+ */
 export async function updateLimits(
   db: Db,
   actor: Actor,
@@ -88,32 +113,56 @@ export async function updateLimits(
   input: UpdateLimitsInput,
 ): Promise<TankLimitsView> {
   const tank = await findTankFor(db, actor, tankId, 'write');
-  const entries = Object.entries(input.limits) as [ParameterKey, ParameterLimits | null][];
-  const cleared = entries.filter(([, limits]) => limits === null).map(([parameter]) => parameter);
-  const set = entries.flatMap(([parameter, limits]) => (limits ? [{ parameter, ...limits }] : []));
-  await db.transaction(async (tx) => {
-    if (cleared.length > 0) {
-      await tx
-        .delete(tankLimits)
-        .where(and(eq(tankLimits.tankId, tank.id), inArray(tankLimits.parameter, cleared)));
-    }
-    for (const limits of set) {
-      const values = { ...limits, tankId: tank.id, updatedBy: actor.id };
-      await tx
-        .insert(tankLimits)
-        .values(values)
-        .onConflictDoUpdate({
-          target: [tankLimits.tankId, tankLimits.parameter],
-          set: {
-            warnLow: limits.warnLow,
-            warnHigh: limits.warnHigh,
-            critLow: limits.critLow,
-            critHigh: limits.critHigh,
-            updatedBy: actor.id,
-            updatedAt: new Date(),
-          },
-        });
-    }
-  });
+  const limits = input.limits ?? {};
+  const rates = input.rates ?? {};
+  const touched = [...new Set([...Object.keys(limits), ...Object.keys(rates)])] as ParameterKey[];
+  const template = limitTemplates[tank.style];
+  if (touched.length > 0) {
+    await db.transaction(async (tx) => {
+      const rows = await tx
+        .select()
+        .from(tankLimits)
+        .where(and(eq(tankLimits.tankId, tank.id), inArray(tankLimits.parameter, touched)))
+        .for('update');
+      const own = new Map(rows.map((row) => [row.parameter, row]));
+      for (const parameter of touched) {
+        const row = own.get(parameter);
+        const given = limits[parameter];
+        const givenRate = rates[parameter];
+        const templateBounds = template[parameter] ?? unwatched;
+        const rate = givenRate !== undefined ? givenRate : row ? rateOf(row) : null;
+        // null: the parameter follows its style's template.
+        let bounds: ParameterLimits | null;
+        if (given !== undefined) bounds = given;
+        else if (!row) bounds = null;
+        // Clearing a rate rule also drops the copy of the template it was kept with (see below).
+        else if (givenRate === null && sameBounds(row, templateBounds)) bounds = null;
+        else bounds = boundsOf(row);
+        if (bounds === null && rate === null) {
+          if (row) {
+            await tx
+              .delete(tankLimits)
+              .where(and(eq(tankLimits.tankId, tank.id), eq(tankLimits.parameter, parameter)));
+          }
+          continue;
+        }
+        // Tank health, history and the alert engine read any row's bounds as the tank's own, so a
+        // rate rule on a parameter that follows its template is kept with a copy of the template.
+        const values = {
+          ...(bounds ?? templateBounds),
+          rateMaxChange: rate?.maxChange ?? null,
+          ratePerHours: rate?.perHours ?? null,
+          updatedBy: actor.id,
+        };
+        await tx
+          .insert(tankLimits)
+          .values({ ...values, tankId: tank.id, parameter })
+          .onConflictDoUpdate({
+            target: [tankLimits.tankId, tankLimits.parameter],
+            set: { ...values, updatedAt: new Date() },
+          });
+      }
+    });
+  }
   return getLimits(db, actor, tank.id);
 }

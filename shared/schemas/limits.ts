@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isPlausible, parameterCatalogue } from '@shared/parameters/catalogue';
+import { hourMs, isPlausible, parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 
 export const limitSeverities = ['warning', 'critical'] as const;
@@ -70,12 +70,40 @@ export const rateRule = z.object({
 export type RateRule = z.infer<typeof rateRule>;
 
 /**
+ * A rate rule as staff set it for one tank: alert when the value changes by more than `maxChange`
+ * (stored unit) within `perHours`, from a quarter of an hour (any shorter and probe noise looks
+ * like a climb) to a week.
+ */
+export const tankRateRule = z.object({
+  maxChange: z.number().positive('the change must be more than 0'),
+  perHours: z
+    .number()
+    .min(0.25, 'the period must be at least 0.25 hours (15 minutes)')
+    .max(168, 'the period must be at most 168 hours (a week)'),
+});
+export type TankRateRule = z.infer<typeof tankRateRule>;
+
+export const rateRuleFromHours = ({ maxChange, perHours }: TankRateRule): RateRule => ({
+  maxChange,
+  perMs: Math.round(perHours * hourMs),
+});
+
+export const rateRuleInHours = ({ maxChange, perMs }: RateRule): TankRateRule => ({
+  maxChange,
+  perHours: perMs / hourMs,
+});
+
+/**
  * Changes to a tank's limits, per parameter: new limits (all four bounds null = not watched), or
- * null to drop the tank's own limits and fall back to its style's template.
+ * null to drop the tank's own limits and fall back to its style's template. `rates` sets the
+ * tank's own rate rule, or null for the catalogue default. A parameter left out is unchanged.
  */
 export const updateLimitsInput = z
-  .object({ limits: z.partialRecord(parameterKey, parameterLimits.nullable()) })
-  .superRefine(({ limits }, ctx) => {
+  .object({
+    limits: z.partialRecord(parameterKey, parameterLimits.nullable()).optional(),
+    rates: z.partialRecord(parameterKey, tankRateRule.nullable()).optional(),
+  })
+  .superRefine(({ limits = {}, rates = {} }, ctx) => {
     for (const [parameter, bounds] of Object.entries(limits) as [ParameterKey, ParameterLimits | null][]) {
       if (bounds === null) continue;
       const { label, bounds: plausible } = parameterCatalogue[parameter];
@@ -87,6 +115,19 @@ export const updateLimitsInput = z
             message: `${label} limits must lie between ${plausible.min} and ${plausible.max}`,
           });
         }
+      }
+    }
+    for (const [parameter, rule] of Object.entries(rates) as [ParameterKey, TankRateRule | null][]) {
+      if (rule === null) continue;
+      const { label, bounds: plausible, symbol } = parameterCatalogue[parameter];
+      // A change wider than anything the parameter can read would never alert: a typing slip.
+      const span = plausible.max - plausible.min;
+      if (rule.maxChange > span) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rates', parameter, 'maxChange'],
+          message: `${label} cannot change by more than ${span}${symbol ? ` ${symbol}` : ''}`,
+        });
       }
     }
   });
@@ -109,6 +150,10 @@ export interface ParameterLimitsView {
   comfort: ComfortBandView | null;
   /** When the inhabitants' ranges leave no common ground. */
   comfortConflict: string | null;
+  /** The tank's own rate rule; null when the default applies. */
+  rate: TankRateRule | null;
+  /** The catalogue's common-practice rate rule; null where the parameter has none. */
+  defaultRate: TankRateRule | null;
   updatedAt: string | null;
 }
 

@@ -230,4 +230,47 @@ describe('alerts from readings', () => {
     const sent = await stack.database.db.select().from(notifications);
     expect(sent.length).toBeGreaterThan(0);
   });
+
+  it('opens a rate alert on a tank’s own rule of 0.5 °C within an hour, where the default rule would not', async () => {
+    const { db } = stack.database;
+    const strict = await createTank(db, { companyId: tank.companyId, name: 'Nursery reef', owners: [owner] });
+    const ruleSet = await techBrowser.visit(`${stack.origin}/api/tanks/${strict.id}/limits`, {
+      method: 'PUT',
+      headers: { ...stack.sameOrigin, 'content-type': 'application/json' },
+      body: JSON.stringify({ rates: { temperature: { maxChange: 0.5, perHours: 1 } } }),
+    });
+    expect(ruleSet.status).toBe(200);
+    const at = Date.now() - minutes(40);
+    const climb = [
+      {
+        parameter: 'temperature' as const,
+        value: 25.0,
+        measuredAt: new Date(at),
+        source: 'home-test' as const,
+      },
+      {
+        parameter: 'temperature' as const,
+        value: 25.7,
+        measuredAt: new Date(at + minutes(30)),
+        source: 'home-test' as const,
+      },
+    ];
+
+    // The same climb on a tank under the default rule (1 °C per hour) and on the strict tank.
+    for (const target of [tank, strict]) {
+      const stored = await insertReadings(db, target, climb);
+      await afterAlertEvents(stack.deps, await evaluateNewReadings(db, target.id, stored));
+    }
+
+    const rows = await db.select().from(alerts).where(eq(alerts.kind, 'rate'));
+    expect(rows).toEqual([
+      expect.objectContaining({
+        tankId: strict.id,
+        parameter: 'temperature',
+        status: 'open',
+        limitValue: 0.5,
+      }),
+    ]);
+    expect(rows[0]!.body).toMatch(/limit of 0\.5 °C an hour/);
+  });
 });

@@ -123,6 +123,90 @@ describe('tank limits', () => {
       expect(res.status).toBe(403);
     });
 
+    it('stores a rate rule of the tank’s own beside the template limits, and null goes back to the default', async () => {
+      const tank = await createTank(stack.database.db, { companyId: world.company.id });
+      const tankPath = `/api/tanks/${tank.id}/limits`;
+      const rule = { maxChange: 0.5, perHours: 2 };
+
+      const set = await world.call('technician', 'PUT', tankPath, { rates: { temperature: rule } });
+      const read = await world.call('technician', 'GET', tankPath);
+      const back = await world.call('technician', 'PUT', tankPath, { rates: { temperature: null } });
+
+      expect(set.status).toBe(200);
+      expect(find(read.body, 'temperature')).toMatchObject({
+        rate: rule,
+        defaultRate: { maxChange: 1, perHours: 1 },
+        limits: limitTemplates['mixed-reef'].temperature,
+      });
+      expect(find(read.body, 'alkalinity')).toMatchObject({
+        rate: null,
+        defaultRate: { maxChange: 1, perHours: 24 },
+      });
+      // Day-night swings make a default rate rule for pH meaningless.
+      expect(find(read.body, 'ph')).toMatchObject({ rate: null, defaultRate: null });
+      expect(back.status).toBe(200);
+      expect(find(back.body, 'temperature')).toMatchObject({
+        rate: null,
+        source: 'template',
+        limits: limitTemplates['mixed-reef'].temperature,
+      });
+    });
+
+    it('keeps a tank’s rate rule when its limits go back to the template, and keeps judging health by them', async () => {
+      const tank = await createTank(stack.database.db, { companyId: world.company.id });
+      const tankPath = `/api/tanks/${tank.id}/limits`;
+      const rule = { maxChange: 0.4, perHours: 1 };
+      await world.call('technician', 'PUT', tankPath, {
+        limits: { temperature: { warnLow: 24.5, warnHigh: 26.5, critLow: 23, critHigh: 28 } },
+        rates: { temperature: rule },
+      });
+
+      const res = await world.call('technician', 'PUT', tankPath, { limits: { temperature: null } });
+      const health = await healthForTanks(stack.database.db, [tank.id], new Date());
+
+      expect(find(res.body, 'temperature')).toMatchObject({
+        rate: rule,
+        limits: limitTemplates['mixed-reef'].temperature,
+      });
+      expect(health.get(tank.id)!.parameters.map((p) => p.parameter)).toContain('temperature');
+    });
+
+    it('refuses a zero change, a period outside 15 minutes to a week and a change no reading could make, naming the field', async () => {
+      const res = await world.call('technician', 'PUT', path(), {
+        rates: {
+          temperature: { maxChange: 0, perHours: 0.1 },
+          salinity: { maxChange: 1, perHours: 200 },
+          alkalinity: { maxChange: 500, perHours: 24 },
+        },
+      });
+
+      expect(res.status).toBe(400);
+      expect(res.body.error.issues.map((i: { path: string }) => i.path).sort()).toEqual([
+        'body.rates.alkalinity.maxChange',
+        'body.rates.salinity.perHours',
+        'body.rates.temperature.maxChange',
+        'body.rates.temperature.perHours',
+      ]);
+      expect(find((await world.call('technician', 'GET', path())).body, 'alkalinity')!.rate).toBeNull();
+    });
+
+    it('refuses an owner who tries to change a rate rule', async () => {
+      const res = await world.call('owner', 'PUT', path(), {
+        rates: { temperature: { maxChange: 0.5, perHours: 1 } },
+      });
+
+      expect(res.status).toBe(403);
+      expect(find((await world.call('owner', 'GET', path())).body, 'temperature')!.rate).toBeNull();
+    });
+
+    it("answers another company's tank with 404", async () => {
+      const res = await world.call('stranger', 'PUT', path(), {
+        rates: { temperature: { maxChange: 0.5, perHours: 1 } },
+      });
+
+      expect(res.status).toBe(404);
+    });
+
     it('applies to the health of the tank at once', async () => {
       const tank = await createTank(stack.database.db, {
         companyId: world.company.id,

@@ -85,7 +85,11 @@ export const readings = pgTable(
   ],
 );
 
-/** Warning and critical bands per tank and parameter; any bound may be open (null). */
+/**
+ * Warning and critical bands per tank and parameter; any bound may be open (null). The row also
+ * holds the tank's own rate rule: alert when the value changes by more than `rateMaxChange` within
+ * `ratePerHours`; both null means the parameter catalogue's common-practice default.
+ */
 export const tankLimits = pgTable(
   'tank_limits',
   {
@@ -97,6 +101,8 @@ export const tankLimits = pgTable(
     warnHigh: doublePrecision('warn_high'),
     critLow: doublePrecision('crit_low'),
     critHigh: doublePrecision('crit_high'),
+    rateMaxChange: doublePrecision('rate_max_change'),
+    ratePerHours: doublePrecision('rate_per_hours'),
     updatedBy: uuid('updated_by').references(() => users.id, { onDelete: 'set null' }),
     ...timestamps,
   },

@@ -3,7 +3,13 @@ import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { formatValue } from '@shared/parameters/units';
 import { limitsFromComfort } from '@shared/readings/comfort-limits';
-import { parameterLimits, type ParameterLimits, type ParameterLimitsView } from '@shared/schemas/limits';
+import {
+  parameterLimits,
+  tankRateRule,
+  type ParameterLimits,
+  type ParameterLimitsView,
+  type TankRateRule,
+} from '@shared/schemas/limits';
 import { Button } from '../../../components/button';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiError } from '../../../lib/api-client';
@@ -22,6 +28,13 @@ const boundLabels: Record<Bound, string> = {
 
 /** What is being edited for one parameter: four typed bounds, or "back to the template". */
 type Draft = { kind: 'bounds'; text: Record<Bound, string> } | { kind: 'template' };
+
+const rateFields = ['maxChange', 'perHours'] as const;
+type RateField = (typeof rateFields)[number];
+
+/** The fast-change rule being edited for one parameter: two typed numbers, or "back to the default". */
+type RateDraft = { kind: 'rule'; text: Record<RateField, string> } | { kind: 'default' };
+type RateResult = { rate: TankRateRule | null } | { errors: Partial<Record<RateField, string>> };
 
 const textOf = (limits: ParameterLimits | null): Record<Bound, string> => ({
   critLow: limits?.critLow == null ? '' : String(limits.critLow),
@@ -49,6 +62,44 @@ function limitsFromText(
   return { limits };
 }
 
+const rateTextOf = (rule: TankRateRule | null): Record<RateField, string> => ({
+  maxChange: rule ? String(rule.maxChange) : '',
+  perHours: rule ? String(rule.perHours) : '',
+});
+
+/** Both numbers empty means the default rule; one alone is a rule half typed. */
+function rateFromText(text: Record<RateField, string>): RateResult {
+  const errors: Partial<Record<RateField, string>> = {};
+  const values: Partial<Record<RateField, number>> = {};
+  for (const field of rateFields) {
+    const parsed = parseDecimal(text[field]);
+    if (parsed.state === 'invalid') errors[field] = parsed.reason;
+    else if (parsed.state === 'number') values[field] = parsed.value;
+  }
+  if (Object.keys(errors).length > 0) return { errors };
+  if (values.maxChange === undefined && values.perHours === undefined) return { rate: null };
+  for (const field of rateFields) {
+    if (values[field] === undefined) errors[field] = 'Enter both numbers, or use the default.';
+  }
+  if (Object.keys(errors).length > 0) return { errors };
+  const checked = tankRateRule.safeParse(values);
+  if (!checked.success) {
+    for (const issue of checked.error.issues) errors[issue.path[0] as RateField] = issue.message;
+    return { errors };
+  }
+  return { rate: checked.data };
+}
+
+const sameLimits = (a: ParameterLimits | null, b: ParameterLimits | null): boolean =>
+  a !== null && b !== null && bounds.every((bound) => a[bound] === b[bound]);
+
+function amountOf(parameter: ParameterKey, amount: number): string {
+  const { symbol } = parameterCatalogue[parameter];
+  return symbol ? `${amount} ${symbol}` : String(amount);
+}
+
+const hours = (amount: number) => `${amount} hour${amount === 1 ? '' : 's'}`;
+
 function range(parameter: ParameterKey, low: number | null, high: number | null): string {
   const f = (value: number) => formatValue(parameter, value, { trim: true });
   if (low !== null && high !== null) return `${f(low)} – ${f(high)}`;
@@ -62,6 +113,7 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
   const limits = useLimits(tankId);
   const update = useUpdateLimits(tankId);
   const [drafts, setDrafts] = useState<Partial<Record<ParameterKey, Draft>>>({});
+  const [rateDrafts, setRateDrafts] = useState<Partial<Record<ParameterKey, RateDraft>>>({});
   const [serverIssues, setServerIssues] = useState<Record<string, string>>({});
   const [saved, setSaved] = useState(false);
 
@@ -77,7 +129,17 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
       draft.kind === 'bounds' ? limitsFromText(draft.text) : null,
     ]),
   );
-  const invalid = [...results.values()].some((result) => result !== null && 'errors' in result);
+  const changedRates = Object.entries(rateDrafts) as [ParameterKey, RateDraft][];
+  const rateResults = new Map(
+    changedRates.map(([parameter, draft]) => [
+      parameter,
+      draft.kind === 'rule' ? rateFromText(draft.text) : { rate: null },
+    ]),
+  );
+  const invalid =
+    [...results.values()].some((result) => result !== null && 'errors' in result) ||
+    [...rateResults.values()].some((result) => 'errors' in result);
+  const changes = new Set([...changed, ...changedRates].map(([parameter]) => parameter)).size;
 
   const setDraft = (parameter: ParameterKey, draft: Draft | undefined) => {
     setSaved(false);
@@ -90,26 +152,47 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
     });
   };
 
+  const setRateDraft = (parameter: ParameterKey, draft: RateDraft | undefined) => {
+    setSaved(false);
+    setServerIssues({});
+    setRateDrafts((current) => {
+      const next = { ...current };
+      if (draft) next[parameter] = draft;
+      else delete next[parameter];
+      return next;
+    });
+  };
+
+  const undoAll = () => {
+    setDrafts({});
+    setRateDrafts({});
+  };
+
   const save = () => {
-    if (invalid || changed.length === 0) return;
-    const body: Partial<Record<ParameterKey, ParameterLimits | null>> = {};
+    if (invalid || changes === 0) return;
+    const limitsBody: Partial<Record<ParameterKey, ParameterLimits | null>> = {};
     for (const [parameter, draft] of changed) {
       const result = results.get(parameter);
-      body[parameter] =
+      limitsBody[parameter] =
         draft.kind === 'template' ? null : result && 'limits' in result ? result.limits : null;
     }
+    const ratesBody: Partial<Record<ParameterKey, TankRateRule | null>> = {};
+    for (const [parameter] of changedRates) {
+      const result = rateResults.get(parameter);
+      ratesBody[parameter] = result && 'rate' in result ? result.rate : null;
+    }
     update.mutate(
-      { limits: body },
+      { limits: limitsBody, rates: ratesBody },
       {
         onSuccess: () => {
-          setDrafts({});
+          undoAll();
           setSaved(true);
         },
         onError: (error) => {
           if (!(error instanceof ApiError)) return;
           setServerIssues(
             Object.fromEntries(
-              error.issues.map((issue) => [issue.path.replace(/^body\.limits\./, ''), issue.message]),
+              error.issues.map((issue) => [issue.path.replace(/^body\./, ''), issue.message]),
             ),
           );
         },
@@ -125,6 +208,11 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
       <p className="mt-1 text-sm text-ink-700">
         A reading strictly beyond a bound opens a warning or critical alert; leave a bound empty for no limit
         on that side. Values are in each parameter&apos;s stored unit. Templates: {view.templateSource}
+      </p>
+      <p className="mt-1 text-sm text-ink-700">
+        A fast-change rule opens a warning when a parameter moves by more than the amount set within the hours
+        set, even inside its limits. The defaults are common practice, not a standard; change them for a tank
+        that needs a gentler or a looser rule.
       </p>
       {view.inhabitants > 0 ? (
         <p className="mt-1 text-sm text-ink-700">
@@ -144,22 +232,25 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
             view={p}
             draft={drafts[p.parameter]}
             result={results.get(p.parameter)}
+            rateDraft={rateDrafts[p.parameter]}
+            rateResult={rateResults.get(p.parameter)}
             serverIssues={serverIssues}
             onDraft={(draft) => setDraft(p.parameter, draft)}
+            onRateDraft={(draft) => setRateDraft(p.parameter, draft)}
           />
         ))}
       </ul>
 
       <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-ink-100 pt-4">
-        <Button onClick={save} disabled={changed.length === 0 || invalid || update.isPending}>
+        <Button onClick={save} disabled={changes === 0 || invalid || update.isPending}>
           {update.isPending
             ? 'Saving…'
-            : changed.length > 0
-              ? `Save ${changed.length} change${changed.length === 1 ? '' : 's'}`
+            : changes > 0
+              ? `Save ${changes} change${changes === 1 ? '' : 's'}`
               : 'No changes'}
         </Button>
-        {changed.length > 0 && (
-          <Button tone="secondary" onClick={() => setDrafts({})}>
+        {changes > 0 && (
+          <Button tone="secondary" onClick={undoAll}>
             Undo changes
           </Button>
         )}
@@ -183,17 +274,31 @@ interface LimitRowProps {
   view: ParameterLimitsView;
   draft: Draft | undefined;
   result: ReturnType<typeof limitsFromText> | null | undefined;
+  rateDraft: RateDraft | undefined;
+  rateResult: RateResult | undefined;
   serverIssues: Record<string, string>;
   onDraft: (draft: Draft | undefined) => void;
+  onRateDraft: (draft: RateDraft | undefined) => void;
 }
 
-function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps) {
+function LimitRow({
+  view,
+  draft,
+  result,
+  rateDraft,
+  rateResult,
+  serverIssues,
+  onDraft,
+  onRateDraft,
+}: LimitRowProps) {
   const id = useId();
   const { parameter } = view;
   const info = parameterCatalogue[parameter];
   const text =
     draft?.kind === 'bounds' ? draft.text : textOf(draft?.kind === 'template' ? view.template : view.limits);
   const errors = result && 'errors' in result ? result.errors : {};
+  // A rate rule keeps the template's values on the tank, so "Use template" would change nothing.
+  const likeTemplate = view.source === 'tank' && sameLimits(view.limits, view.template);
   const source =
     draft?.kind === 'template'
       ? 'Back to the template when saved'
@@ -202,7 +307,9 @@ function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps)
         : view.source === 'tank'
           ? Object.values(view.limits ?? {}).every((v) => v === null)
             ? 'Not watched on this tank'
-            : "This tank's own limits"
+            : likeTemplate
+              ? "This tank's own limits, the same as the template"
+              : "This tank's own limits"
           : view.source === 'template'
             ? 'Template default (common practice)'
             : 'No limits: not watched';
@@ -223,7 +330,7 @@ function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps)
       <div className="mt-2 grid grid-cols-2 gap-2 sm:grid-cols-4">
         {bounds.map((bound) => {
           const inputId = `${id}-${bound}`;
-          const error = errors[bound] ?? serverIssues[`${parameter}.${bound}`];
+          const error = errors[bound] ?? serverIssues[`limits.${parameter}.${bound}`];
           return (
             <div key={bound}>
               <label htmlFor={inputId} className="block text-xs font-bold text-ink-800">
@@ -278,6 +385,13 @@ function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps)
           <p>No comfort range from the livestock.</p>
         )}
       </div>
+      <RateRuleFields
+        view={view}
+        draft={rateDraft}
+        result={rateResult}
+        serverIssues={serverIssues}
+        onDraft={onRateDraft}
+      />
       <div className="mt-2 flex flex-wrap gap-2">
         {view.comfort && (
           <Button
@@ -290,7 +404,7 @@ function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps)
             Use comfort range<span className="sr-only"> for {info.label}</span>
           </Button>
         )}
-        {view.template && view.source === 'tank' && draft?.kind !== 'template' && (
+        {view.template && view.source === 'tank' && !likeTemplate && draft?.kind !== 'template' && (
           <Button tone="secondary" className="text-sm" onClick={() => onDraft({ kind: 'template' })}>
             Use template<span className="sr-only"> for {info.label}</span>
           </Button>
@@ -302,5 +416,107 @@ function LimitRow({ view, draft, result, serverIssues, onDraft }: LimitRowProps)
         )}
       </div>
     </li>
+  );
+}
+
+interface RateRuleFieldsProps {
+  view: ParameterLimitsView;
+  draft: RateDraft | undefined;
+  result: RateResult | undefined;
+  serverIssues: Record<string, string>;
+  onDraft: (draft: RateDraft | undefined) => void;
+}
+
+/** "Alert on fast change: more than [x] [unit] within [y] hours", with the default beside it. */
+function RateRuleFields({ view, draft, result, serverIssues, onDraft }: RateRuleFieldsProps) {
+  const id = useId();
+  const { parameter, rate, defaultRate } = view;
+  const info = parameterCatalogue[parameter];
+  const text =
+    draft?.kind === 'rule'
+      ? draft.text
+      : rateTextOf(draft?.kind === 'default' ? defaultRate : (rate ?? defaultRate));
+  const errors = result && 'errors' in result ? result.errors : {};
+  const status =
+    draft?.kind === 'default'
+      ? 'Back to the default when saved'
+      : draft
+        ? 'Changed, not saved yet'
+        : rate
+          ? "This tank's own rule"
+          : defaultRate
+            ? 'Default (common practice)'
+            : 'No rule: not checked';
+  const defaultText = defaultRate
+    ? `more than ${amountOf(parameter, defaultRate.maxChange)} within ${hours(defaultRate.perHours)}`
+    : 'none for this parameter';
+  const labels: Record<RateField, string> = { maxChange: 'more than', perHours: 'within' };
+  const after: Record<RateField, string> = { maxChange: info.symbol, perHours: 'hours' };
+  const issueFor = (field: RateField) => errors[field] ?? serverIssues[`rates.${parameter}.${field}`];
+
+  return (
+    <fieldset className="mt-3 border-t border-ink-100 pt-2">
+      <legend className="flex w-full flex-wrap items-baseline justify-between gap-2 text-sm">
+        <span className="font-bold text-ink-900">
+          Alert on fast change<span className="sr-only"> in {info.label}</span>
+        </span>
+        <span className="text-ink-700">{status}</span>
+      </legend>
+      <div className="mt-1 flex flex-wrap items-center gap-x-2 gap-y-1 text-sm text-ink-800">
+        {rateFields.map((field) => {
+          const inputId = `${id}-${field}`;
+          const error = issueFor(field);
+          return (
+            <span key={field} className="inline-flex items-center gap-2">
+              <label htmlFor={inputId}>{labels[field]}</label>
+              <input
+                id={inputId}
+                type="text"
+                inputMode="decimal"
+                autoComplete="off"
+                value={text[field]}
+                placeholder="none"
+                onChange={(event) =>
+                  onDraft({ kind: 'rule', text: { ...text, [field]: event.target.value } })
+                }
+                aria-invalid={error ? true : undefined}
+                aria-describedby={error ? `${inputId}-error` : undefined}
+                className={`min-h-11 w-20 rounded-lg border-2 bg-white px-2 text-base ${
+                  error ? 'border-alert-700' : 'border-ink-300 focus:border-ink-700'
+                }`}
+              />
+              {after[field] && <span>{after[field]}</span>}
+            </span>
+          );
+        })}
+      </div>
+      {rateFields.map((field) => {
+        const error = issueFor(field);
+        return (
+          error && (
+            <p key={field} id={`${id}-${field}-error`} className="mt-1 text-xs font-bold text-alert-700">
+              ! {error}
+            </p>
+          )
+        );
+      })}
+      <div className="mt-1 flex flex-wrap items-center gap-2 text-sm text-ink-700">
+        <p>Default (common practice): {defaultText}.</p>
+        {(rate !== null || draft?.kind === 'rule') && draft?.kind !== 'default' && (
+          <Button
+            tone="secondary"
+            className="text-sm"
+            onClick={() => onDraft(rate ? { kind: 'default' } : undefined)}
+          >
+            Use default<span className="sr-only"> fast-change rule for {info.label}</span>
+          </Button>
+        )}
+        {draft && rate !== null && (
+          <Button tone="secondary" className="text-sm" onClick={() => onDraft(undefined)}>
+            Undo<span className="sr-only"> fast-change rule for {info.label}</span>
+          </Button>
+        )}
+      </div>
+    </fieldset>
   );
 }
