@@ -1,16 +1,9 @@
+import { escapeHtml } from '../lib/html';
 /**
  * Pages of the Brinewatch ID stand-in. Self-contained HTML (no external resources); the
  * stand-in sends its own CSP, so the only inline content allowed is style.
  */
 
-export function escapeHtml(value: string): string {
-  return value
-    .replaceAll('&', '&amp;')
-    .replaceAll('<', '&lt;')
-    .replaceAll('>', '&gt;')
-    .replaceAll('"', '&quot;')
-    .replaceAll("'", '&#39;');
-}
 
 /** Sent with every page: no scripts, no framing (the sign-in form must not be clickjacked). */
 export const pageSecurityHeaders: Readonly<Record<string, string>> = {

@@ -1,3 +1,4 @@
+import { escapeHtml } from '../lib/html';
 import { randomUUID } from 'node:crypto';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -248,15 +249,6 @@ export async function startMailServer(options: MailServerOptions): Promise<Runni
 
 // ---------------------------------------------------------------------------------------------
 // Mailbox page. Every value shown comes from a sender, so everything is escaped.
-
-function escapeHtml(value: string): string {
-  return value
-    .replaceAll('&', '&amp;')
-    .replaceAll('<', '&lt;')
-    .replaceAll('>', '&gt;')
-    .replaceAll('"', '&quot;')
-    .replaceAll("'", '&#39;');
-}
 
 const urlPattern = /https?:\/\/[^\s<>"']+/g;
 

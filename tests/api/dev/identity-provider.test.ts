@@ -6,6 +6,7 @@ import {
   type IdpAccount,
   type RunningIdentityProvider,
 } from '../../../api/dev/identity-provider';
+import { HttpBrowser, location, readForm } from '../../helpers/http-browser';
 
 const appOrigin = 'http://localhost:4999';
 const relyingParty = {
@@ -20,88 +21,6 @@ const ines: IdpAccount = {
   name: 'Ines Carvalho',
   password: 'coral-lantern-42',
 };
-
-/** The cookie handling of a browser, as far as these flows need it (one host, no paths). */
-class CookieJar {
-  readonly #cookies = new Map<string, string>();
-  readonly seenNames = new Set<string>();
-
-  store(response: Response): void {
-    for (const line of response.headers.getSetCookie()) {
-      const [pair = ''] = line.split(';');
-      const name = pair.slice(0, pair.indexOf('=')).trim();
-      const value = pair.slice(pair.indexOf('=') + 1).trim();
-      this.seenNames.add(name);
-      if (value === '' || /expires=Thu, 01 Jan 1970/i.test(line)) this.#cookies.delete(name);
-      else this.#cookies.set(name, value);
-    }
-  }
-
-  header(): string {
-    return [...this.#cookies].map(([name, value]) => `${name}=${value}`).join('; ');
-  }
-}
-
-async function visit(jar: CookieJar, url: string | URL, init: RequestInit = {}): Promise<Response> {
-  const response = await fetch(url, {
-    ...init,
-    redirect: 'manual',
-    headers: { ...(init.headers as Record<string, string>), cookie: jar.header() },
-  });
-  jar.store(response);
-  return response;
-}
-
-function location(response: Response, base: string): string {
-  const target = response.headers.get('location');
-  if (!target) throw new Error(`expected a redirect, got ${response.status}`);
-  return new URL(target, base).href;
-}
-
-/** Follows redirects the way a browser would until one leaves the provider. */
-async function followWithinProvider(
-  jar: CookieJar,
-  issuer: string,
-  start: string,
-): Promise<Response | string> {
-  let url = start;
-  for (let hop = 0; hop < 10; hop += 1) {
-    if (!url.startsWith(issuer)) return url;
-    const response = await visit(jar, url);
-    if (response.status < 300 || response.status >= 400) return response;
-    url = location(response, url);
-  }
-  throw new Error('too many redirects');
-}
-
-const unescapeHtml = (value: string) =>
-  value
-    .replaceAll('&quot;', '"')
-    .replaceAll('&#39;', "'")
-    .replaceAll('&lt;', '<')
-    .replaceAll('&gt;', '>')
-    .replaceAll('&amp;', '&');
-
-/** The first form on a page: where it posts and the fields it would send. */
-function readForm(html: string, base: string): { action: string; fields: URLSearchParams } {
-  const action = /<form[^>]*\saction="([^"]*)"/.exec(html)?.[1];
-  if (action === undefined) throw new Error(`no form on the page:\n${html}`);
-  const fields = new URLSearchParams();
-  for (const [input] of html.matchAll(/<input\b[^>]*>/g)) {
-    const name = /\sname="([^"]*)"/.exec(input)?.[1];
-    if (name !== undefined && /type="hidden"/.test(input)) {
-      fields.append(name, unescapeHtml(/\svalue="([^"]*)"/.exec(input)?.[1] ?? ''));
-    }
-  }
-  return { action: new URL(unescapeHtml(action), base).href, fields };
-}
-
-const formPost = (jar: CookieJar, url: string, fields: Record<string, string> | URLSearchParams) =>
-  visit(jar, url, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded' },
-    body: new URLSearchParams(fields).toString(),
-  });
 
 describe('Brinewatch ID stand-in', () => {
   let idp: RunningIdentityProvider;
@@ -122,7 +41,7 @@ describe('Brinewatch ID stand-in', () => {
     await idp.close();
   });
 
-  async function startSignIn(jar: CookieJar, extra: Record<string, string> = {}) {
+  async function startSignIn(jar: HttpBrowser, extra: Record<string, string> = {}) {
     const codeVerifier = oidc.randomPKCECodeVerifier();
     const state = oidc.randomState();
     const authorizationUrl = oidc.buildAuthorizationUrl(client, {
@@ -133,20 +52,20 @@ describe('Brinewatch ID stand-in', () => {
       state,
       ...extra,
     });
-    const toInteraction = await visit(jar, authorizationUrl);
+    const toInteraction = await jar.visit(authorizationUrl);
     expect(toInteraction.status).toBe(303);
     const interactionUrl = location(toInteraction, idp.issuer);
-    const page = await visit(jar, interactionUrl);
+    const page = await jar.visit(interactionUrl);
     return { codeVerifier, state, interactionUrl, page, html: await page.text() };
   }
 
   /** Signs in and returns the tokens the app would hold afterwards. */
-  async function signIn(jar: CookieJar, account: Pick<IdpAccount, 'email' | 'password'>) {
+  async function signIn(jar: HttpBrowser, account: Pick<IdpAccount, 'email' | 'password'>) {
     const { codeVerifier, state, interactionUrl, html } = await startSignIn(jar);
     const { action } = readForm(html, interactionUrl);
-    const afterLogin = await formPost(jar, action, { email: account.email, password: account.password });
+    const afterLogin = await jar.postForm(action, { email: account.email, password: account.password });
     expect(afterLogin.status).toBe(303);
-    const callback = await followWithinProvider(jar, idp.issuer, location(afterLogin, action));
+    const callback = await jar.followWithin(idp.issuer, location(afterLogin, action));
     if (typeof callback !== 'string')
       throw new Error(`stopped at ${callback.status}: ${await callback.text()}`);
     return oidc.authorizationCodeGrant(client, new URL(callback), {
@@ -173,7 +92,7 @@ describe('Brinewatch ID stand-in', () => {
   });
 
   it('serves an accessible Brinewatch ID sign-in page', async () => {
-    const { page, html } = await startSignIn(new CookieJar());
+    const { page, html } = await startSignIn(new HttpBrowser());
 
     expect(page.status).toBe(200);
     expect(page.headers.get('content-security-policy')).toContain("frame-ancestors 'none'");
@@ -189,19 +108,19 @@ describe('Brinewatch ID stand-in', () => {
   });
 
   it('signs a person in with the authorization code flow and PKCE, and names them in the ID token', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     const { codeVerifier, state, interactionUrl, html } = await startSignIn(jar);
     const { action } = readForm(html, interactionUrl);
 
-    const wrong = await formPost(jar, action, { email: ines.email, password: 'not-the-password' });
+    const wrong = await jar.postForm(action, { email: ines.email, password: 'not-the-password' });
     const wrongHtml = await wrong.text();
     expect(wrong.status).toBe(401);
     expect(wrongHtml).toContain("That email and password don't match.");
     expect(wrongHtml).toContain(`value="${ines.email}"`);
 
-    const right = await formPost(jar, action, { email: ines.email, password: ines.password });
+    const right = await jar.postForm(action, { email: ines.email, password: ines.password });
     expect(right.status).toBe(303);
-    const callback = await followWithinProvider(jar, idp.issuer, location(right, action));
+    const callback = await jar.followWithin(idp.issuer, location(right, action));
     if (typeof callback !== 'string') throw new Error(`stopped at ${callback.status}`);
     const callbackUrl = new URL(callback);
     expect(callbackUrl.origin + callbackUrl.pathname).toBe(relyingParty.redirectUris[0]);
@@ -224,20 +143,20 @@ describe('Brinewatch ID stand-in', () => {
   });
 
   it('gives its cookies names of its own, apart from the app', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     await signIn(jar, ines);
 
-    expect([...jar.seenNames].filter((name) => !name.endsWith('.sig')).sort()).toEqual(
+    expect([...jar.seenCookieNames].filter((name) => !name.endsWith('.sig')).sort()).toEqual(
       Object.values(identityProviderCookieNames).sort(),
     );
   });
 
   it('answers an unknown email exactly like a wrong password', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     const { interactionUrl, html } = await startSignIn(jar);
     const { action } = readForm(html, interactionUrl);
 
-    const response = await formPost(jar, action, {
+    const response = await jar.postForm(action, {
       email: 'nobody@reefside-test.test',
       password: ines.password,
     });
@@ -247,11 +166,11 @@ describe('Brinewatch ID stand-in', () => {
   });
 
   it('keeps the typed email escaped when it shows it again', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     const { interactionUrl, html } = await startSignIn(jar);
     const { action } = readForm(html, interactionUrl);
 
-    const response = await formPost(jar, action, { email: '"><script>alert(1)</script>', password: 'x' });
+    const response = await jar.postForm(action, { email: '"><script>alert(1)</script>', password: 'x' });
     const page = await response.text();
 
     expect(page).not.toContain('<script>');
@@ -265,7 +184,7 @@ describe('Brinewatch ID stand-in', () => {
       state: 'no-pkce',
     });
 
-    const response = await visit(new CookieJar(), url);
+    const response = await new HttpBrowser().visit(url);
     const redirect = new URL(location(response, idp.issuer));
 
     expect(redirect.searchParams.get('error')).toBe('invalid_request');
@@ -282,13 +201,13 @@ describe('Brinewatch ID stand-in', () => {
     };
     idp.addAccount(ruth);
 
-    const tokens = await signIn(new CookieJar(), ruth);
+    const tokens = await signIn(new HttpBrowser(), ruth);
 
     expect(tokens.claims()).toMatchObject({ sub: ruth.sub, email: ruth.email, email_verified: false });
   });
 
   it('sends the browser back to the registered address after signing out', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     const tokens = await signIn(jar, ines);
     const endSessionUrl = oidc.buildEndSessionUrl(client, {
       id_token_hint: tokens.id_token ?? '',
@@ -296,13 +215,13 @@ describe('Brinewatch ID stand-in', () => {
       state: 'bye',
     });
 
-    const confirmPage = await visit(jar, endSessionUrl);
+    const confirmPage = await jar.visit(endSessionUrl);
     const html = await confirmPage.text();
     expect(confirmPage.status).toBe(200);
     expect(html).toContain('Sign out of Brinewatch ID');
     const { action, fields } = readForm(html, endSessionUrl.href);
     expect(fields.get('logout')).toBe('yes');
-    const signedOut = await formPost(jar, action, fields);
+    const signedOut = await jar.postForm(action, fields);
 
     expect(signedOut.status).toBe(303);
     expect(signedOut.headers.get('location')).toBe(`${relyingParty.postLogoutRedirectUris[0]}?state=bye`);
@@ -311,21 +230,21 @@ describe('Brinewatch ID stand-in', () => {
   });
 
   it('refuses a post-logout address that was not registered', async () => {
-    const jar = new CookieJar();
+    const jar = new HttpBrowser();
     const tokens = await signIn(jar, ines);
     const url = oidc.buildEndSessionUrl(client, {
       id_token_hint: tokens.id_token ?? '',
       post_logout_redirect_uri: 'http://localhost:4999/elsewhere',
     });
 
-    const response = await visit(jar, url);
+    const response = await jar.visit(url);
 
     expect(response.status).toBe(400);
     expect(await response.text()).toContain('post_logout_redirect_uri not registered');
   });
 
   it('shows an expiry page for a sign-in link it no longer knows', async () => {
-    const response = await visit(new CookieJar(), `${idp.issuer}/interaction/long-gone`);
+    const response = await new HttpBrowser().visit(`${idp.issuer}/interaction/long-gone`);
 
     expect(response.status).toBe(400);
     expect(await response.text()).toContain('This sign-in page has expired');
