@@ -54,7 +54,7 @@ export default async function setup(project: TestProject) {
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
   const seedStorage = objectStorageFor(env);
-  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage });
+  await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage, raiseAlerts: false });
   seedStorage.close();
   await seeding.pool.end();
   const server = await startServer({ env, databaseUrl: database.url, logger: createLogger('silent') });

@@ -1,16 +1,19 @@
 import { createHash } from 'node:crypto';
-import { sql } from 'drizzle-orm';
+import { and, asc, eq, gte, sql } from 'drizzle-orm';
 import { addDays } from '@shared/schemas/equipment';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { demoPeople } from '../../dev/demo-people';
 import type { ObjectStorage } from '../../lib/object-storage';
 import type { Db } from '../client';
 import { seedDemoReadings } from './readings';
+import { evaluateNewReadings } from '../../services/alert-engine';
 import {
+  alerts,
   companies,
   equipment,
   livestock,
   livestockStatusEvents,
+  readings,
   tankMembers,
   tanks,
   users,
@@ -40,6 +43,11 @@ export interface SeedOptions {
   storage?: ObjectStorage;
   /** The day the story is told from; dates in the scenario count back from it. */
   now?: Date;
+  /**
+   * Run the alert rules over the last two days of the story, so the demo opens with the
+   * alerts its episodes would have raised. Off where a test wants a quiet alerts board.
+   */
+  raiseAlerts?: boolean;
 }
 
 /** Updates every column but the key on conflict, so a second run leaves each row as the first did. */
@@ -218,4 +226,40 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   }
   // A year of readings; it needs the tanks, owners and staff above, and skips itself once done.
   await seedDemoReadings(db, now);
+  if (options.raiseAlerts !== false) await raiseDemoAlerts(db, driftglass, now);
+}
+
+/**
+ * The demo's alerts come from its own readings, through the same engine as live ones. Their
+ * notifications are planned by the server's sweep once it runs. Only on a company with none yet.
+ */
+async function raiseDemoAlerts(db: Db, companyId: string, now: Date) {
+  const [existing] = await db
+    .select({ id: alerts.id })
+    .from(alerts)
+    .where(eq(alerts.companyId, companyId))
+    .limit(1);
+  if (existing) return;
+  const since = new Date(now.getTime() - 2 * 86_400_000);
+  for (const tank of demoTanks) {
+    const recent = await db
+      .select({
+        parameter: readings.parameter,
+        value: readings.value,
+        measuredAt: readings.measuredAt,
+        source: readings.source,
+      })
+      .from(readings)
+      .where(and(eq(readings.tankId, demoId(tank.key)), gte(readings.measuredAt, since)))
+      .orderBy(asc(readings.measuredAt));
+    await evaluateNewReadings(db, demoId(tank.key), recent);
+  }
+  // Only the latest word on each alert still open is news; the rest of the story is history.
+  await db.execute(sql`
+    update alert_events set fanned_out_at = ${now}
+    where fanned_out_at is null and id not in (
+      select distinct on (e.alert_id) e.id
+      from alert_events e join alerts a on a.id = e.alert_id
+      where a.status <> 'resolved' and a.company_id = ${companyId}
+      order by e.alert_id, e.at desc)`);
 }
