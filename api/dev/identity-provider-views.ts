@@ -4,7 +4,6 @@ import { escapeHtml } from '../lib/html';
  * stand-in sends its own CSP, so the only inline content allowed is style.
  */
 
-
 /** Sent with every page: no scripts, no framing (the sign-in form must not be clickjacked). */
 export const pageSecurityHeaders: Readonly<Record<string, string>> = {
   'Content-Security-Policy':
