@@ -1,9 +1,9 @@
 import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
 import { resolveInput, type AlertView } from '@shared/schemas/alerts';
 import { Button } from '../../../components/button';
+import { FieldError } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
-import { FieldError } from '../../staff/components/field-error';
-import { groupIssues, problemMessage } from '../../staff/utils/form-issues';
+import { groupIssues, problemMessage } from '../../../lib/form-issues';
 import { useAcknowledgeAlert } from '../api/acknowledge-alert';
 import { useResolveAlert } from '../api/resolve-alert';
 import { NoteField } from './note-field';

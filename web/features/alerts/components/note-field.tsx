@@ -1,5 +1,5 @@
 import { useId, type Ref } from 'react';
-import { FieldError } from '../../staff/components/field-error';
+import { FieldError } from '../../../components/form-fields';
 
 interface NoteFieldProps {
   label: string;

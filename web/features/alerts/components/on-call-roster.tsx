@@ -1,11 +1,11 @@
 import { useId, useState, type FormEvent } from 'react';
 import { onCallShiftInput, type OnCallShiftView } from '@shared/schemas/on-call';
 import { Button } from '../../../components/button';
+import { FieldError } from '../../../components/form-fields';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiError } from '../../../lib/api-client';
+import { groupIssues, problemMessage } from '../../../lib/form-issues';
 import { useStaff } from '../../staff/api/list-staff';
-import { FieldError } from '../../staff/components/field-error';
-import { groupIssues, problemMessage } from '../../staff/utils/form-issues';
 import { useAddOnCallShift } from '../api/add-on-call-shift';
 import { useOnCallShifts } from '../api/list-on-call-shifts';
 import { useRemoveOnCallShift } from '../api/remove-on-call-shift';

@@ -1,4 +1,4 @@
-import { parseDecimal } from './parse-decimal';
+import { parseDecimal } from '../../../lib/decimal';
 
 export interface FieldSpec {
   raw: string;

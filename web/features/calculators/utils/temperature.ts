@@ -1,5 +1,5 @@
 import { celsiusFromFahrenheit, fahrenheitFromCelsius } from '@shared/chemistry/index';
-import { parseDecimal } from './parse-decimal';
+import { parseDecimal } from '../../../lib/decimal';
 
 export type TemperatureUnit = '°C' | '°F';
 

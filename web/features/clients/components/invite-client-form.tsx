@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
+import { TextField } from '../../../components/form-fields';
 import { InvitationOutcome } from '../../staff/components/invitation-outcome';
-import { TextField } from '../../staff/components/text-field';
 import { useInviteSubmit } from '../../staff/components/use-invite-submit';
 import { TankField } from './tank-field';
 
@@ -42,7 +42,7 @@ export function InviteClientForm({ className = '' }: { className?: string }) {
           autoComplete="off"
           spellCheck={false}
           value={email}
-          onChange={(event) => setEmail(event.target.value)}
+          onChange={setEmail}
           error={issues.fields.email}
         />
         <TextField
@@ -50,7 +50,7 @@ export function InviteClientForm({ className = '' }: { className?: string }) {
           hint="Used to greet them in the e-mail."
           autoComplete="off"
           value={name}
-          onChange={(event) => setName(event.target.value)}
+          onChange={setName}
           error={issues.fields.name}
         />
         <TankField value={tankId} onChange={setTankId} error={issues.fields.tankId} />

@@ -1,5 +1,5 @@
 import { useId } from 'react';
-import { FieldError } from '../../staff/components/field-error';
+import { FieldError } from '../../../components/form-fields';
 import { useTanks } from '../api/list-tanks';
 
 /** The tank a client is invited to follow; its own loading, empty and error states. */

@@ -7,8 +7,9 @@ import {
   type EquipmentKind,
 } from '@shared/schemas/equipment';
 import { Button } from '../../../components/button';
+import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
-import { fieldErrors, SelectField, TextAreaField, TextField } from '../../tanks/components/fields';
+import { fieldErrors } from '../../../lib/form-issues';
 import { useCreateEquipment } from '../api/create-equipment';
 import { useDeleteEquipment } from '../api/delete-equipment';
 import { useUpdateEquipment } from '../api/update-equipment';

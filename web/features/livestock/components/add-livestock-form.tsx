@@ -4,14 +4,9 @@ import type { LivestockStatus } from '@shared/schemas/livestock-status';
 import { livestockStatusLabels } from '@shared/schemas/livestock';
 import type { WaterType } from '@shared/schemas/species';
 import { Button } from '../../../components/button';
+import { CheckboxField, SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
-import {
-  CheckboxField,
-  fieldErrors,
-  SelectField,
-  TextAreaField,
-  TextField,
-} from '../../tanks/components/fields';
+import { fieldErrors } from '../../../lib/form-issues';
 import { capitalise } from '../../tanks/utils/format';
 import { useAddLivestock } from '../api/add-livestock';
 import { useLivestockCheck } from '../api/check-livestock';

@@ -8,16 +8,16 @@ import {
   type WaterType,
 } from '@shared/schemas/species';
 import { Button } from '../../../components/button';
-import { ApiError } from '../../../lib/api-client';
 import {
   CheckboxField,
   FieldError,
-  fieldErrors,
   SelectField,
   TextAreaField,
   TextField,
-} from '../../tanks/components/fields';
-import { parseDecimal } from '../../tanks/components/volume-fields';
+} from '../../../components/form-fields';
+import { ApiError } from '../../../lib/api-client';
+import { parseUnsignedDecimal } from '../../../lib/decimal';
+import { fieldErrors } from '../../../lib/form-issues';
 import { useCreateSpecies } from '../api/create-species';
 
 const groupLabels: Record<LivestockGroup, string> = {
@@ -86,8 +86,8 @@ export function NewSpeciesForm({
 
   const submit = (event: FormEvent) => {
     event.preventDefault();
-    const min = parseDecimal(tempMin);
-    const max = parseDecimal(tempMax);
+    const min = parseUnsignedDecimal(tempMin);
+    const max = parseUnsignedDecimal(tempMax);
     const input: SpeciesInput = {
       commonName,
       scientificName,
@@ -96,10 +96,14 @@ export function NewSpeciesForm({
         waterTypes: water,
         group,
         ranges: min !== null && max !== null ? { temperature: { min, max } } : {},
-        ...(parseDecimal(adultSize) !== null ? { adultSizeCm: parseDecimal(adultSize)! } : {}),
+        ...(parseUnsignedDecimal(adultSize) !== null
+          ? { adultSizeCm: parseUnsignedDecimal(adultSize)! }
+          : {}),
         behaviour: {
           stings,
-          ...(stings && parseDecimal(reach) !== null ? { stingReachCm: parseDecimal(reach)! } : {}),
+          ...(stings && parseUnsignedDecimal(reach) !== null
+            ? { stingReachCm: parseUnsignedDecimal(reach)! }
+            : {}),
           wanders,
           nipsCorals: asTendency(nipsCorals),
           eatsSmallFish,
@@ -160,7 +164,9 @@ export function NewSpeciesForm({
             />
           ))}
         </div>
-        {errors['profile.waterTypes'] && <FieldError>{errors['profile.waterTypes']}</FieldError>}
+        {errors['profile.waterTypes'] && (
+          <FieldError className="mt-1">{errors['profile.waterTypes']}</FieldError>
+        )}
       </fieldset>
       <div className="grid gap-4 sm:grid-cols-3">
         <TextField

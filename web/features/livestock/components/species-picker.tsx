@@ -1,7 +1,7 @@
 import { useDeferredValue, useId, useState } from 'react';
 import type { SpeciesEntry } from '@shared/schemas/livestock';
 import type { WaterType } from '@shared/schemas/species';
-import { CheckboxField, TextField } from '../../tanks/components/fields';
+import { CheckboxField, TextField } from '../../../components/form-fields';
 import { capitalise } from '../../tanks/utils/format';
 import { useSpeciesSearch } from '../api/search-species';
 

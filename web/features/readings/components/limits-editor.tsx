@@ -13,7 +13,7 @@ import {
 import { Button } from '../../../components/button';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiError } from '../../../lib/api-client';
-import { parseDecimal } from '../../calculators/utils/parse-decimal';
+import { parseDecimal } from '../../../lib/decimal';
 import { useLimits } from '../api/get-limits';
 import { useUpdateLimits } from '../api/update-limits';
 

@@ -5,7 +5,7 @@ import { checkStoredValue, formatValue } from '@shared/parameters/units';
 import { manualReadingInput, type ManualReadingInput, type ManualSource } from '@shared/schemas/readings';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
-import { parseDecimal } from '../../calculators/utils/parse-decimal';
+import { parseDecimal } from '../../../lib/decimal';
 import { useCreateReadings } from '../api/create-readings';
 import { preferredUnit, rememberUnit, unitOptions } from '../utils/display-units';
 import { instantFromLocalInput, localInputValue } from '../utils/format-time';

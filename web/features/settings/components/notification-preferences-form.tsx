@@ -2,10 +2,10 @@ import { useId, useMemo, useState, type FormEvent } from 'react';
 import { alertSeverities, type AlertSeverity } from '@shared/alerts/kinds';
 import { notificationPreferences, type NotificationPreferences } from '@shared/schemas/notifications';
 import { Button } from '../../../components/button';
+import { FieldError } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
+import { groupIssues, problemMessage } from '../../../lib/form-issues';
 import { SeverityBadge } from '../../alerts/components/severity-badge';
-import { FieldError } from '../../staff/components/field-error';
-import { groupIssues, problemMessage } from '../../staff/utils/form-issues';
 import { useSaveNotificationPreferences } from '../api/save-notification-preferences';
 
 type Channel = 'push' | 'email' | 'inApp';

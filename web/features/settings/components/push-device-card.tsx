@@ -1,7 +1,7 @@
 import { Button } from '../../../components/button';
+import { FieldError } from '../../../components/form-fields';
 import { LoadingState } from '../../../components/states';
-import { FieldError } from '../../staff/components/field-error';
-import { problemMessage } from '../../staff/utils/form-issues';
+import { problemMessage } from '../../../lib/form-issues';
 import { PushSetupError } from '../utils/web-push';
 import { usePushDevice } from './use-push-device';
 

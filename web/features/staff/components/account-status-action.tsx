@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
+import { FieldError } from '../../../components/form-fields';
+import { problemMessage } from '../../../lib/form-issues';
 import { useDeactivateUser } from '../api/deactivate-user';
 import { useReactivateUser } from '../api/reactivate-user';
-import { problemMessage } from '../utils/form-issues';
-import { ConfirmDialog } from './confirm-dialog';
-import { FieldError } from './field-error';
 
 interface Person {
   id: string;

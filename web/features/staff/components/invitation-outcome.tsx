@@ -1,6 +1,6 @@
+import { FieldError } from '../../../components/form-fields';
+import type { FormIssues } from '../../../lib/form-issues';
 import type { CreatedInvitation } from '../api/create-invitation';
-import type { FormIssues } from '../utils/form-issues';
-import { FieldError } from './field-error';
 
 const expiry = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
 

@@ -1,12 +1,12 @@
 import { useState } from 'react';
 import type { Invitation } from '@shared/schemas/invitations';
+import { InvitationStatusBadge, RoleBadge } from '../../../components/badges';
 import { Button } from '../../../components/button';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { problemMessage } from '../../../lib/form-issues';
 import { useInvitations } from '../api/list-invitations';
 import { useRevokeInvitation } from '../api/revoke-invitation';
-import { problemMessage } from '../utils/form-issues';
-import { InvitationStatusBadge, RoleBadge } from './badges';
-import { ConfirmDialog } from './confirm-dialog';
 
 const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
 

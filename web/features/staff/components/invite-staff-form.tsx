@@ -1,9 +1,9 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
+import { TextField } from '../../../components/form-fields';
 import type { StaffRole } from '../api/change-staff-role';
 import { ChoiceField } from './choice-field';
 import { InvitationOutcome } from './invitation-outcome';
-import { TextField } from './text-field';
 import { useInviteSubmit } from './use-invite-submit';
 
 const roleChoices = [
@@ -51,7 +51,7 @@ export function InviteStaffForm({ className = '' }: { className?: string }) {
           autoComplete="off"
           spellCheck={false}
           value={email}
-          onChange={(event) => setEmail(event.target.value)}
+          onChange={setEmail}
           error={issues.fields.email}
         />
         <TextField
@@ -59,7 +59,7 @@ export function InviteStaffForm({ className = '' }: { className?: string }) {
           hint="Used to greet them in the e-mail."
           autoComplete="off"
           value={name}
-          onChange={(event) => setName(event.target.value)}
+          onChange={setName}
           error={issues.fields.name}
         />
         <ChoiceField legend="Role" name="staff-role" value={role} onChange={setRole} choices={roleChoices} />

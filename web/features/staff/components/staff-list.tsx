@@ -1,13 +1,13 @@
 import { useState } from 'react';
 import type { StaffMember } from '@shared/schemas/users';
+import { AccountStatusBadge, RoleBadge } from '../../../components/badges';
 import { Button } from '../../../components/button';
+import { FieldError } from '../../../components/form-fields';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { problemMessage } from '../../../lib/form-issues';
 import { useChangeStaffRole } from '../api/change-staff-role';
 import { useStaff } from '../api/list-staff';
-import { problemMessage } from '../utils/form-issues';
 import { AccountStatusAction } from './account-status-action';
-import { AccountStatusBadge, RoleBadge } from './badges';
-import { FieldError } from './field-error';
 
 const otherRole = { technician: 'admin', admin: 'technician' } as const;
 

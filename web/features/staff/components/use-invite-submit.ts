@@ -1,8 +1,8 @@
 import { useEffect, useRef, useState } from 'react';
 import { createInvitationInput } from '@shared/schemas/invitations';
 import { ApiError } from '../../../lib/api-client';
+import { groupIssues, problemMessage, type FormIssues } from '../../../lib/form-issues';
 import { useCreateInvitation, type CreatedInvitation } from '../api/create-invitation';
-import { groupIssues, problemMessage, type FormIssues } from '../utils/form-issues';
 
 const noIssues: FormIssues = { fields: {}, other: [] };
 

@@ -1,8 +1,8 @@
 import { useId, useRef, useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button';
+import { CheckboxField, FieldError, TextField } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
 import { useUploadPhoto } from '../api/upload-photo';
-import { CheckboxField, FieldError, TextField } from './fields';
 
 const maxBytes = 10 * 1024 * 1024;
 
@@ -74,7 +74,9 @@ export function PhotoUploader({
           }}
           className="mt-2 block min-h-11 w-full text-sm text-ink-950 file:mr-3 file:min-h-11 file:rounded-lg file:border-0 file:bg-ink-100 file:px-4 file:font-bold file:text-ink-900"
         />
-        {tooLarge && <FieldError>That photo is larger than 10 MB. Choose a smaller one.</FieldError>}
+        {tooLarge && (
+          <FieldError className="mt-1">That photo is larger than 10 MB. Choose a smaller one.</FieldError>
+        )}
       </div>
       <TextField label="Caption (optional)" value={caption} onChange={setCaption} maxLength={300} />
       {offerCover && (

@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
 import type { AssignableStaff, TankListQuery } from '@shared/schemas/tanks';
-import { SelectField, TextField } from './fields';
+import { SelectField, TextField } from '../../../components/form-fields';
 
 /**
  * Search and technician filter for the console's tank list. The search waits for a pause in

@@ -8,11 +8,19 @@ import {
 import type { WaterType } from '@shared/schemas/species';
 import type { CreateTankInput, TankDetail, VolumeUnit } from '@shared/schemas/tanks';
 import { Button } from '../../../components/button';
+import {
+  CheckboxField,
+  FieldError,
+  SelectField,
+  TextAreaField,
+  TextField,
+} from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
+import { parseUnsignedDecimal } from '../../../lib/decimal';
+import { fieldErrors } from '../../../lib/form-issues';
 import { useClients } from '../../clients/api/list-clients';
 import { useTechnicians } from '../api/get-technicians';
-import { CheckboxField, FieldError, fieldErrors, SelectField, TextAreaField, TextField } from './fields';
-import { parseDecimal, VolumeFields } from './volume-fields';
+import { VolumeFields } from './volume-fields';
 
 const waterTypeLabels: Record<WaterType, string> = {
   marine: 'Marine',
@@ -71,12 +79,12 @@ const timeZones = (() => {
 /** Numbers are read here, so a typing slip is named beside its field before anything is sent. */
 function toInput(state: FormState): { input: CreateTankInput | null; errors: Record<string, string> } {
   const errors: Record<string, string> = {};
-  const display = parseDecimal(state.display);
-  const sump = state.sump.trim() === '' ? 0 : parseDecimal(state.sump);
+  const display = parseUnsignedDecimal(state.display);
+  const sump = state.sump.trim() === '' ? 0 : parseUnsignedDecimal(state.sump);
   if (display === null) errors['displayVolume.value'] = 'enter the volume as a number, e.g. 300';
   if (sump === null) errors['sumpVolume.value'] = 'enter the volume as a number, or 0 for no sump';
   const dims = [state.lengthCm, state.widthCm, state.heightCm].map((text) =>
-    text.trim() === '' ? null : parseDecimal(text),
+    text.trim() === '' ? null : parseUnsignedDecimal(text),
   );
   const anyDim = [state.lengthCm, state.widthCm, state.heightCm].some((text) => text.trim() !== '');
   if (anyDim && dims.some((value) => value === null))
@@ -230,7 +238,7 @@ export function TankForm({
           errors['dimensions.lengthCm'] ??
           errors['dimensions.widthCm'] ??
           errors['dimensions.heightCm']) && (
-          <FieldError>
+          <FieldError className="mt-1">
             {errors.dimensions ??
               errors['dimensions.lengthCm'] ??
               errors['dimensions.widthCm'] ??
@@ -300,7 +308,11 @@ export function TankForm({
             ))}
           </div>
         )}
-        {errors.ownerIds && <FieldError id="owners-error">{errors.ownerIds}</FieldError>}
+        {errors.ownerIds && (
+          <FieldError id="owners-error" className="mt-1">
+            {errors.ownerIds}
+          </FieldError>
+        )}
       </fieldset>
 
       <SelectField

@@ -1,19 +1,12 @@
 import { useId } from 'react';
 import { litresFrom, volumeIn, volumeUnitLabels, volumeUnits, type VolumeUnit } from '@shared/schemas/tanks';
+import { FieldError } from '../../../components/form-fields';
+import { parseUnsignedDecimal } from '../../../lib/decimal';
 import { formatNumber } from '../utils/format';
-import { FieldError } from './fields';
-
-/** "12,5" and "12.5" both mean twelve and a half; anything else is not a number. */
-export function parseDecimal(text: string): number | null {
-  const cleaned = text.trim().replace(',', '.');
-  if (cleaned === '' || !/^\d*\.?\d*$/.test(cleaned)) return null;
-  const value = Number(cleaned);
-  return Number.isFinite(value) ? value : null;
-}
 
 /** Rewrites an entered volume in another unit, to one decimal, so the picker converts as it changes. */
 export function convertEntry(text: string, from: VolumeUnit, to: VolumeUnit): string {
-  const value = parseDecimal(text);
+  const value = parseUnsignedDecimal(text);
   if (value === null) return text;
   return String(Math.round(volumeIn(litresFrom(value, from), to) * 10) / 10);
 }
@@ -32,7 +25,7 @@ function VolumeInput({
   error?: string;
 }) {
   const id = useId();
-  const parsed = parseDecimal(value);
+  const parsed = parseUnsignedDecimal(value);
   const litres = parsed === null ? null : litresFrom(parsed, unit);
   return (
     <div className="min-w-0">
@@ -63,7 +56,11 @@ function VolumeInput({
       <p id={`${id}-litres`} className="mt-1 text-sm text-ink-700" aria-live="polite">
         {unit === 'litres' || litres === null ? '\u00a0' : `= ${formatNumber(litres)} litres`}
       </p>
-      {error && <FieldError id={`${id}-error`}>{error}</FieldError>}
+      {error && (
+        <FieldError id={`${id}-error`} className="mt-1">
+          {error}
+        </FieldError>
+      )}
     </div>
   );
 }

@@ -1,8 +1,8 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
 
 /*
- * Form fields for the tank, livestock and equipment editors: a visible label, an optional hint,
- * the error read out with the field, and targets at least 48 px tall for a wet thumb.
+ * Form fields: a visible label, an optional hint, the error read out with the field, and targets
+ * at least 48 px tall for a wet thumb.
  */
 
 const controlClass = (error?: string) =>
@@ -34,21 +34,37 @@ function FieldFrame({ id, label, hint, error, children, className = '' }: FieldF
         </p>
       )}
       {children(described)}
-      {error && <FieldError id={errorId}>{error}</FieldError>}
+      {error && (
+        <FieldError id={errorId} className="mt-1">
+          {error}
+        </FieldError>
+      )}
     </div>
   );
 }
 
-export function FieldError({ id, children }: { id?: string; children: ReactNode }) {
+/**
+ * A field's problem, beside the field, marked by a shape and bold text as well as colour. The
+ * fields in this file sit it closer to their control (`mt-1`) than a free-standing message.
+ */
+export function FieldError({
+  id,
+  className = 'mt-2',
+  children,
+}: {
+  id?: string;
+  className?: string;
+  children: ReactNode;
+}) {
   return (
-    <p id={id} className="mt-1 flex items-start gap-2 text-sm font-bold text-alert-700">
+    <p id={id} className={`${className} flex items-start gap-2 text-sm font-bold text-alert-700`}>
       <span
         aria-hidden="true"
         className="mt-0.5 flex h-4 w-4 shrink-0 items-center justify-center rounded-full bg-alert-700 text-xs text-white"
       >
         !
       </span>
-      {children}
+      <span>{children}</span>
     </p>
   );
 }
@@ -193,14 +209,4 @@ export function CheckboxField({
       )}
     </div>
   );
-}
-
-/** Field errors from a 400, keyed by the path under `body` ("name", "displayVolume.value"). */
-export function fieldErrors(issues: readonly { path: string; message: string }[]): Record<string, string> {
-  const errors: Record<string, string> = {};
-  for (const issue of issues) {
-    const key = issue.path.replace(/^body\./, '');
-    errors[key] ??= issue.message;
-  }
-  return errors;
 }

@@ -1,6 +1,6 @@
 import { useEffect, useId, useRef, type ReactNode } from 'react';
-import { Button } from '../../../components/button';
-import { FieldError } from './field-error';
+import { Button } from './button';
+import { FieldError } from './form-fields';
 
 interface ConfirmDialogProps {
   open: boolean;

@@ -1,4 +1,4 @@
-import { ApiError, type ApiIssue } from '../../../lib/api-client';
+import { ApiError, type ApiIssue } from './api-client';
 
 /** Field name → the first message for it; anything not tied to a known field goes to `other`. */
 export interface FormIssues {
@@ -27,4 +27,14 @@ export function problemMessage(error: unknown): string {
     if (error.status >= 400 && error.status < 500 && error.message) return error.message;
   }
   return 'That did not work. Please try again in a moment.';
+}
+
+/** Field errors from a 400, keyed by the path under `body` ("name", "displayVolume.value"). */
+export function fieldErrors(issues: readonly { path: string; message: string }[]): Record<string, string> {
+  const errors: Record<string, string> = {};
+  for (const issue of issues) {
+    const key = issue.path.replace(/^body\./, '');
+    errors[key] ??= issue.message;
+  }
+  return errors;
 }
