@@ -3,7 +3,8 @@ import type { RequestHandler } from 'express';
 import type { Db } from '../db/client';
 import { tankMembers, tanks } from '../db/schema/index';
 import { forbidden, notFound, unauthorized } from '../lib/http-error';
-import type { Actor, Role } from '../services/actors';
+import { roleCan, type Permission } from '@shared/people/permissions';
+import type { Actor } from '../services/actors';
 
 /**
  * The one place that decides who may do what. Deny by default: every route names a
@@ -11,38 +12,7 @@ import type { Actor, Role } from '../services/actors';
  * through the scope helpers below, so another company's or another owner's object is a 404.
  */
 
-const everyone: Role[] = ['owner', 'technician', 'admin'];
-const staff: Role[] = ['technician', 'admin'];
-const admins: Role[] = ['admin'];
-
-export const permissions = {
-  'me:read': everyone,
-  'tanks:read': everyone,
-  'tanks:write': staff,
-  'clients:read': staff,
-  'staff:read': admins,
-  'staff:manage': admins,
-  'invitations:manage': admins,
-  'readings:read': everyone,
-  // Owners record home tests on their own tanks; the readings service checks the source.
-  'readings:write': everyone,
-  'limits:read': everyone,
-  'limits:write': staff,
-  'devices:manage': staff,
-  'alerts:read': everyone,
-  'alerts:manage': staff,
-  'notifications:own': everyone,
-  'on-call:read': staff,
-  'on-call:manage': admins,
-  'equipment:write': staff,
-  'livestock:write': staff,
-  'species:read': everyone,
-  'species:write': staff,
-  'photos:read': everyone,
-  'photos:write': staff,
-} satisfies Record<string, Role[]>;
-
-export type Permission = keyof typeof permissions;
+export { permissions, type Permission } from '@shared/people/permissions';
 
 /** Marks a route handler with the policy it enforces; the route audit test reads this. */
 export interface PolicyMarked {
@@ -57,10 +27,9 @@ function marked<T extends RequestHandler>(
 }
 
 export function can(permission: Permission): RequestHandler & PolicyMarked {
-  const roles: readonly Role[] = permissions[permission];
   return marked((req, _res, next) => {
     if (!req.actor) return next(unauthorized());
-    if (!roles.includes(req.actor.role)) return next(forbidden());
+    if (!roleCan(req.actor.role, permission)) return next(forbidden());
     next();
   }, permission);
 }

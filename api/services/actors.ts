@@ -1,8 +1,9 @@
 import { and, eq } from 'drizzle-orm';
 import type { Db } from '../db/client';
+import type { Role } from '@shared/people/permissions';
 import { companies, users } from '../db/schema/index';
 
-export type Role = 'owner' | 'technician' | 'admin';
+export type { Role };
 
 export interface Actor {
   id: string;

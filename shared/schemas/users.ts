@@ -1,9 +1,10 @@
 import { z } from 'zod';
+import { roles, staffRoles, type Role } from '@shared/people/permissions';
 
-export const role = z.enum(['owner', 'technician', 'admin']);
-export type Role = z.infer<typeof role>;
+export const role = z.enum(roles);
+export type { Role };
 
-export const staffRole = z.enum(['technician', 'admin']);
+export const staffRole = z.enum(staffRoles);
 
 export const me = z.object({
   id: z.uuid(),

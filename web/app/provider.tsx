@@ -1,6 +1,6 @@
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useState, type ReactNode } from 'react';
-import { signInUrl } from '../features/auth/sign-in-url';
+import { signInUrl } from '../lib/auth';
 import { createQueryClient } from '../lib/query-client';
 
 const goToSignIn = () => window.location.assign(signInUrl());

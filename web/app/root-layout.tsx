@@ -1,6 +1,6 @@
 import { Link, NavLink, Outlet, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
-import { useMe } from '../features/auth/api/get-me';
+import { useMe } from '../lib/auth';
 import { UserMenu } from '../features/auth/components/user-menu';
 import { NotificationBell } from '../features/notifications/components/notification-bell';
 import { useLiveEvents } from '../features/notifications/live-events';

@@ -1,3 +1,4 @@
+import { Badge } from './badge';
 import type { Invitation } from '@shared/schemas/invitations';
 import type { Role } from '@shared/schemas/users';
 
@@ -16,25 +17,22 @@ const marks = {
   plain: 'hidden',
 } as const;
 
-function Badge({ tone, children }: { tone: keyof typeof tones; children: string }) {
+function ToneBadge({ tone, children }: { tone: keyof typeof tones; children: string }) {
   return (
-    <span
-      className={`inline-flex items-center gap-1.5 rounded-full px-2.5 py-0.5 text-sm font-bold ${tones[tone]}`}
-    >
-      <span aria-hidden="true" className={`shrink-0 ${marks[tone]}`} />
+    <Badge tone={tones[tone]} mark={tone === 'plain' ? undefined : <span className={marks[tone]} />}>
       {children}
-    </span>
+    </Badge>
   );
 }
 
 export const roleLabels: Record<Role, string> = { owner: 'Client', technician: 'Technician', admin: 'Admin' };
 
 export function RoleBadge({ role }: { role: Role }) {
-  return <Badge tone="plain">{roleLabels[role]}</Badge>;
+  return <ToneBadge tone="plain">{roleLabels[role]}</ToneBadge>;
 }
 
 export function AccountStatusBadge({ status }: { status: 'active' | 'deactivated' }) {
-  return status === 'active' ? <Badge tone="good">Active</Badge> : <Badge tone="off">Deactivated</Badge>;
+  return status === 'active' ? <ToneBadge tone="good">Active</ToneBadge> : <ToneBadge tone="off">Deactivated</ToneBadge>;
 }
 
 const invitationStatus = {
@@ -46,5 +44,5 @@ const invitationStatus = {
 
 export function InvitationStatusBadge({ status }: { status: Invitation['status'] }) {
   const { tone, label } = invitationStatus[status];
-  return <Badge tone={tone}>{label}</Badge>;
+  return <ToneBadge tone={tone}>{label}</ToneBadge>;
 }

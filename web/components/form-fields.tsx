@@ -1,8 +1,12 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useController, useFormContext, type FieldValues, type Path } from 'react-hook-form';
+import { RadioGroup, type RadioOption } from './radio-group';
 
 /*
- * Form fields: a visible label, an optional hint, the error read out with the field, and targets
- * at least 48 px tall for a wet thumb.
+ * The one set of form fields. Each sits inside a `<Form>` (components/form.tsx) and is bound by
+ * `name` to a field of its schema, so its value, its error (from the schema or the server) and
+ * its focus on error come from the form. A visible label, an optional hint, the error read out
+ * with the field, and targets at least 48 px tall for a wet thumb.
  */
 
 const controlClass = (error?: string) =>
@@ -43,10 +47,7 @@ function FieldFrame({ id, label, hint, error, children, className = '' }: FieldF
   );
 }
 
-/**
- * A field's problem, beside the field, marked by a shape and bold text as well as colour. The
- * fields in this file sit it closer to their control (`mt-1`) than a free-standing message.
- */
+/** A problem, marked by a shape and bold text as well as colour. */
 export function FieldError({
   id,
   className = 'mt-2',
@@ -69,61 +70,95 @@ export function FieldError({
   );
 }
 
-type TextFieldProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'onChange' | 'value'> & {
-  label: ReactNode;
-  value: string;
-  onChange: (value: string) => void;
-  hint?: ReactNode;
-  error?: string;
-  className?: string;
-};
+/** The bound field's value, change handler, ref and error message. */
+function useBoundField<T extends FieldValues>(name: Path<T>) {
+  const { control } = useFormContext<T>();
+  const { field, fieldState } = useController<T>({ name, control });
+  return { field, error: fieldState.error?.message };
+}
 
-export function TextField({ label, value, onChange, hint, error, className, ...input }: TextFieldProps) {
+interface BoundProps<T extends FieldValues> {
+  name: Path<T>;
+  label: ReactNode;
+  hint?: ReactNode;
+  className?: string;
+}
+
+type InputProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'name' | 'value' | 'onChange' | 'onBlur'>;
+
+export function TextField<T extends FieldValues = FieldValues>({
+  name,
+  label,
+  hint,
+  className,
+  suffix,
+  ...input
+}: BoundProps<T> & InputProps & { suffix?: ReactNode }) {
   const id = useId();
+  const { field, error } = useBoundField<T>(name);
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
-      {(described) => (
-        <input
-          id={id}
-          value={value}
-          onChange={(event) => onChange(event.target.value)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={described}
-          className={controlClass(error)}
-          {...input}
-        />
-      )}
+      {(described) => {
+        const control = (
+          <input
+            id={id}
+            name={field.name}
+            ref={field.ref}
+            value={(field.value as string | undefined) ?? ''}
+            onChange={(event) => field.onChange(event.target.value)}
+            onBlur={field.onBlur}
+            aria-invalid={error ? true : undefined}
+            aria-describedby={described}
+            className={controlClass(error)}
+            {...input}
+          />
+        );
+        if (!suffix) return control;
+        return (
+          <div className="flex items-end gap-2">
+            {control}
+            <span className="mb-3 shrink-0 font-bold text-ink-700">{suffix}</span>
+          </div>
+        );
+      }}
     </FieldFrame>
   );
 }
 
-export function TextAreaField({
+/**
+ * A number typed as text, so a phone's decimal comma ("7,5") works; the form schema reads it with
+ * `decimalText` (lib/decimal.ts). `suffix` shows the unit beside the box.
+ */
+export function DecimalField<T extends FieldValues = FieldValues>(
+  props: BoundProps<T> & InputProps & { suffix?: ReactNode },
+) {
+  return <TextField<T> inputMode="decimal" autoComplete="off" spellCheck={false} {...props} />;
+}
+
+export function TextAreaField<T extends FieldValues = FieldValues>({
+  name,
   label,
-  value,
-  onChange,
   hint,
-  error,
+  className,
   rows = 3,
   maxLength,
-}: {
-  label: ReactNode;
-  value: string;
-  onChange: (value: string) => void;
-  hint?: ReactNode;
-  error?: string;
-  rows?: number;
-  maxLength?: number;
-}) {
+  placeholder,
+}: BoundProps<T> & { rows?: number; maxLength?: number; placeholder?: string }) {
   const id = useId();
+  const { field, error } = useBoundField<T>(name);
   return (
-    <FieldFrame id={id} label={label} hint={hint} error={error}>
+    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       {(described) => (
         <textarea
           id={id}
-          value={value}
+          name={field.name}
+          ref={field.ref}
+          value={(field.value as string | undefined) ?? ''}
+          onChange={(event) => field.onChange(event.target.value)}
+          onBlur={field.onBlur}
           rows={rows}
           maxLength={maxLength}
-          onChange={(event) => onChange(event.target.value)}
+          placeholder={placeholder}
           aria-invalid={error ? true : undefined}
           aria-describedby={described}
           className={`${controlClass(error)} py-2`}
@@ -133,34 +168,29 @@ export function TextAreaField({
   );
 }
 
-type SelectFieldProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'onChange' | 'value'> & {
-  label: ReactNode;
-  value: string;
-  onChange: (value: string) => void;
-  options: readonly { value: string; label: string }[];
-  hint?: ReactNode;
-  error?: string;
-  className?: string;
-};
-
-export function SelectField({
+export function SelectField<T extends FieldValues = FieldValues>({
+  name,
   label,
-  value,
-  onChange,
-  options,
   hint,
-  error,
   className,
+  options,
   ...select
-}: SelectFieldProps) {
+}: BoundProps<T> &
+  Omit<SelectHTMLAttributes<HTMLSelectElement>, 'name' | 'value' | 'onChange' | 'onBlur'> & {
+    options: readonly { value: string; label: string }[];
+  }) {
   const id = useId();
+  const { field, error } = useBoundField<T>(name);
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       {(described) => (
         <select
           id={id}
-          value={value}
-          onChange={(event) => onChange(event.target.value)}
+          name={field.name}
+          ref={field.ref}
+          value={(field.value as string | undefined) ?? ''}
+          onChange={(event) => field.onChange(event.target.value)}
+          onBlur={field.onBlur}
           aria-invalid={error ? true : undefined}
           aria-describedby={described}
           className={controlClass(error)}
@@ -177,27 +207,28 @@ export function SelectField({
   );
 }
 
-export function CheckboxField({
+export function CheckboxField<T extends FieldValues = FieldValues>({
+  name,
   label,
-  checked,
-  onChange,
   hint,
-}: {
-  label: ReactNode;
-  checked: boolean;
-  onChange: (checked: boolean) => void;
-  hint?: ReactNode;
-}) {
+  className = '',
+}: BoundProps<T>) {
   const id = useId();
+  const { field, error } = useBoundField<T>(name);
+  const described = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ');
   return (
-    <div>
+    <div className={className}>
       <label htmlFor={id} className="flex min-h-11 cursor-pointer items-center gap-3 font-bold text-ink-900">
         <input
           id={id}
           type="checkbox"
-          checked={checked}
-          onChange={(event) => onChange(event.target.checked)}
-          aria-describedby={hint ? `${id}-hint` : undefined}
+          name={field.name}
+          ref={field.ref}
+          checked={Boolean(field.value)}
+          onChange={(event) => field.onChange(event.target.checked)}
+          onBlur={field.onBlur}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={described || undefined}
           className="h-6 w-6 shrink-0 accent-brine-700"
         />
         {label}
@@ -207,6 +238,39 @@ export function CheckboxField({
           {hint}
         </p>
       )}
+      {error && (
+        <FieldError id={`${id}-error`} className="mt-1 ml-9">
+          {error}
+        </FieldError>
+      )}
     </div>
+  );
+}
+
+/** The one radio group (components/radio-group.tsx) bound to a form field. */
+export function RadioGroupField<T extends FieldValues = FieldValues, V extends string = string>({
+  name,
+  label,
+  hint,
+  className,
+  options,
+  look,
+}: BoundProps<T> & {
+  options: readonly RadioOption<V>[];
+  look?: 'rows' | 'tiles' | 'compact';
+}) {
+  const { field, error } = useBoundField<T>(name);
+  return (
+    <RadioGroup<V>
+      legend={label}
+      hint={hint}
+      error={error}
+      className={className}
+      look={look}
+      name={field.name}
+      value={field.value as V | undefined}
+      onChange={field.onChange}
+      options={options}
+    />
   );
 }

@@ -22,14 +22,3 @@ export function parseDecimal(raw: string): ParsedNumber {
   if (!plainNumber.test(normal)) return { state: 'invalid', reason: 'Enter a number, such as 7.5.' };
   return { state: 'number', value: Number(normal) };
 }
-
-/**
- * The simpler reading the tank and species editors use: "12,5" and "12.5" both mean twelve and a
- * half, no sign is accepted, and anything else is not a number.
- */
-export function parseUnsignedDecimal(text: string): number | null {
-  const cleaned = text.trim().replace(',', '.');
-  if (cleaned === '' || !/^\d*\.?\d*$/.test(cleaned)) return null;
-  const value = Number(cleaned);
-  return Number.isFinite(value) ? value : null;
-}

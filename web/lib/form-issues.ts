@@ -1,24 +1,5 @@
-import { ApiError, type ApiIssue } from './api-client';
-
-/** Field name → the first message for it; anything not tied to a known field goes to `other`. */
-export interface FormIssues {
-  fields: Partial<Record<string, string>>;
-  other: string[];
-}
-
-/**
- * Groups issues by field. Server paths carry the request part (`body.email`); the same schema
- * run in the browser gives bare paths (`email`), so both land on the same field.
- */
-export function groupIssues(issues: readonly ApiIssue[], knownFields: readonly string[]): FormIssues {
-  const grouped: FormIssues = { fields: {}, other: [] };
-  for (const issue of issues) {
-    const field = issue.path.replace(/^body\.?/, '');
-    if (knownFields.includes(field)) grouped.fields[field] ??= issue.message;
-    else grouped.other.push(issue.message);
-  }
-  return grouped;
-}
+import type { FieldValues, Path, UseFormReturn } from 'react-hook-form';
+import { ApiError } from './api-client';
 
 /** One sentence for a failed change, in the API's own words where it gave some. */
 export function problemMessage(error: unknown): string {
@@ -29,12 +10,42 @@ export function problemMessage(error: unknown): string {
   return 'That did not work. Please try again in a moment.';
 }
 
-/** Field errors from a 400, keyed by the path under `body` ("name", "displayVolume.value"). */
-export function fieldErrors(issues: readonly { path: string; message: string }[]): Record<string, string> {
-  const errors: Record<string, string> = {};
-  for (const issue of issues) {
-    const key = issue.path.replace(/^body\./, '');
-    errors[key] ??= issue.message;
+/**
+ * Puts a failed request's problems on the form: each of a 400's `issues` under the field its path
+ * names (server paths carry the request part, `body.displayVolume.value`, which is dropped), focus
+ * on the first such field, and whatever names no field of this form in the form-wide problem.
+ * Field names follow the shared request schema, so a form whose fields mirror it needs no mapping;
+ * `fieldFor` renames a server path where the form is shaped differently.
+ */
+export function applyServerIssues<T extends FieldValues>(
+  form: Pick<UseFormReturn<T, unknown, FieldValues>, 'setError' | 'getValues'>,
+  error: unknown,
+  fieldFor: (path: string) => string | null = (path) => path,
+): void {
+  const unplaced: string[] = [];
+  let focused = false;
+  if (error instanceof ApiError && error.status === 400 && error.issues.length > 0) {
+    const values = form.getValues() as Record<string, unknown>;
+    for (const issue of error.issues) {
+      const field = fieldFor(issue.path.replace(/^(body|query|params)\.?/, ''));
+      if (field && hasPath(values, field)) {
+        form.setError(field as Path<T>, { type: 'server', message: issue.message }, { shouldFocus: !focused });
+        focused = true;
+      } else unplaced.push(issue.message);
+    }
+    if (unplaced.length === 0) return;
   }
-  return errors;
+  form.setError('root.server', {
+    type: 'server',
+    message: unplaced.length > 0 ? unplaced.join(' ') : problemMessage(error),
+  });
+}
+
+function hasPath(values: Record<string, unknown>, path: string): boolean {
+  let current: unknown = values;
+  for (const part of path.split('.')) {
+    if (current === null || typeof current !== 'object' || !(part in current)) return false;
+    current = (current as Record<string, unknown>)[part];
+  }
+  return true;
 }

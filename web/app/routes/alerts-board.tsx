@@ -2,7 +2,7 @@ import { Page } from '../../components/page';
 import { AlertsBoard } from '../../features/alerts/components/alerts-board';
 import { FailedDeliveries } from '../../features/alerts/components/failed-deliveries';
 import { OnCallRoster } from '../../features/alerts/components/on-call-roster';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/auth';
 
 export function ConsoleAlertsRoute() {
   const { data: me } = useMe();

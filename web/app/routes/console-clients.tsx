@@ -1,5 +1,5 @@
 import { Page } from '../../components/page';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/auth';
 import { ClientList } from '../../features/clients/components/client-list';
 import { InviteClientForm } from '../../features/clients/components/invite-client-form';
 import { InvitationsSection } from '../../features/staff/components/invitations-section';

@@ -1,5 +1,5 @@
 import { Page } from '../../components/page';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/auth';
 import { InvitationsSection } from '../../features/staff/components/invitations-section';
 import { InviteStaffForm } from '../../features/staff/components/invite-staff-form';
 import { StaffList } from '../../features/staff/components/staff-list';

@@ -1,6 +1,6 @@
 import { Link } from 'react-router';
-import { useMe } from '../../features/auth/api/get-me';
-import { signInUrl } from '../../features/auth/sign-in-url';
+import { useMe } from '../../lib/auth';
+import { signInUrl } from '../../lib/auth';
 import { ServiceStatus } from '../../features/health/components/service-status';
 import { TankIllustration } from '../../features/landing/components/tank-illustration';
 

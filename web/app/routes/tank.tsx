@@ -2,7 +2,7 @@ import { Link, useParams } from 'react-router';
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
 import { TankAlertsSection } from '../../features/alerts/components/tank-alerts-section';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/auth';
 import { EquipmentList } from '../../features/equipment/components/equipment-list';
 import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
 import { useEquipment } from '../../features/equipment/api/get-equipment';

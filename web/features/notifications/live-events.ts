@@ -1,6 +1,6 @@
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
-import { useMe } from '../auth/api/get-me';
+import { useMe } from '../../lib/auth';
 import { alertsQueryKey } from '../alerts/api/alert-query-keys';
 import { tanksQueryKey } from '../clients/api/list-tanks';
 import { notificationsQueryKey } from './api/list-notifications';

@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
 import type { AlertView } from '@shared/schemas/alerts';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../../auth/api/get-me';
+import { useMe } from '../../../lib/auth';
 import { useAlerts } from '../api/list-alerts';
 import { criticalFirstSteps } from '../utils/alert-facts';
 import { formatDateTime, relativeTime } from '../utils/time';

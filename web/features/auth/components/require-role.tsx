@@ -2,8 +2,8 @@ import { useEffect, type ReactNode } from 'react';
 import { Link, Outlet } from 'react-router';
 import type { Role } from '@shared/schemas/users';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../api/get-me';
-import { signInUrl } from '../sign-in-url';
+import { useMe } from '../../../lib/auth';
+import { signInUrl } from '../../../lib/auth';
 
 /** Guards an area of the app by role; signed-out visitors go to sign in and come back. */
 export function RequireRole({ roles, children }: { roles: readonly Role[]; children?: ReactNode }) {

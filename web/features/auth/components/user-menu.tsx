@@ -1,7 +1,7 @@
 import { Button } from '../../../components/button';
-import { useMe } from '../api/get-me';
+import { useMe } from '../../../lib/auth';
 import { useSignOut } from '../api/sign-out';
-import { signInUrl } from '../sign-in-url';
+import { signInUrl } from '../../../lib/auth';
 
 const roleLabel = { owner: 'Tank owner', technician: 'Technician', admin: 'Admin' } as const;
 

@@ -7,7 +7,7 @@ import { problemMessage } from '../../../lib/form-issues';
 import { SeverityBadge } from '../../alerts/components/severity-badge';
 import { formatDateTime, relativeTime } from '../../alerts/utils/time';
 import { useNow } from '../../alerts/utils/use-now';
-import { useMe } from '../../auth/api/get-me';
+import { useMe } from '../../../lib/auth';
 import { useNotifications } from '../api/list-notifications';
 import { useMarkNotificationsRead } from '../api/mark-notifications-read';
 

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../../auth/api/get-me';
+import { useMe } from '../../../lib/auth';
 import { useLimits } from '../api/get-limits';
 import { useLatestReadings } from '../api/get-latest-readings';
 import { preferredUnit, rememberUnit } from '../utils/display-units';

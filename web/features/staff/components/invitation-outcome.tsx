@@ -1,20 +1,11 @@
-import { FieldError } from '../../../components/form-fields';
-import type { FormIssues } from '../../../lib/form-issues';
+import { formatDate } from '../../../lib/format';
 import type { CreatedInvitation } from '../api/create-invitation';
-
-const expiry = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
 
 /**
  * What happened to the last invitation. Both live regions stay in the page so that what
  * appears in them is read out.
  */
-export function InvitationOutcome({
-  outcome,
-  issues,
-}: {
-  outcome: CreatedInvitation | null;
-  issues: FormIssues;
-}) {
+export function InvitationOutcome({ outcome }: { outcome: CreatedInvitation | null }) {
   const sent = outcome?.emailSent ? outcome : null;
   const unsent = outcome && !outcome.emailSent ? outcome : null;
   return (
@@ -22,7 +13,7 @@ export function InvitationOutcome({
       <div role="status">
         {sent && (
           <p className="rounded-lg bg-healthy-100 p-3 text-sm font-bold text-healthy-700">
-            Invitation sent to {sent.email}. The link works once, until {expiry(sent.expiresAt)}.
+            Invitation sent to {sent.email}. The link works once, until {formatDate(sent.expiresAt)}.
           </p>
         )}
       </div>
@@ -36,9 +27,6 @@ export function InvitationOutcome({
             </p>
           </div>
         )}
-        {issues.other.map((message) => (
-          <FieldError key={message}>{message}</FieldError>
-        ))}
       </div>
     </>
   );

@@ -1,10 +1,12 @@
 import { useState } from 'react';
-import { Button } from '../../../components/button';
-import { TextField } from '../../../components/form-fields';
-import type { StaffRole } from '../api/change-staff-role';
-import { ChoiceField } from './choice-field';
+import { z } from 'zod';
+import { createInvitationInput } from '@shared/schemas/invitations';
+import { staffRole } from '@shared/schemas/users';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { RadioGroupField, TextField } from '../../../components/form-fields';
+import { blankAsUndefined } from '../../../lib/form-values';
+import { useCreateInvitation, type CreatedInvitation } from '../api/create-invitation';
 import { InvitationOutcome } from './invitation-outcome';
-import { useInviteSubmit } from './use-invite-submit';
 
 const roleChoices = [
   {
@@ -15,11 +17,17 @@ const roleChoices = [
   { value: 'admin', label: 'Admin', hint: 'Also manages staff, clients and invitations.' },
 ] as const;
 
+const staffInvitation = createInvitationInput.options[0];
+const inviteStaffForm = z.object({
+  role: staffRole,
+  email: staffInvitation.shape.email,
+  name: blankAsUndefined(staffInvitation.shape.name),
+});
+
 export function InviteStaffForm({ className = '' }: { className?: string }) {
-  const [email, setEmail] = useState('');
-  const [name, setName] = useState('');
-  const [role, setRole] = useState<StaffRole>('technician');
-  const { formRef, submit, issues, outcome, pending } = useInviteSubmit(['email', 'name', 'role']);
+  const invite = useCreateInvitation();
+  const [outcome, setOutcome] = useState<CreatedInvitation | null>(null);
+  const form = useZodForm(inviteStaffForm, { defaultValues: { role: 'technician', email: '', name: '' } });
 
   return (
     <section
@@ -32,43 +40,22 @@ export function InviteStaffForm({ className = '' }: { className?: string }) {
       <p className="mt-1 text-sm text-ink-700">
         They get an e-mail with a link that works once. The invitation expires if it is not used.
       </p>
-      <form
-        ref={formRef}
-        noValidate
+      <Form
+        form={form}
         className="mt-4 grid gap-4"
-        onSubmit={(event) => {
-          event.preventDefault();
-          submit({ role, email: email.trim(), name: name.trim() || undefined }, () => {
-            setEmail('');
-            setName('');
-            setRole('technician');
-          });
+        onSubmit={async (values) => {
+          setOutcome(null);
+          setOutcome(await invite.mutateAsync(values));
+          form.reset();
         }}
       >
-        <TextField
-          label="E-mail address"
-          type="email"
-          autoComplete="off"
-          spellCheck={false}
-          value={email}
-          onChange={setEmail}
-          error={issues.fields.email}
-        />
-        <TextField
-          label="Name (optional)"
-          hint="Used to greet them in the e-mail."
-          autoComplete="off"
-          value={name}
-          onChange={setName}
-          error={issues.fields.name}
-        />
-        <ChoiceField legend="Role" name="staff-role" value={role} onChange={setRole} choices={roleChoices} />
-        {issues.fields.role && <p className="text-sm font-bold text-alert-700">{issues.fields.role}</p>}
-        <InvitationOutcome outcome={outcome} issues={issues} />
-        <Button type="submit" disabled={pending}>
-          {pending ? 'Sending invitation…' : 'Send invitation'}
-        </Button>
-      </form>
+        <TextField name="email" label="E-mail address" type="email" autoComplete="off" spellCheck={false} />
+        <TextField name="name" label="Name (optional)" hint="Used to greet them in the e-mail." autoComplete="off" />
+        <RadioGroupField name="role" label="Role" look="rows" options={roleChoices} />
+        <InvitationOutcome outcome={outcome} />
+        <FormProblem />
+        <SubmitButton pending="Sending invitation…">Send invitation</SubmitButton>
+      </Form>
     </section>
   );
 }

@@ -1,9 +1,14 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { TankListQuery, TankSummary } from '@shared/schemas/tanks';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
 
-export function getTanks(query: TankListQuery, signal?: AbortSignal) {
+/*
+ * The list of tanks the signed-in person may see: the tanks pages, the alerts board's tank filter
+ * and the client invitation's tank picker all read this one query.
+ */
+
+export function getTanks(query: Partial<TankListQuery> = {}, signal?: AbortSignal) {
   const params = new URLSearchParams();
   if (query.q) params.set('q', query.q);
   if (query.technicianId) params.set('technicianId', query.technicianId);
@@ -11,7 +16,7 @@ export function getTanks(query: TankListQuery, signal?: AbortSignal) {
   return api<TankSummary[]>(`/tanks${search}`, { signal });
 }
 
-export const tanksListQueryOptions = (query: TankListQuery = {}) =>
+export const tanksQueryOptions = (query: Partial<TankListQuery> = {}) =>
   queryOptions({
     queryKey: tankKeys.list(query),
     queryFn: ({ signal }) => getTanks(query, signal),
@@ -19,4 +24,4 @@ export const tanksListQueryOptions = (query: TankListQuery = {}) =>
     placeholderData: keepPreviousData,
   });
 
-export const useTanksList = (query: TankListQuery = {}) => useQuery(tanksListQueryOptions(query));
+export const useTanks = (query: Partial<TankListQuery> = {}) => useQuery(tanksQueryOptions(query));

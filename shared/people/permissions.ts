@@ -1,0 +1,49 @@
+/**
+ * Who may do what, by role: the one table both the API's policy module and the client's
+ * `can(me, permission)` read, so a button is shown exactly when the request behind it is allowed.
+ */
+
+export const roles = ['owner', 'technician', 'admin'] as const;
+export type Role = (typeof roles)[number];
+
+export const staffRoles = ['technician', 'admin'] as const;
+export type StaffRole = (typeof staffRoles)[number];
+
+const everyone: readonly Role[] = roles;
+const staff: readonly Role[] = staffRoles;
+const admins: readonly Role[] = ['admin'];
+
+export const permissions = {
+  'me:read': everyone,
+  'tanks:read': everyone,
+  'tanks:write': staff,
+  'clients:read': staff,
+  'staff:read': admins,
+  'staff:manage': admins,
+  'invitations:manage': admins,
+  'readings:read': everyone,
+  // Owners record home tests on their own tanks; the readings service checks the source.
+  'readings:write': everyone,
+  'limits:read': everyone,
+  'limits:write': staff,
+  'devices:manage': staff,
+  'alerts:read': everyone,
+  'alerts:manage': staff,
+  'notifications:own': everyone,
+  'on-call:read': staff,
+  'on-call:manage': admins,
+  'equipment:write': staff,
+  'livestock:write': staff,
+  'species:read': everyone,
+  'species:write': staff,
+  'photos:read': everyone,
+  'photos:write': staff,
+} satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof permissions;
+
+export function roleCan(role: Role, permission: Permission): boolean {
+  return permissions[permission].includes(role);
+}
+
+export const isStaffRole = (role: Role): role is StaffRole => role !== 'owner';

@@ -1,0 +1,113 @@
+import { useEffect, useState } from 'react';
+import { volumeIn, volumeUnitLabels, type VolumeUnit } from '@shared/schemas/tanks';
+
+/*
+ * The one place that turns dates, times and numbers into text. Dates read the same everywhere in
+ * the product ("1 Dec 2026", "1 Dec 2026, 18:27" on a 24-hour clock) whatever the browser's locale,
+ * so a technician and an owner reading the same screen see the same words.
+ */
+
+const minute = 60_000;
+const hour = 60 * minute;
+const day = 24 * hour;
+
+const locale = 'en-GB';
+const relative = new Intl.RelativeTimeFormat(locale, { numeric: 'auto' });
+const dayFormat = new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric' });
+const dateTimeOptions: Intl.DateTimeFormatOptions = {
+  day: 'numeric',
+  month: 'short',
+  year: 'numeric',
+  hour: '2-digit',
+  minute: '2-digit',
+  hourCycle: 'h23',
+};
+const dateTimeFormat = new Intl.DateTimeFormat(locale, dateTimeOptions);
+const numberFormats = new Map<number, Intl.NumberFormat>();
+
+/** "just now", "5 minutes ago", "yesterday", "3 days ago": what a person says, not a timestamp. */
+export function relativeTime(iso: string | number, now = Date.now()): string {
+  const elapsed = now - new Date(iso).getTime();
+  if (elapsed < minute) return 'just now';
+  if (elapsed < hour) return relative.format(-Math.floor(elapsed / minute), 'minute');
+  if (elapsed < day) return relative.format(-Math.floor(elapsed / hour), 'hour');
+  return relative.format(-Math.floor(elapsed / day), 'day');
+}
+
+/** "1 Dec 2026, 18:27" in the reader's time zone, or in `timeZone` (a tank's) when given. */
+export function formatDateTime(iso: string | number, timeZone?: string): string {
+  const format = timeZone
+    ? new Intl.DateTimeFormat(locale, { ...dateTimeOptions, timeZone })
+    : dateTimeFormat;
+  return format.format(new Date(iso));
+}
+
+/** "1 Dec 2026" for a moment, in the reader's time zone or `timeZone` (a tank's) when given. */
+export function formatDate(iso: string | number, timeZone?: string): string {
+  const format = timeZone
+    ? new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone })
+    : dayFormat;
+  return format.format(new Date(iso));
+}
+
+/** A calendar day ("2025-04-12") as people read it; no time zone can move a calendar day. */
+export function formatDay(isoDay: string | null): string {
+  if (!isoDay) return '—';
+  return formatDate(`${isoDay}T00:00:00Z`, 'UTC');
+}
+
+/** Today's calendar day ("2026-12-01") in a time zone. */
+export function todayIn(timeZone: string): string {
+  return new Intl.DateTimeFormat('en-CA', {
+    timeZone,
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+  }).format(new Date());
+}
+
+/** The value a datetime-local input wants: local time, to the minute. */
+export function localInputValue(date: Date): string {
+  const local = new Date(date.getTime() - date.getTimezoneOffset() * minute);
+  return local.toISOString().slice(0, 16);
+}
+
+/** A datetime-local value back to an instant, or null when it is not a time. */
+export function instantFromLocalInput(value: string): string | null {
+  if (!/^\d{4}-\d\d-\d\dT\d\d:\d\d/.test(value)) return null;
+  const date = new Date(value);
+  return Number.isNaN(date.getTime()) ? null : date.toISOString();
+}
+
+/** A number with up to `digits` decimals, trailing zeros dropped: 7.5, 1,200. */
+export function formatNumber(value: number, digits = 1): string {
+  let format = numberFormats.get(digits);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, { maximumFractionDigits: digits });
+    numberFormats.set(digits, format);
+  }
+  const text = format.format(value);
+  return /^-[0.,]+$/.test(text) ? text.slice(1) : text;
+}
+
+/** "300 L (79.3 US gal)": litres first, the way the company stores it, with gallons alongside. */
+export function formatVolume(litres: number, also: VolumeUnit = 'us-gallons'): string {
+  const main = `${formatNumber(litres)} L`;
+  if (litres === 0) return main;
+  return `${main} (${formatNumber(volumeIn(litres, also))} ${volumeUnitLabels[also].short})`;
+}
+
+/** "the yellow tang" → "The yellow tang" for headings. */
+export function capitalise(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/** The current time, ticking every `everyMs`, so "5 minutes ago" stays true on a screen left open. */
+export function useNow(everyMs = 30_000): number {
+  const [now, setNow] = useState(() => Date.now());
+  useEffect(() => {
+    const timer = window.setInterval(() => setNow(Date.now()), everyMs);
+    return () => window.clearInterval(timer);
+  }, [everyMs]);
+  return now;
+}

@@ -1,0 +1,47 @@
+import type { TankListQuery } from '@shared/schemas/tanks';
+
+/*
+ * One key factory per resource. Everything about one tank hangs under `tankKeys.detail(id)`, so a
+ * single invalidation refreshes its page (readings, livestock, equipment, photos, alerts on it);
+ * features extend these keys rather than starting their own roots.
+ */
+
+export const tankKeys = {
+  all: ['tanks'] as const,
+  lists: () => [...tankKeys.all, 'list'] as const,
+  list: (query: Partial<TankListQuery> = {}) => [...tankKeys.lists(), query] as const,
+  detail: (tankId: string) => [...tankKeys.all, 'detail', tankId] as const,
+  photos: (tankId: string) => [...tankKeys.detail(tankId), 'photos'] as const,
+  readings: (tankId: string) => [...tankKeys.detail(tankId), 'readings'] as const,
+  limits: (tankId: string) => [...tankKeys.detail(tankId), 'limits'] as const,
+  devices: (tankId: string) => [...tankKeys.detail(tankId), 'devices'] as const,
+  equipment: (tankId: string) => [...tankKeys.detail(tankId), 'equipment'] as const,
+  livestock: (tankId: string) => [...tankKeys.detail(tankId), 'livestock'] as const,
+  technicians: () => [...tankKeys.all, 'technicians'] as const,
+};
+
+export const speciesKeys = {
+  all: ['species'] as const,
+  search: (query: object) => [...speciesKeys.all, query] as const,
+};
+
+export const alertKeys = {
+  all: ['alerts'] as const,
+  list: (filters: object) => [...alertKeys.all, 'list', filters] as const,
+  detail: (alertId: string) => [...alertKeys.all, 'detail', alertId] as const,
+};
+
+/** Staff and clients are both people: a status change touches both lists. */
+export const peopleKeys = {
+  all: ['people'] as const,
+  staff: () => [...peopleKeys.all, 'staff'] as const,
+  clients: () => [...peopleKeys.all, 'clients'] as const,
+  invitations: () => [...peopleKeys.all, 'invitations'] as const,
+};
+
+export const onCallKeys = { all: ['on-call'] as const };
+export const deliveryKeys = { failed: ['deliveries', 'failed'] as const };
+export const notificationKeys = {
+  all: ['notifications'] as const,
+  preferences: ['notifications', 'preferences'] as const,
+};
