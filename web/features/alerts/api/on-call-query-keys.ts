@@ -1,2 +1,0 @@
-export const onCallQueryKey = ['on-call'] as const;
-export const failedDeliveriesQueryKey = ['deliveries', 'failed'] as const;
