@@ -31,8 +31,9 @@ export default defineConfig({
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
           globalSetup: ['tests/helpers/global-db.ts'],
-          testTimeout: 20_000,
-          hookTimeout: 60_000,
+          // Upper bounds for a hang, sized for a loaded 2-core CI machine, never a speed target.
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
         },
       },
       {
@@ -41,8 +42,8 @@ export default defineConfig({
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/helpers/global-e2e.ts'],
-          testTimeout: 60_000,
-          hookTimeout: 120_000,
+          testTimeout: 180_000,
+          hookTimeout: 300_000,
           fileParallelism: false,
         },
       },

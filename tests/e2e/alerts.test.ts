@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import webpush from 'web-push';
-import { demoTanks, demoId } from '../../api/db/seed/index';
+import { demoTanks, demoId } from '../../api/dev/seed/index';
 import { demoPassword } from '../../api/dev/demo-people';
 import { axeViolations, openBrowser, screenshot, viewports, type BrowserSession } from '../helpers/browser';
 
@@ -125,7 +125,7 @@ describe('alerts when a reading crosses a limit', () => {
     expect(recorded.status, recorded.body).toBe(201);
 
     const card = technician.getByRole('article', { name: alertTitle });
-    await card.waitFor({ timeout: 15_000 });
+    await card.waitFor({ timeout: 60_000 });
     expect(await card.getByText('Critical', { exact: true }).isVisible()).toBe(true);
     expect(await card.getByText('Open', { exact: true }).isVisible()).toBe(true);
     expect(await card.getByText('30.5 °C', { exact: true }).isVisible()).toBe(true);
@@ -133,7 +133,7 @@ describe('alerts when a reading crosses a limit', () => {
 
     await expect
       .poll(() => owner.getByRole('button', { name: /^Notifications/ }).getAttribute('aria-label'), {
-        timeout: 15_000,
+        timeout: 60_000,
       })
       .toMatch(/^Notifications, \d+ unread$/);
     const tankAlerts = owner.getByRole('region', { name: 'Alerts' });
@@ -195,7 +195,7 @@ describe('alerts when a reading crosses a limit', () => {
     const ownerCard = owner
       .getByRole('region', { name: 'Alerts' })
       .getByRole('article', { name: alertTitle });
-    await ownerCard.getByText('Tomas Lindqvist is on it.').waitFor({ timeout: 15_000 });
+    await ownerCard.getByText('Tomas Lindqvist is on it.').waitFor({ timeout: 60_000 });
   });
 
   it('asks what was done before resolving, then resolves the alert', async () => {
@@ -214,7 +214,7 @@ describe('alerts when a reading crosses a limit', () => {
     expect((await recordTemperature(technician, 25.6)).status).toBe(201);
     await expect.poll(() => resolveTheRest(technician)).toBe(0);
     const tankAlerts = owner.getByRole('region', { name: 'Alerts' });
-    await tankAlerts.getByText('No open alerts for this tank.').waitFor({ timeout: 15_000 });
+    await tankAlerts.getByText('No open alerts for this tank.').waitFor({ timeout: 60_000 });
   });
 
   it('marks a notification read when the owner opens it, and all of them on request', async () => {
@@ -240,7 +240,7 @@ describe('alerts when a reading crosses a limit', () => {
           if (await markAll.isEnabled()) await markAll.click();
           return bell.getAttribute('aria-label');
         },
-        { timeout: 15_000 },
+        { timeout: 60_000 },
       )
       .toBe('Notifications');
     await panel.getByText('All read').waitFor();
@@ -286,7 +286,7 @@ describe('alerts when a reading crosses a limit', () => {
     }
     // There is no push service on this closed network, so the browser's subscribe step fails.
     await turnOn.click();
-    await device.getByText('This browser could not set up notifications here.').waitFor({ timeout: 20_000 });
+    await device.getByText('This browser could not set up notifications here.').waitFor({ timeout: 60_000 });
     await device.getByRole('button', { name: 'Turn on for this device' }).waitFor();
     await checkAxe(owner);
     await screenshot(owner, 'settings-notifications-phone');

@@ -23,14 +23,20 @@ export function applyServerIssues<T extends FieldValues>(
   fieldFor: (path: string) => string | null = (path) => path,
 ): void {
   const unplaced: string[] = [];
-  let focused = false;
+  const placed = new Set<string>();
   if (error instanceof ApiError && error.status === 400 && error.issues.length > 0) {
     const values = form.getValues() as Record<string, unknown>;
     for (const issue of error.issues) {
       const field = fieldFor(issue.path.replace(/^(body|query|params)\.?/, ''));
       if (field && hasPath(values, field)) {
-        form.setError(field as Path<T>, { type: 'server', message: issue.message }, { shouldFocus: !focused });
-        focused = true;
+        // The first message for a field is the one shown; focus goes to the first field named.
+        if (placed.has(field)) continue;
+        form.setError(
+          field as Path<T>,
+          { type: 'server', message: issue.message },
+          { shouldFocus: placed.size === 0 },
+        );
+        placed.add(field);
       } else unplaced.push(issue.message);
     }
     if (unplaced.length === 0) return;
