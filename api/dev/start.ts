@@ -3,8 +3,8 @@ import { loadEnvOrExit } from '../env';
 import { loadOrCreateVapidKeys } from '../lib/vapid-keys';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
-import { seedDemo } from '../db/seed/index';
-import { objectStorageFor } from '../db/seed/photos';
+import { seedDemo } from './seed/index';
+import { objectStorageFor } from './seed/photos';
 import { createLogger } from '../lib/logger';
 import { onShutdown, startServer } from '../server';
 import { openLocalDatabase } from './local-database';
@@ -27,9 +27,12 @@ async function main() {
   const logger = createLogger(env.LOG_LEVEL);
   const say = (line: string) => logger.info(line);
   const steps: Array<() => Promise<void>> = [];
-  onShutdown(logger, steps);
+  // A second Ctrl-C still stops PostgreSQL, so nothing is left running behind the terminal.
+  const urgent = { stop: async () => {} };
+  onShutdown(logger, steps, { urgent: () => urgent.stop() });
 
   const database = await openLocalDatabase(env, say);
+  urgent.stop = () => database.stop();
   steps.unshift(() => database.stop());
 
   const standIns = await startStandIns(env, { mailboxPort: env.MAILBOX_PORT });

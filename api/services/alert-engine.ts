@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, lte, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lte, sql } from 'drizzle-orm';
 import { describeAlert, type AlertFacts } from '@shared/alerts/describe-alert';
 import { evaluateFreeAmmonia } from '@shared/alerts/free-ammonia';
 import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
@@ -13,23 +13,13 @@ import {
 import { findSpecies } from '@shared/livestock/catalogue';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
-import { limitTemplates } from '@shared/parameters/limit-templates';
+import { limitsInForce } from '@shared/parameters/limits-in-force';
 import { rateRuleFromHours, type ParameterLimits, type RateRule } from '@shared/schemas/limits';
 import type { ReadingSource } from '@shared/schemas/readings';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { Db } from '../db/client';
-import {
-  alertEvents,
-  alertRuleStates,
-  alerts,
-  companies,
-  livestock,
-  readings,
-  tankLimits,
-  tanks,
-} from '../db/schema/index';
-
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+import { alertRuleStates, companies, livestock, readings, tankLimits, tanks } from '../db/schema/index';
+import { withTankAlerts, type AlertChange, type TankAlertStore, type Tx } from './alert-store';
 
 export interface NewReading {
   parameter: ParameterKey;
@@ -66,15 +56,11 @@ async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
     .where(eq(tanks.id, tankId));
   if (!tank) return null;
   const rows = await tx.select().from(tankLimits).where(eq(tankLimits.tankId, tankId));
-  const limits: Partial<Record<ParameterKey, ParameterLimits>> = { ...limitTemplates[tank.style] };
+  const limits: Partial<Record<ParameterKey, ParameterLimits>> = {};
+  for (const [parameter, inForce] of Object.entries(limitsInForce(tank.style, rows)))
+    limits[parameter as ParameterKey] = inForce.limits;
   const rates: Partial<Record<ParameterKey, RateRule>> = {};
   for (const row of rows) {
-    limits[row.parameter] = {
-      warnLow: row.warnLow,
-      warnHigh: row.warnHigh,
-      critLow: row.critLow,
-      critHigh: row.critHigh,
-    };
     if (row.rateMaxChange !== null && row.ratePerHours !== null) {
       rates[row.parameter] = rateRuleFromHours({ maxChange: row.rateMaxChange, perHours: row.ratePerHours });
     }
@@ -113,15 +99,6 @@ async function saveState(tx: Tx, tankId: string, ruleKey: string, state: Thresho
     .onConflictDoUpdate({ target: [alertRuleStates.tankId, alertRuleStates.ruleKey], set: { state } });
 }
 
-function openAlertFor(tx: Tx, tankId: string, ruleKey: string) {
-  return tx
-    .select()
-    .from(alerts)
-    .where(and(eq(alerts.tankId, tankId), eq(alerts.ruleKey, ruleKey), ne(alerts.status, 'resolved')))
-    .for('update')
-    .then((rows) => rows[0] ?? null);
-}
-
 interface Transition {
   kind: AlertKind;
   ruleKey: string;
@@ -135,65 +112,49 @@ interface Transition {
 }
 
 /**
- * Writes one transition: opens the alert (or changes the open one) and records the event.
- * Returns the event id, which is the outbox entry notifications are planned from.
+ * Writes one transition through the alert store: opens the alert, or changes the open one.
+ * Returns the event id (the outbox entry notifications are planned from), or null for no change.
  */
 async function applyTransition(
-  tx: Tx,
+  store: TankAlertStore,
   tank: TankContext,
   change: Transition,
   type: 'opened' | 'escalated' | 'de-escalated' | 'resolved',
 ): Promise<string | null> {
   const description = describeAlert(change.facts, { tankName: tank.name, timeZone: tank.timeZone });
-  const existing = await openAlertFor(tx, tank.id, change.ruleKey);
-  let alertId: string;
+  const content: AlertChange = {
+    severity: change.severity,
+    title: description.title,
+    body: description.body,
+    value: change.value,
+    limitValue: change.limit,
+    at: change.at,
+  };
   if (type === 'opened') {
-    if (existing) return null;
-    const [created] = await tx
-      .insert(alerts)
-      .values({
-        companyId: tank.companyId,
-        tankId: tank.id,
-        kind: change.kind,
-        ruleKey: change.ruleKey,
-        parameter: change.parameter,
-        severity: change.severity,
-        title: description.title,
-        body: description.body,
-        value: change.value,
-        limitValue: change.limit,
-        direction: change.direction,
-        openedAt: change.at,
-        lastSeenAt: change.at,
-      })
-      .returning({ id: alerts.id });
-    alertId = created!.id;
-  } else {
-    if (!existing) return null;
-    alertId = existing.id;
-    await tx
-      .update(alerts)
-      .set({
-        severity: change.severity,
-        title: description.title,
-        body: description.body,
-        value: change.value,
-        limitValue: change.limit,
-        lastSeenAt: change.at,
-        ...(type === 'resolved' ? { status: 'resolved' as const, resolvedAt: change.at } : {}),
-      })
-      .where(eq(alerts.id, alertId));
+    return store.open({
+      ...content,
+      companyId: tank.companyId,
+      kind: change.kind,
+      ruleKey: change.ruleKey,
+      parameter: change.parameter,
+      direction: change.direction,
+    });
   }
-  const [event] = await tx
-    .insert(alertEvents)
-    .values({ alertId, type, severity: change.severity, value: change.value, at: change.at })
-    .returning({ id: alertEvents.id });
-  return event!.id;
+  const existing = await store.findOpen(change.ruleKey);
+  if (!existing) return null;
+  if (type === 'escalated') return store.escalate(existing, content);
+  if (type === 'de-escalated') return store.deEscalate(existing, content);
+  return store.resolve(existing, { at: change.at, change: content });
 }
 
-async function evaluateLimit(tx: Tx, tank: TankContext, parameter: ParameterKey, batch: NewReading[]) {
+async function evaluateLimit(
+  store: TankAlertStore,
+  tank: TankContext,
+  parameter: ParameterKey,
+  batch: NewReading[],
+) {
   const ruleKey = `limit:${parameter}`;
-  let state = await loadState(tx, tank.id, ruleKey);
+  let state = await loadState(store.tx, tank.id, ruleKey);
   const events: string[] = [];
   const limits = tank.limits[parameter] ?? null;
   const { deadband } = parameterCatalogue[parameter];
@@ -227,60 +188,49 @@ async function evaluateLimit(tx: Tx, tank: TankContext, parameter: ParameterKey,
       },
     });
     if (outcome.action === 'open' && outcome.replacesOpenAlert) {
-      const previous = await openAlertFor(tx, tank.id, ruleKey);
-      if (previous) {
-        await tx
-          .update(alerts)
-          .set({ status: 'resolved', resolvedAt: reading.measuredAt })
-          .where(eq(alerts.id, previous.id));
-        const [closed] = await tx
-          .insert(alertEvents)
-          .values({
-            alertId: previous.id,
-            type: 'resolved',
-            severity: previous.severity,
-            value: reading.value,
-            at: reading.measuredAt,
-          })
-          .returning({ id: alertEvents.id });
-        events.push(closed!.id);
-      }
+      const previous = await store.findOpen(ruleKey);
+      if (previous)
+        events.push(await store.resolve(previous, { at: reading.measuredAt, value: reading.value }));
     }
     const type = (
       { open: 'opened', escalate: 'escalated', 'de-escalate': 'de-escalated', resolve: 'resolved' } as const
     )[outcome.action];
-    const id = await applyTransition(tx, tank, transition(outcome.action), type);
+    const id = await applyTransition(store, tank, transition(outcome.action), type);
     if (id) events.push(id);
   }
-  await saveState(tx, tank.id, ruleKey, state);
+  await saveState(store.tx, tank.id, ruleKey, state);
   return events;
 }
 
 /** Opens while the condition holds, resolves once it is gone; for rules judged on the latest value. */
-async function setCondition(tx: Tx, tank: TankContext, change: Transition | null, ruleKey: string, at: Date) {
-  const existing = await openAlertFor(tx, tank.id, ruleKey);
-  if (change && !existing) return applyTransition(tx, tank, change, 'opened');
+async function setCondition(
+  store: TankAlertStore,
+  tank: TankContext,
+  change: Transition | null,
+  ruleKey: string,
+  at: Date,
+) {
+  const existing = await store.findOpen(ruleKey);
+  if (change && !existing) return applyTransition(store, tank, change, 'opened');
   if (change && existing && existing.severity !== change.severity) {
     const rank = { notice: 0, warning: 1, critical: 2 } as const;
     return applyTransition(
-      tx,
+      store,
       tank,
       change,
       rank[change.severity] > rank[existing.severity] ? 'escalated' : 'de-escalated',
     );
   }
-  if (!change && existing) {
-    await tx.update(alerts).set({ status: 'resolved', resolvedAt: at }).where(eq(alerts.id, existing.id));
-    const [event] = await tx
-      .insert(alertEvents)
-      .values({ alertId: existing.id, type: 'resolved', severity: existing.severity, at })
-      .returning({ id: alertEvents.id });
-    return event!.id;
-  }
+  if (!change && existing) return store.resolve(existing, { at });
   return null;
 }
 
-async function evaluateLivestockRule(tx: Tx, tank: TankContext, parameter: ParameterKey, latest: NewReading) {
+async function evaluateLivestockRule(
+  store: TankAlertStore,
+  tank: TankContext,
+  parameter: ParameterKey,
+  latest: NewReading,
+) {
   if (tank.inhabitants.length === 0) return null;
   const concerns = evaluateLivestock(parameter, latest.value, tank.inhabitants);
   const ruleKey = `livestock:${parameter}`;
@@ -298,15 +248,20 @@ async function evaluateLivestockRule(tx: Tx, tank: TankContext, parameter: Param
           at: latest.measuredAt,
           facts: { kind: 'livestock', parameter, measuredAt: latest.measuredAt, concerns },
         };
-  return setCondition(tx, tank, change, ruleKey, latest.measuredAt);
+  return setCondition(store, tank, change, ruleKey, latest.measuredAt);
 }
 
-async function evaluateRateRule(tx: Tx, tank: TankContext, parameter: ParameterKey, latest: NewReading) {
+async function evaluateRateRule(
+  store: TankAlertStore,
+  tank: TankContext,
+  parameter: ParameterKey,
+  latest: NewReading,
+) {
   const rule = tank.rates[parameter] ?? parameterCatalogue[parameter].rateOfChange;
   if (!rule) return null;
   // Twice the rule's period: enough history for evaluateRate to average a slightly long gap.
   const windowStart = new Date(latest.measuredAt.getTime() - 2 * rule.perMs);
-  const series = await tx
+  const series = await store.tx
     .select({ value: readings.value, measuredAt: readings.measuredAt })
     .from(readings)
     .where(
@@ -320,11 +275,9 @@ async function evaluateRateRule(tx: Tx, tank: TankContext, parameter: ParameterK
     .orderBy(asc(readings.measuredAt));
   const outcome = evaluateRate(series, rule);
   const ruleKey = `rate:${parameter}`;
-  const existing = await openAlertFor(tx, tank.id, ruleKey);
   if (outcome.breach) {
-    if (existing) return null;
     return applyTransition(
-      tx,
+      store,
       tank,
       {
         kind: 'rate',
@@ -340,13 +293,13 @@ async function evaluateRateRule(tx: Tx, tank: TankContext, parameter: ParameterK
       'opened',
     );
   }
-  return outcome.settled ? setCondition(tx, tank, null, ruleKey, latest.measuredAt) : null;
+  return outcome.settled ? setCondition(store, tank, null, ruleKey, latest.measuredAt) : null;
 }
 
 /** Free ammonia needs the pH and temperature (and salinity) measured closest before the ammonia test. */
-async function evaluateFreeAmmoniaRule(tx: Tx, tank: TankContext, latest: NewReading) {
+async function evaluateFreeAmmoniaRule(store: TankAlertStore, tank: TankContext, latest: NewReading) {
   const nearest = async (parameter: ParameterKey) => {
-    const [row] = await tx
+    const [row] = await store.tx
       .select({ value: readings.value })
       .from(readings)
       .where(
@@ -390,7 +343,7 @@ async function evaluateFreeAmmoniaRule(tx: Tx, tank: TankContext, latest: NewRea
             measuredAt: latest.measuredAt,
           },
         };
-  return setCondition(tx, tank, change, ruleKey, latest.measuredAt);
+  return setCondition(store, tank, change, ruleKey, latest.measuredAt);
 }
 
 /**
@@ -404,9 +357,8 @@ export async function evaluateNewReadings(
   batch: readonly NewReading[],
 ): Promise<string[]> {
   if (batch.length === 0) return [];
-  return db.transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${tankId}))`);
-    const tank = await loadTank(tx, tankId);
+  return withTankAlerts(db, tankId, async (store) => {
+    const tank = await loadTank(store.tx, tankId);
     if (!tank) return [];
     const events: string[] = [];
     const byParameter = new Map<ParameterKey, NewReading[]>();
@@ -415,11 +367,11 @@ export async function evaluateNewReadings(
     for (const [parameter, list] of byParameter) {
       list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
       const latest = list.at(-1)!;
-      events.push(...(await evaluateLimit(tx, tank, parameter, list)));
+      events.push(...(await evaluateLimit(store, tank, parameter, list)));
       for (const id of [
-        await evaluateLivestockRule(tx, tank, parameter, latest),
-        await evaluateRateRule(tx, tank, parameter, latest),
-        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(tx, tank, latest) : null,
+        await evaluateLivestockRule(store, tank, parameter, latest),
+        await evaluateRateRule(store, tank, parameter, latest),
+        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(store, tank, latest) : null,
       ]) {
         if (id) events.push(id);
       }

@@ -9,6 +9,7 @@ import { queues } from '../lib/job-queue';
 import { visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
 import { evaluateNewReadings, type NewReading } from './alert-engine';
+import { withTankAlerts } from './alert-store';
 import { fanOutAlertEvent } from './notify';
 
 const acknowledger = aliasedTable(users, 'acknowledger');
@@ -109,27 +110,11 @@ export async function getAlert(db: Db, actor: Actor, alertId: string): Promise<A
 
 export async function acknowledgeAlert(deps: AppDeps, actor: Actor, alertId: string, note?: string) {
   const { alert } = await findAlertFor(deps.db, actor, alertId);
-  if (alert.status !== 'open') throw conflict('not_open', 'Only an open alert can be acknowledged.');
-  const now = deps.clock();
-  const eventId = await deps.db.transaction(async (tx) => {
-    await tx
-      .update(alerts)
-      .set({ status: 'acknowledged', acknowledgedAt: now, acknowledgedBy: actor.id })
-      .where(eq(alerts.id, alert.id));
-    const [event] = await tx
-      .insert(alertEvents)
-      // Acknowledging tells nobody new; it is recorded, and the board updates live.
-      .values({
-        alertId: alert.id,
-        type: 'acknowledged',
-        severity: alert.severity,
-        note: note ?? null,
-        actorId: actor.id,
-        at: now,
-        fannedOutAt: now,
-      })
-      .returning({ id: alertEvents.id });
-    return event!.id;
+  const eventId = await withTankAlerts(deps.db, alert.tankId, async (store) => {
+    // Read again under the tank's lock: a reading batch or a colleague may have just changed it.
+    const current = await store.find(alert.id);
+    if (current?.status !== 'open') throw conflict('not_open', 'Only an open alert can be acknowledged.');
+    return store.acknowledge(current, { actorId: actor.id, note: note ?? null, at: deps.clock() });
   });
   await announceAlertChange(deps, alert.tankId, alert.companyId, alert.id);
   return { eventId, alert: await getAlert(deps.db, actor, alert.id) };
@@ -137,25 +122,11 @@ export async function acknowledgeAlert(deps: AppDeps, actor: Actor, alertId: str
 
 export async function resolveAlert(deps: AppDeps, actor: Actor, alertId: string, note: string) {
   const { alert } = await findAlertFor(deps.db, actor, alertId);
-  if (alert.status === 'resolved') throw conflict('already_resolved', 'This alert is already resolved.');
-  const now = deps.clock();
-  const eventId = await deps.db.transaction(async (tx) => {
-    await tx
-      .update(alerts)
-      .set({ status: 'resolved', resolvedAt: now, resolvedBy: actor.id })
-      .where(eq(alerts.id, alert.id));
-    const [event] = await tx
-      .insert(alertEvents)
-      .values({
-        alertId: alert.id,
-        type: 'resolved',
-        severity: alert.severity,
-        note,
-        actorId: actor.id,
-        at: now,
-      })
-      .returning({ id: alertEvents.id });
-    return event!.id;
+  const eventId = await withTankAlerts(deps.db, alert.tankId, async (store) => {
+    const current = await store.find(alert.id);
+    if (!current || current.status === 'resolved')
+      throw conflict('already_resolved', 'This alert is already resolved.');
+    return store.resolve(current, { at: deps.clock(), actorId: actor.id, note });
   });
   await afterAlertEvents(deps, [eventId]);
   return getAlert(deps.db, actor, alert.id);

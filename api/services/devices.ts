@@ -17,6 +17,12 @@ export interface DeviceIdentity {
 /** Says "a Brinewatch device token" to secret scanners and to the person pasting it. */
 const tokenPrefix = 'bwd_';
 
+/** A new device token with what is stored of it: its hash, and a hint staff can tell it by. */
+export function issueDeviceToken(): { token: string; tokenHash: string; tokenHint: string } {
+  const token = `${tokenPrefix}${newSecretToken()}`;
+  return { token, tokenHash: hashToken(token), tokenHint: token.slice(0, tokenPrefix.length + 6) };
+}
+
 type DeviceRow = typeof devices.$inferSelect;
 
 function present(row: DeviceRow): DeviceSummary {
@@ -48,17 +54,10 @@ export async function createDevice(
   name: string,
 ): Promise<CreatedDevice> {
   const tank = await findTankFor(db, actor, tankId, 'write');
-  const token = `${tokenPrefix}${newSecretToken()}`;
+  const { token, tokenHash, tokenHint } = issueDeviceToken();
   const [row] = await db
     .insert(devices)
-    .values({
-      companyId: tank.companyId,
-      tankId: tank.id,
-      name,
-      tokenHash: hashToken(token),
-      tokenHint: token.slice(0, tokenPrefix.length + 6),
-      createdBy: actor.id,
-    })
+    .values({ companyId: tank.companyId, tankId: tank.id, name, tokenHash, tokenHint, createdBy: actor.id })
     .returning();
   return { device: present(row!), token };
 }

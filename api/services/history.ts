@@ -4,7 +4,7 @@ import type { ReadingBucket, ReadingHistory, ReadingHistoryQuery } from '@shared
 import type { Db } from '../db/client';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
-import { limitsInForce } from './limits';
+import { parameterLimitsInForce } from './limits';
 import { readingColumns, readingFromRow, type ReadingRow } from './readings';
 
 type BucketRow = {
@@ -48,7 +48,7 @@ export async function readingHistory(
       where ${window}
       group by 1
       order by 1`),
-    limitsInForce(db, tank, parameter),
+    parameterLimitsInForce(db, tank, parameter),
   ]);
   const total = bucketed.rows.reduce((sum, row) => sum + row.count, 0);
   const base = { parameter, from, to, total, limits };

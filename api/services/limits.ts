@@ -3,6 +3,7 @@ import { catalogueSource } from '@shared/livestock/catalogue';
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates, limitTemplatesSource } from '@shared/parameters/limit-templates';
+import { limitsInForce } from '@shared/parameters/limits-in-force';
 import {
   rateRuleInHours,
   type ParameterLimits,
@@ -46,15 +47,17 @@ const defaultRateOf = (parameter: ParameterKey): TankRateRule | null => {
   return rule ? rateRuleInHours(rule) : null;
 };
 
-/** The tank's own limits for a parameter, else its style's template, else none. */
-export async function limitsInForce(db: Db, tank: TankRow, parameter: ParameterKey): Promise<LimitsInForce> {
-  const [row] = await db
+/** The limits in force for one parameter of a tank (see `limitsInForce`), or none. */
+export async function parameterLimitsInForce(
+  db: Db,
+  tank: TankRow,
+  parameter: ParameterKey,
+): Promise<LimitsInForce> {
+  const rows = await db
     .select()
     .from(tankLimits)
     .where(and(eq(tankLimits.tankId, tank.id), eq(tankLimits.parameter, parameter)));
-  if (row) return { limits: boundsOf(row), source: 'tank' };
-  const template = limitTemplates[tank.style][parameter];
-  return template ? { limits: template, source: 'template' } : { limits: null, source: null };
+  return limitsInForce(tank.style, rows)[parameter] ?? { limits: null, source: null };
 }
 
 export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<TankLimitsView> {
@@ -65,6 +68,7 @@ export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<T
   ]);
   const own = new Map(rows.map((row) => [row.parameter, row]));
   const template = limitTemplates[tank.style];
+  const inForce = limitsInForce(tank.style, rows);
   const names = new Map(comfort.species.map((s) => [s.id, s.commonName]));
   const named = (ids: string[]) => ids.map((id) => names.get(id) ?? id);
   // The water type's parameters, plus any the tank has limits for anyway.
@@ -77,8 +81,8 @@ export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<T
       const band = comfort.ranges[parameter];
       return {
         parameter,
-        limits: row ? boundsOf(row) : fromTemplate,
-        source: row ? 'tank' : fromTemplate ? 'template' : null,
+        limits: inForce[parameter]?.limits ?? null,
+        source: inForce[parameter]?.source ?? null,
         template: fromTemplate,
         comfort: band
           ? {

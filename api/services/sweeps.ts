@@ -1,59 +1,28 @@
-import { and, eq, inArray, isNotNull, isNull, ne, sql } from 'drizzle-orm';
+import { eq, inArray, isNull, sql } from 'drizzle-orm';
 import { describeAlert } from '@shared/alerts/describe-alert';
-import { deviceStaleAfterMs, parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
+import { evaluateOverdue } from '@shared/alerts/overdue';
+import { evaluateStaleDevice } from '@shared/alerts/stale-device';
+import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { AppDeps } from '../deps';
-import { alertEvents, alerts, companies, devices, readings, tanks } from '../db/schema/index';
+import { companies, devices, readings, tanks } from '../db/schema/index';
+import { withTankAlerts, type NewAlert } from './alert-store';
 
-type Opened = { eventId: string };
-
-async function openIfNone(
-  deps: AppDeps,
-  values: Omit<typeof alerts.$inferInsert, 'status'>,
-): Promise<Opened | null> {
-  return deps.db.transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${values.tankId}))`);
-    const [existing] = await tx
-      .select({ id: alerts.id })
-      .from(alerts)
-      .where(
-        and(
-          eq(alerts.tankId, values.tankId),
-          eq(alerts.ruleKey, values.ruleKey),
-          ne(alerts.status, 'resolved'),
-        ),
-      );
-    if (existing) return null;
-    const [alert] = await tx.insert(alerts).values(values).returning({ id: alerts.id });
-    const [event] = await tx
-      .insert(alertEvents)
-      .values({ alertId: alert!.id, type: 'opened', severity: values.severity, at: values.openedAt })
-      .returning({ id: alertEvents.id });
-    return { eventId: event!.id };
-  });
-}
-
-async function resolveOpen(deps: AppDeps, tankId: string, ruleKey: string, at: Date): Promise<string | null> {
-  return deps.db.transaction(async (tx) => {
-    const [existing] = await tx
-      .select({ id: alerts.id, severity: alerts.severity })
-      .from(alerts)
-      .where(and(eq(alerts.tankId, tankId), eq(alerts.ruleKey, ruleKey), ne(alerts.status, 'resolved')))
-      .for('update');
-    if (!existing) return null;
-    await tx.update(alerts).set({ status: 'resolved', resolvedAt: at }).where(eq(alerts.id, existing.id));
-    const [event] = await tx
-      .insert(alertEvents)
-      .values({ alertId: existing.id, type: 'resolved', severity: existing.severity, at })
-      .returning({ id: alertEvents.id });
-    return event!.id;
+/**
+ * One sweep's verdict on one subject: open `alert` while the condition holds, else resolve
+ * whatever is open under `ruleKey`. Each runs under its tank's lock, like every alert change.
+ */
+async function settle(deps: AppDeps, tankId: string, ruleKey: string, alert: NewAlert | null, now: Date) {
+  return withTankAlerts(deps.db, tankId, async (store) => {
+    if (alert) return store.open(alert);
+    const open = await store.findOpen(ruleKey);
+    return open ? store.resolve(open, { at: now }) : null;
   });
 }
 
 /** A device silent for longer than it should be (30 minutes) opens one alert; its next reading closes it. */
 export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
   const now = deps.clock();
-  const cutoff = new Date(now.getTime() - deviceStaleAfterMs);
   const rows = await deps.db
     .select({
       device: devices,
@@ -63,38 +32,38 @@ export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
     .from(devices)
     .innerJoin(tanks, eq(tanks.id, devices.tankId))
     .innerJoin(companies, eq(companies.id, tanks.companyId))
-    .where(and(isNull(devices.revokedAt), isNotNull(devices.lastSeenAt)));
+    .where(isNull(devices.revokedAt));
   const events: string[] = [];
   for (const { device, tankName, timeZone } of rows) {
     const ruleKey = `device-stale:${device.id}`;
-    const lastSeen = device.lastSeenAt!;
-    if (lastSeen < cutoff) {
+    const outcome = evaluateStaleDevice(device, now);
+    let alert: NewAlert | null = null;
+    if (outcome.stale) {
       const text = describeAlert(
         {
           kind: 'device-stale',
           deviceName: device.name,
-          lastSeen,
-          silentForMs: now.getTime() - lastSeen.getTime(),
+          lastSeen: device.lastSeenAt,
+          silentForMs: outcome.silentForMs,
         },
         { tankName, timeZone },
       );
-      const opened = await openIfNone(deps, {
+      alert = {
         companyId: device.companyId,
-        tankId: device.tankId,
         kind: 'device-stale',
         ruleKey,
         parameter: null,
         severity: text.severity,
         title: text.title,
         body: text.body,
-        openedAt: now,
-        lastSeenAt: now,
-      });
-      if (opened) events.push(opened.eventId);
-    } else {
-      const resolved = await resolveOpen(deps, device.tankId, ruleKey, now);
-      if (resolved) events.push(resolved);
+        value: null,
+        limitValue: null,
+        direction: null,
+        at: now,
+      };
     }
+    const eventId = await settle(deps, device.tankId, ruleKey, alert, now);
+    if (eventId) events.push(eventId);
   }
   return events;
 }
@@ -134,28 +103,29 @@ export async function sweepOverdueTests(deps: AppDeps): Promise<string[]> {
     const interval = parameterCatalogue[parameter].homeTestIntervalMs;
     if (interval === null || !parametersFor(row.waterType).includes(parameter)) continue;
     const ruleKey = `test-overdue:${parameter}`;
-    if (now.getTime() - row.lastAt.getTime() <= interval) {
-      const resolved = await resolveOpen(deps, row.tankId, ruleKey, now);
-      if (resolved) events.push(resolved);
-      continue;
+    const outcome = evaluateOverdue(row.lastAt, interval, now);
+    let alert: NewAlert | null = null;
+    if (outcome.overdue) {
+      const text = describeAlert(
+        { kind: 'test-overdue', parameter, lastMeasuredAt: row.lastAt, intervalMs: interval, now },
+        { tankName: row.tankName, timeZone: row.timeZone },
+      );
+      alert = {
+        companyId: row.companyId,
+        kind: 'test-overdue',
+        ruleKey,
+        parameter,
+        severity: outcome.severity,
+        title: text.title,
+        body: text.body,
+        value: null,
+        limitValue: null,
+        direction: null,
+        at: now,
+      };
     }
-    const text = describeAlert(
-      { kind: 'test-overdue', parameter, lastMeasuredAt: row.lastAt, intervalMs: interval, now },
-      { tankName: row.tankName, timeZone: row.timeZone },
-    );
-    const opened = await openIfNone(deps, {
-      companyId: row.companyId,
-      tankId: row.tankId,
-      kind: 'test-overdue',
-      ruleKey,
-      parameter,
-      severity: 'notice',
-      title: text.title,
-      body: text.body,
-      openedAt: now,
-      lastSeenAt: now,
-    });
-    if (opened) events.push(opened.eventId);
+    const eventId = await settle(deps, row.tankId, ruleKey, alert, now);
+    if (eventId) events.push(eventId);
   }
   return events;
 }

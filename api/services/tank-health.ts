@@ -53,8 +53,9 @@ type HealthRow = {
  * - the latest reading per (tank, parameter) is one backward probe of readings_history_idx per
  *   pair (LATERAL … ORDER BY measured_at DESC LIMIT 1), so the cost follows the number of tanks,
  *   not the years of history behind them;
- * - limits are the tank's own row, else its style's template; a parameter is watched when its
- *   limits have at least one bound, and only watched parameters decide the status;
+ * - limits follow `limitsInForce` (shared/parameters/limits-in-force.ts: the tank's own row, else
+ *   its style's template), tested against it; a parameter is watched when its limits have at least
+ *   one bound, and only watched parameters decide the status;
  * - rule 1: strictly beyond a bound, critical before warning; rule 2: out-of-limits readings keep
  *   their severity at any age; rule 3: stale when now − measured_at > the interval for the
  *   reading's source (null interval: never), or with no reading at all; rule 4: the tank status.

@@ -49,7 +49,8 @@ export type AlertFacts =
   | {
       readonly kind: 'device-stale';
       readonly deviceName: string;
-      readonly lastSeen: Date;
+      /** Null for a device that has not reported since it was added. */
+      readonly lastSeen: Date | null;
       readonly silentForMs: number;
     }
   | {
@@ -201,8 +202,11 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         severity: 'warning',
         title: `No recent readings from ${facts.deviceName} in ${tankName}`,
         body:
-          `${facts.deviceName} last sent a reading at ${formatTime(facts.lastSeen, timeZone)}, ` +
-          `${formatDuration(facts.silentForMs)} ago. The tank may be fine, but nobody can see it until the device reports again.`,
+          (facts.lastSeen
+            ? `${facts.deviceName} last sent a reading at ${formatTime(facts.lastSeen, timeZone)}, ` +
+              `${formatDuration(facts.silentForMs)} ago.`
+            : `${facts.deviceName} has sent no reading since it was added ${formatDuration(facts.silentForMs)} ago.`) +
+          ' The tank may be fine, but nobody can see it until the device reports again.',
         firstSteps: deviceStaleFirstSteps(),
       };
     }

@@ -1,5 +1,11 @@
 import { deviceStaleAfterMs } from '@shared/parameters/catalogue';
 
+export interface DeviceSightings {
+  /** Null while the device has never sent a reading. */
+  readonly lastSeenAt: Date | null;
+  readonly createdAt: Date;
+}
+
 export interface StaleDeviceOutcome {
   readonly stale: boolean;
   readonly silentForMs: number;
@@ -7,14 +13,16 @@ export interface StaleDeviceOutcome {
 }
 
 /**
- * Same rule as tank health: silent for strictly longer than `staleAfterMs`. For a device that has
- * never reported, pass the time it was added, so a new device gets the same grace.
+ * Same rule as tank health: silent for strictly longer than `staleAfterMs`. A device that has never
+ * reported is measured from when it was added: a new device gets the same grace as a reading, and
+ * one set up but never connected is stale once that grace has passed rather than never.
  */
 export function evaluateStaleDevice(
-  lastSeen: Date,
+  device: DeviceSightings,
   now: Date,
   staleAfterMs: number = deviceStaleAfterMs,
 ): StaleDeviceOutcome {
-  const silentForMs = Math.max(0, now.getTime() - lastSeen.getTime());
+  const since = device.lastSeenAt ?? device.createdAt;
+  const silentForMs = Math.max(0, now.getTime() - since.getTime());
   return { stale: silentForMs > staleAfterMs, silentForMs, staleAfterMs };
 }

@@ -93,7 +93,7 @@ describe('alert notifications', () => {
 
   it('e-mails a critical alert with plain-text and HTML bodies, first steps and a List-Unsubscribe header', async () => {
     await raiseCriticalAlert();
-    const mail = await stack.mail.waitFor((m) => m.to.includes(owner.email), 10_000);
+    const mail = await stack.mail.waitFor((m) => m.to.includes(owner.email), 60_000);
 
     expect(mail.subject).toBe('Critical: Temperature critically high in Lobby reef');
     expect(mail.text).toContain('30.2 °C');
@@ -106,22 +106,23 @@ describe('alert notifications', () => {
   it('sends the e-mail exactly once after the mail server comes back', async () => {
     await stack.mail.pause();
     await raiseCriticalAlert();
-    await new Promise((resolve) => setTimeout(resolve, 3000));
-    const [pending] = await stack.database.db
-      .select()
-      .from(deliveries)
-      .where(eq(deliveries.channel, 'email'));
+    // Wait for a failed attempt however long a loaded machine takes (the test's timeout bounds it).
+    let pending: typeof deliveries.$inferSelect | undefined;
+    while (!pending?.attempts) {
+      await new Promise((resolve) => setTimeout(resolve, 250));
+      [pending] = await stack.database.db.select().from(deliveries).where(eq(deliveries.channel, 'email'));
+    }
     expect(pending).toMatchObject({ status: 'pending' });
     expect(pending!.attempts).toBeGreaterThan(0);
 
     await stack.mail.resume();
-    await stack.mail.waitFor((m) => m.to.includes(owner.email), 30_000);
+    await stack.mail.waitFor((m) => m.to.includes(owner.email), 60_000);
     await new Promise((resolve) => setTimeout(resolve, 3000));
 
     expect(stack.mail.messages().filter((m) => m.to.includes(owner.email))).toHaveLength(1);
     const [sent] = await stack.database.db.select().from(deliveries).where(eq(deliveries.id, pending!.id));
     expect(sent!.status).toBe('sent');
-  }, 60_000);
+  }, 120_000);
 
   it('pushes an encrypted payload the push service can decrypt, with valid VAPID, TTL, urgency and topic', async () => {
     const subscription = await subscribeOwnerToPush();
@@ -176,7 +177,7 @@ describe('alert notifications', () => {
         },
       )
       .toMatchObject({ status: 'sent', attempts: 3 });
-  }, 60_000);
+  }, 120_000);
 
   it('marks a delivery that ran out of retries as failed and lists it for staff', async () => {
     await stack.mail.pause();
@@ -223,7 +224,7 @@ describe('alert notifications', () => {
     } finally {
       await stack.mail.resume();
     }
-  }, 30_000);
+  }, 120_000);
 
   it('reaches a live-event client connected to a second API instance on the same database', async () => {
     const logger = createLogger('silent');
@@ -259,7 +260,7 @@ describe('alert notifications', () => {
       while (!text.includes('event: ready')) await new Promise((resolve) => setTimeout(resolve, 20));
 
       await raiseCriticalAlert();
-      await Promise.race([seen, new Promise((resolve) => setTimeout(resolve, 5000))]);
+      await seen;
       controller.abort();
 
       expect(text).toContain('event: alert');

@@ -22,7 +22,7 @@ describe('scheduled alert sweeps', () => {
     await stack.database.pool.query('delete from alerts; delete from readings; delete from devices');
   });
 
-  async function addDevice(lastSeenAt: Date) {
+  async function addDevice(lastSeenAt: Date | null, createdAt?: Date) {
     const [device] = await stack.database.db
       .insert(devices)
       .values({
@@ -32,6 +32,7 @@ describe('scheduled alert sweeps', () => {
         tokenHash: hashToken(newSecretToken()),
         tokenHint: 'bw_xxxx',
         lastSeenAt,
+        ...(createdAt ? { createdAt } : {}),
       })
       .returning();
     return device!;
@@ -62,6 +63,20 @@ describe('scheduled alert sweeps', () => {
   it('leaves a device that reported 29 minutes ago alone', async () => {
     await addDevice(new Date(stack.clock.now().getTime() - minutes(29)));
     expect(await sweepStaleDevices(stack.deps)).toEqual([]);
+  });
+
+  it('gives a device that has never reported 30 minutes from when it was added, then opens an alert', async () => {
+    const added = stack.clock.now();
+    await addDevice(null, added);
+
+    stack.clock.advance(minutes(29));
+    expect(await sweepStaleDevices(stack.deps)).toEqual([]);
+
+    stack.clock.advance(minutes(16));
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
+    const [open] = await stack.database.db.select().from(alerts);
+    expect(open).toMatchObject({ kind: 'device-stale', status: 'open' });
+    expect(open!.body).toMatch(/^Sump probe has sent no reading since it was added 45 minutes ago\./);
   });
 
   it('raises a low-urgency notice when a home test is overdue, and clears it after a new test', async () => {

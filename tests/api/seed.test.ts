@@ -4,8 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findSpecies } from '@shared/livestock/catalogue';
 import { checkCompatibility } from '@shared/livestock/compatibility';
 import { equipmentInput } from '@shared/schemas/equipment';
-import { demoId, seedDemo } from '../../api/db/seed/index';
-import { demoEquipment, demoLivestock, demoTanks } from '../../api/db/seed/scenario';
+import { demoId, seedDemo } from '../../api/dev/seed/index';
+import { demoEquipment, demoLivestock, demoTanks } from '../../api/dev/seed/scenario';
 import { createTestDatabase, type TestDatabase } from '../helpers/db';
 import { startTestStorage, type TestStorage } from './photos/test-storage';
 
@@ -55,7 +55,9 @@ describe('demo seed', () => {
     expect((await database.db.execute(sql`select object_key from photos order by id`)).rows).toEqual(
       photoKeys.rows,
     );
-  });
+    // A year of device readings (about 840,000 rows) twice over; took about 50 s on a loaded 2-core
+    // machine, so this bounds a hang, not the speed.
+  }, 300_000);
 
   it('stores each photo as a re-encoded WebP the API can serve', async () => {
     const cover = demoId('photo:ashdown-reef:cover');

@@ -12,6 +12,7 @@ import {
 } from '@shared/parameters/health';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates, tankStyles, type TankStyle } from '@shared/parameters/limit-templates';
+import { limitsInForce, type OwnLimits } from '@shared/parameters/limits-in-force';
 import type { ParameterLimits } from '@shared/schemas/limits';
 import { readingSources, type ReadingSource } from '@shared/schemas/readings';
 import { days, hours, minutes } from '../helpers/clock';
@@ -184,6 +185,59 @@ describe('healthForTanks', () => {
     expect(count).toBe(1);
   });
 
+  it('judges by the limits in force (shared/parameters/limits-in-force.ts) for tanks with different overrides', async () => {
+    const unwatched = { warnLow: null, warnHigh: null, critLow: null, critHigh: null };
+    const cases: { style: TankStyle; own: OwnLimits[] }[] = [
+      { style: 'sps-reef', own: [] },
+      {
+        style: 'mixed-reef',
+        own: [
+          { parameter: 'temperature', warnLow: 23, warnHigh: 26, critLow: null, critHigh: 28 },
+          { parameter: 'orp', ...unwatched },
+        ],
+      },
+      // Rows for parameters the style leaves out: one watched, one not.
+      {
+        style: 'planted-freshwater',
+        own: [
+          { parameter: 'salinity', warnLow: null, warnHigh: 1, critLow: null, critHigh: 2 },
+          { parameter: 'orp', ...unwatched },
+          { parameter: 'nitrate', warnLow: null, warnHigh: 20, critLow: null, critHigh: 40 },
+        ],
+      },
+      { style: 'brackish', own: parameterKeys.map((parameter) => ({ parameter, ...unwatched })) },
+    ];
+    const ids: string[] = [];
+    for (const { style, own } of cases) {
+      // One reading of every parameter, so each is listed whether it is watched or not.
+      const id = await tankWith(
+        parameterKeys.map((parameter) => ({ parameter, value: 1, at: ago(minutes(5)) })),
+        style,
+      );
+      if (own.length > 0) await db.insert(tankLimits).values(own.map((row) => ({ tankId: id, ...row })));
+      ids.push(id);
+    }
+
+    const health = await healthForTanks(db, ids, now);
+
+    cases.forEach(({ style, own }, index) => {
+      const inForce = limitsInForce(style, own);
+      const listed = health.get(ids[index]!)!.parameters;
+      expect(listed.map((p) => p.parameter)).toEqual([...parameterKeys]);
+      for (const p of listed) {
+        const expected = inForce[p.parameter];
+        expect({ parameter: p.parameter, limits: p.limits, source: p.limitsSource }).toEqual({
+          parameter: p.parameter,
+          limits: expected?.limits ?? null,
+          source: expected?.source ?? null,
+        });
+        expect(p.watched).toBe(
+          expected !== undefined && Object.values(expected.limits).some((bound) => bound !== null),
+        );
+      }
+    });
+  });
+
   it('agrees with parameterHealth and tankStatus (shared/parameters/health.ts) on generated data', async () => {
     const random = seeded(20261201);
     const pick = <T>(items: readonly T[]) => items[Math.floor(random() * items.length)]!;
@@ -257,7 +311,8 @@ function expectedHealth(
 ) {
   const judged: [ParameterKey, ParameterHealth, boolean][] = [];
   for (const parameter of parameterKeys) {
-    const limits = tank.own.get(parameter) ?? limitTemplates[tank.style][parameter] ?? null;
+    const own = [...tank.own].map(([key, bounds]) => ({ parameter: key, ...bounds }));
+    const limits = limitsInForce(tank.style, own)[parameter]?.limits ?? null;
     const watched = limits !== null && Object.values(limits).some((bound) => bound !== null);
     const mine = tank.rows
       .filter((r) => r.parameter === parameter)

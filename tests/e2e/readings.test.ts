@@ -2,8 +2,8 @@ import pg from 'pg';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { connectDatabase } from '../../api/db/client';
-import { demoId } from '../../api/db/seed/index';
-import { seedDemoReadings } from '../../api/db/seed/readings';
+import { demoId } from '../../api/dev/seed/index';
+import { seedDemoReadings } from '../../api/dev/seed/readings';
 import { demoPassword } from '../../api/dev/demo-people';
 import { axeViolations, openBrowser, screenshot, type BrowserSession } from '../helpers/browser';
 

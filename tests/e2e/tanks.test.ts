@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoId } from '../../api/db/seed/index';
+import { demoId } from '../../api/dev/seed/index';
 import { demoPassword } from '../../api/dev/demo-people';
 import { axeViolations, openBrowser, screenshot, viewports, type BrowserSession } from '../helpers/browser';
 

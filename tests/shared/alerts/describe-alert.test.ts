@@ -141,6 +141,15 @@ describe('describeAlert', () => {
     expect(description.firstSteps?.cautions.join(' ')).toMatch(/licensed electrician/);
   });
 
+  it('says so when a silent device has never reported', () => {
+    const description = describeAlert(
+      { kind: 'device-stale', deviceName: 'Sump probe', lastSeen: null, silentForMs: minutes(45) },
+      context,
+    );
+
+    expect(description.body).toMatch(/^Sump probe has sent no reading since it was added 45 minutes ago\./);
+  });
+
   it('reminds, with low urgency, when a home test is overdue', () => {
     const description = describeAlert(
       {

@@ -1,8 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateStaleDevice } from '@shared/alerts/stale-device';
 import { deviceStaleAfterMs } from '@shared/parameters/catalogue';
-import { createTestClock, minutes } from '../../helpers/clock';
+import { createTestClock, days, minutes } from '../../helpers/clock';
 import { seriesStart } from './reading-series';
+
+/** A device added a day before its last reading. */
+const reportedAt = (lastSeenAt: Date) => ({
+  lastSeenAt,
+  createdAt: new Date(lastSeenAt.getTime() - days(1)),
+});
 
 describe('evaluateStaleDevice', () => {
   it('treats a device as silent after 30 minutes without a reading', () => {
@@ -10,9 +16,9 @@ describe('evaluateStaleDevice', () => {
     const lastSeen = clock.now();
 
     clock.advance(minutes(30));
-    const onTime = evaluateStaleDevice(lastSeen, clock.now());
+    const onTime = evaluateStaleDevice(reportedAt(lastSeen), clock.now());
     clock.advance(1);
-    const late = evaluateStaleDevice(lastSeen, clock.now());
+    const late = evaluateStaleDevice(reportedAt(lastSeen), clock.now());
 
     expect(deviceStaleAfterMs).toBe(minutes(30));
     expect(onTime.stale).toBe(false);
@@ -24,7 +30,7 @@ describe('evaluateStaleDevice', () => {
     const lastSeen = clock.now();
     clock.advance(minutes(45));
 
-    expect(evaluateStaleDevice(lastSeen, clock.now())).toEqual({
+    expect(evaluateStaleDevice(reportedAt(lastSeen), clock.now())).toEqual({
       stale: true,
       silentForMs: minutes(45),
       staleAfterMs: minutes(30),
@@ -36,6 +42,19 @@ describe('evaluateStaleDevice', () => {
     const lastSeen = clock.now();
     clock.advance(minutes(45));
 
-    expect(evaluateStaleDevice(lastSeen, clock.now(), minutes(60)).stale).toBe(false);
+    expect(evaluateStaleDevice(reportedAt(lastSeen), clock.now(), minutes(60)).stale).toBe(false);
+  });
+
+  it('measures a device that has never reported from when it was added', () => {
+    const clock = createTestClock(new Date(seriesStart));
+    const device = { lastSeenAt: null, createdAt: clock.now() };
+
+    clock.advance(minutes(30));
+    const justAdded = evaluateStaleDevice(device, clock.now());
+    clock.advance(minutes(15));
+    const neverConnected = evaluateStaleDevice(device, clock.now());
+
+    expect(justAdded.stale).toBe(false);
+    expect(neverConnected).toEqual({ stale: true, silentForMs: minutes(45), staleAfterMs: minutes(30) });
   });
 });

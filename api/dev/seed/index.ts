@@ -1,12 +1,12 @@
-import { createHash } from 'node:crypto';
 import { and, asc, eq, gte, sql } from 'drizzle-orm';
 import { addDays } from '@shared/schemas/equipment';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
-import { demoPeople } from '../../dev/demo-people';
+import { demoPeople } from '../demo-people';
 import type { ObjectStorage } from '../../lib/object-storage';
-import type { Db } from '../client';
-import { seedDemoReadings } from './readings';
+import type { Db } from '../../db/client';
 import { evaluateNewReadings } from '../../services/alert-engine';
+import { demoId, demoLivestockId, demoTankId } from './ids';
+import { seedDemoReadings } from './readings';
 import {
   alerts,
   companies,
@@ -17,20 +17,13 @@ import {
   tankMembers,
   tanks,
   users,
-} from '../schema/index';
+} from '../../db/schema/index';
 import { seedDemoPhotos } from './photos';
 import { demoEquipment, demoLivestock, demoTanks } from './scenario';
 
 export { demoTanks } from './scenario';
 
-/** Stable ids for demo rows (name-based, like UUID v5), so seeding twice updates in place. */
-export function demoId(key: string): string {
-  const hex = createHash('sha1').update(`brinewatch-demo:${key}`).digest('hex');
-  return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-5${hex.slice(13, 16)}-a${hex.slice(17, 20)}-${hex.slice(20, 32)}`;
-}
-
-export const demoTankId = (tankKey: string) => demoId(tankKey);
-export const demoLivestockId = (tankKey: string, key: string) => demoId(`livestock:${tankKey}:${key}`);
+export { demoId, demoLivestockId, demoTankId } from './ids';
 
 export const demoCompanies = [
   { slug: 'driftglass', name: 'Driftglass Aquatic Care', timeZone: 'Europe/London' },

@@ -5,18 +5,19 @@
  * restaurant lagoon (still going on: that tank is on watch), and an alkalinity swing in the
  * living-room reef after its doser ran dry and was then over-corrected.
  */
-import { randomBytes } from 'node:crypto';
 import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import { dayMs, hourMs, minuteMs, parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates, type TankStyle } from '@shared/parameters/limit-templates';
+import { limitsInForce, type OwnLimits } from '@shared/parameters/limits-in-force';
 import { fromStored, toStored, unitDecimals, type UnitContext } from '@shared/parameters/units';
 import type { ParameterLimits } from '@shared/schemas/limits';
 import type { ManualSource } from '@shared/schemas/readings';
-import { hashToken, newSecretToken } from '../../lib/tokens';
-import type { Db } from '../client';
-import { devices, readings, tankLimits, tankMembers, tanks, users } from '../schema/index';
-import { demoId, demoTanks } from './index';
+import type { Db } from '../../db/client';
+import { devices, readings, tankLimits, tankMembers, tanks, users } from '../../db/schema/index';
+import { issueDeviceToken } from '../../services/devices';
+import { demoId } from './ids';
+import { demoTanks } from './scenario';
 
 type DemoTankKey = 'ashdown-reef' | 'ashdown-river' | 'quayside-reef' | 'saltfig-lagoon' | 'ferrous-planted';
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -200,18 +201,45 @@ export async function seedDemoReadings(db: Db, now: Date): Promise<void> {
       if (deviceId) await seedDeviceHistory(tx, tank, deviceId, now);
     }
     const manual = demo.flatMap((tank) => manualHistory(tank, now, Boolean(deviceIds.get(tank.key))));
-    for (let start = 0; start < manual.length; start += 1000) {
-      await tx.insert(readings).values(manual.slice(start, start + 1000));
-    }
+    await insertManualReadings(tx, manual);
   });
 }
 
+/** All the hand readings in one INSERT over unnest(): one statement and 13 parameters, not one per value. */
+async function insertManualReadings(tx: Tx, rows: ManualReading[]) {
+  if (rows.length === 0) return;
+  const column = <T>(pick: (row: ManualReading) => T) => sql.param(rows.map(pick));
+  await tx.execute(sql`
+    insert into readings
+      (company_id, tank_id, parameter, value, entered_value, entered_unit, measured_at, source,
+       recorded_by, method, note, sample_temp_c, reference_temp_c)
+    select * from unnest(
+      ${column((r) => r.companyId)}::uuid[],
+      ${column((r) => r.tankId)}::uuid[],
+      ${column((r) => r.parameter)}::parameter_key[],
+      ${column((r) => r.value)}::float8[],
+      ${column((r) => r.enteredValue)}::float8[],
+      ${column((r) => r.enteredUnit)}::text[],
+      ${column((r) => r.measuredAt.toISOString())}::timestamptz[],
+      ${column((r) => r.source)}::reading_source[],
+      ${column((r) => r.recordedBy)}::uuid[],
+      ${column((r) => r.method)}::text[],
+      ${column((r) => r.note)}::text[],
+      ${column((r) => r.sampleTempC)}::float8[],
+      ${column((r) => r.referenceTempC)}::float8[]
+    )`);
+}
+
+/** The scenario's own limit rows: no probe, no ORP, so a tank nobody measures it on is not watched for it. */
+function overridesOf(tank: DemoTank): OwnLimits[] {
+  if (withDevice.includes(tank.key) || !limitTemplates[tank.style].orp) return [];
+  return [{ parameter: 'orp', warnLow: null, warnHigh: null, critLow: null, critHigh: null }];
+}
+
 function limitsOf(tank: DemoTank): Partial<Record<ParameterKey, ParameterLimits>> {
-  const limits: Partial<Record<ParameterKey, ParameterLimits>> = { ...limitTemplates[tank.style] };
-  // No probe, no ORP: a tank nobody measures it on is not watched for it.
-  if (!withDevice.includes(tank.key) && limits.orp) {
-    limits.orp = { warnLow: null, warnHigh: null, critLow: null, critHigh: null };
-  }
+  const limits: Partial<Record<ParameterKey, ParameterLimits>> = {};
+  for (const [parameter, inForce] of Object.entries(limitsInForce(tank.style, overridesOf(tank))))
+    limits[parameter as ParameterKey] = inForce.limits;
   return limits;
 }
 
@@ -231,8 +259,8 @@ async function seedDevices(tx: Tx, demo: DemoTank[], now: Date): Promise<Map<Dem
   const ids = new Map<DemoTankKey, string>();
   for (const tank of demo.filter((t) => withDevice.includes(t.key))) {
     const id = demoId(`device:${tank.key}`);
-    // Nobody knows this token; staff create a fresh one to connect a real controller.
-    const token = `bwd_${newSecretToken()}`;
+    // Nobody is told this token; staff create a fresh one to connect a real controller.
+    const { tokenHash, tokenHint } = issueDeviceToken();
     await tx
       .insert(devices)
       .values({
@@ -240,8 +268,8 @@ async function seedDevices(tx: Tx, demo: DemoTank[], now: Date): Promise<Map<Dem
         companyId: tank.companyId,
         tankId: tank.id,
         name: tank.key === 'quayside-reef' ? 'Sump controller' : 'Probe bar',
-        tokenHash: hashToken(token),
-        tokenHint: `bwd_${randomBytes(3).toString('hex')}`,
+        tokenHash,
+        tokenHint,
         lastSeenAt: now,
         createdBy: tank.technicianId,
         createdAt: new Date(now.getTime() - tank.historyDays * dayMs - hourMs),

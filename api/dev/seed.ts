@@ -1,9 +1,9 @@
 import path from 'node:path';
-import { openLocalDatabase } from '../dev/local-database';
-import { startObjectStorage } from '../dev/object-storage';
+import { openLocalDatabase } from './local-database';
+import { startObjectStorage } from './object-storage';
 import { loadEnvOrExit } from '../env';
-import { connectDatabase } from './client';
-import { applyMigrations } from './migrations';
+import { connectDatabase } from '../db/client';
+import { applyMigrations } from '../db/migrations';
 import { seedDemo } from './seed/index';
 import { objectStorageFor } from './seed/photos';
 

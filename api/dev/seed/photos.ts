@@ -3,8 +3,8 @@ import sharp from 'sharp';
 import type { Env } from '../../env';
 import { processUpload } from '../../lib/images';
 import { createObjectStorage, newPhotoKey, type ObjectStorage } from '../../lib/object-storage';
-import type { Db } from '../client';
-import { photos, tanks } from '../schema/index';
+import type { Db } from '../../db/client';
+import { photos, tanks } from '../../db/schema/index';
 import { livestockPortraitSvg, tankSceneSvg } from './pictures';
 import { demoLivestock, demoTanks } from './scenario';
 

@@ -1,0 +1,192 @@
+import { and, eq, ne, sql } from 'drizzle-orm';
+import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
+import type { ParameterKey } from '@shared/parameters/keys';
+import type { Db } from '../db/client';
+import { alertEvents, alerts } from '../db/schema/index';
+
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type AlertRow = typeof alerts.$inferSelect;
+
+/** What a rule says about a problem at one moment; written onto the alert and into its event. */
+export interface AlertChange {
+  severity: AlertSeverity;
+  title: string;
+  body: string;
+  value: number | null;
+  limitValue: number | null;
+  at: Date;
+}
+
+export interface NewAlert extends AlertChange {
+  companyId: string;
+  kind: AlertKind;
+  /** The rule and its subject (`limit:ph`, `device-stale:<id>`): one open alert per tank and key. */
+  ruleKey: string;
+  parameter: ParameterKey | null;
+  direction: string | null;
+}
+
+export interface Resolution {
+  at: Date;
+  /** The rule's latest word, when the rule itself closes the alert. */
+  change?: AlertChange;
+  /** The value that closed it, when it differs from the change's (or there is no change). */
+  value?: number | null;
+  actorId?: string | null;
+  note?: string | null;
+}
+
+/**
+ * Every change to a tank's alerts, each with its alert_events row (the outbox notifications are
+ * planned from). Only `withTankAlerts` hands one out, so no alert changes outside the tank's lock.
+ * Each write returns the new event's id; callers pass committed ids to `afterAlertEvents`.
+ */
+export interface TankAlertStore {
+  /** The locked transaction, for the caller's own reads and writes that belong with the change. */
+  readonly tx: Tx;
+  readonly tankId: string;
+  findOpen(ruleKey: string): Promise<AlertRow | null>;
+  find(alertId: string): Promise<AlertRow | null>;
+  /** Null when an alert for the same rule key is already open. */
+  open(alert: NewAlert): Promise<string | null>;
+  escalate(alert: AlertRow, change: AlertChange): Promise<string>;
+  deEscalate(alert: AlertRow, change: AlertChange): Promise<string>;
+  resolve(alert: AlertRow, resolution: Resolution): Promise<string>;
+  acknowledge(alert: AlertRow, by: { actorId: string; note: string | null; at: Date }): Promise<string>;
+}
+
+/**
+ * Runs `work` in one transaction holding the tank's advisory lock, so two writers (a reading
+ * batch, a sweep, a person) can neither open the same alert twice nor close one another is changing.
+ */
+export function withTankAlerts<T>(
+  db: Db,
+  tankId: string,
+  work: (store: TankAlertStore) => Promise<T>,
+): Promise<T> {
+  return db.transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${tankId}))`);
+    return work(storeFor(tx, tankId));
+  });
+}
+
+function storeFor(tx: Tx, tankId: string): TankAlertStore {
+  const record = async (
+    alert: AlertRow,
+    event: Omit<typeof alertEvents.$inferInsert, 'alertId' | 'id'>,
+  ): Promise<string> => {
+    const [row] = await tx
+      .insert(alertEvents)
+      .values({ ...event, alertId: alert.id })
+      .returning({ id: alertEvents.id });
+    return row!.id;
+  };
+
+  const change = async (alert: AlertRow, next: AlertChange, type: 'escalated' | 'de-escalated') => {
+    await tx
+      .update(alerts)
+      .set({
+        severity: next.severity,
+        title: next.title,
+        body: next.body,
+        value: next.value,
+        limitValue: next.limitValue,
+        lastSeenAt: next.at,
+      })
+      .where(eq(alerts.id, alert.id));
+    return record(alert, { type, severity: next.severity, value: next.value, at: next.at });
+  };
+
+  const findOpen = (ruleKey: string) =>
+    tx
+      .select()
+      .from(alerts)
+      .where(and(eq(alerts.tankId, tankId), eq(alerts.ruleKey, ruleKey), ne(alerts.status, 'resolved')))
+      .for('update')
+      .then((rows) => rows[0] ?? null);
+
+  return {
+    tx,
+    tankId,
+    findOpen,
+
+    find: (alertId) =>
+      tx
+        .select()
+        .from(alerts)
+        .where(and(eq(alerts.id, alertId), eq(alerts.tankId, tankId)))
+        .for('update')
+        .then((rows) => rows[0] ?? null),
+
+    async open(alert) {
+      if (await findOpen(alert.ruleKey)) return null;
+      const [created] = await tx
+        .insert(alerts)
+        .values({
+          companyId: alert.companyId,
+          tankId,
+          kind: alert.kind,
+          ruleKey: alert.ruleKey,
+          parameter: alert.parameter,
+          severity: alert.severity,
+          title: alert.title,
+          body: alert.body,
+          value: alert.value,
+          limitValue: alert.limitValue,
+          direction: alert.direction,
+          openedAt: alert.at,
+          lastSeenAt: alert.at,
+        })
+        .returning();
+      return record(created!, { type: 'opened', severity: alert.severity, value: alert.value, at: alert.at });
+    },
+
+    escalate: (alert, next) => change(alert, next, 'escalated'),
+    deEscalate: (alert, next) => change(alert, next, 'de-escalated'),
+
+    async resolve(alert, { at, change: last, value, actorId, note }) {
+      await tx
+        .update(alerts)
+        .set({
+          ...(last
+            ? {
+                severity: last.severity,
+                title: last.title,
+                body: last.body,
+                value: last.value,
+                limitValue: last.limitValue,
+                lastSeenAt: last.at,
+              }
+            : {}),
+          status: 'resolved',
+          resolvedAt: at,
+          ...(actorId ? { resolvedBy: actorId } : {}),
+        })
+        .where(eq(alerts.id, alert.id));
+      return record(alert, {
+        type: 'resolved',
+        severity: last?.severity ?? alert.severity,
+        value: value !== undefined ? value : (last?.value ?? null),
+        note: note ?? null,
+        actorId: actorId ?? null,
+        at,
+      });
+    },
+
+    async acknowledge(alert, { actorId, note, at }) {
+      await tx
+        .update(alerts)
+        .set({ status: 'acknowledged', acknowledgedAt: at, acknowledgedBy: actorId })
+        .where(eq(alerts.id, alert.id));
+      // Acknowledging tells nobody new; it is recorded, and the board updates live.
+      return record(alert, {
+        type: 'acknowledged',
+        severity: alert.severity,
+        note,
+        actorId,
+        at,
+        fannedOutAt: at,
+      });
+    },
+  };
+}
