@@ -1,6 +1,7 @@
-import type { Request, RequestHandler } from 'express';
+import type { RequestHandler } from 'express';
 import { depsOf } from '../deps';
 import { findActiveActor, type Actor } from '../services/actors';
+import { destroySession } from './session';
 
 declare module 'express-serve-static-core' {
   interface Request {
@@ -9,12 +10,6 @@ declare module 'express-serve-static-core' {
 }
 
 const touchEveryMs = 60_000;
-
-function destroySession(req: Request): Promise<void> {
-  return new Promise((resolve, reject) =>
-    req.session.destroy((error) => (error ? reject(error) : resolve())),
-  );
-}
 
 /**
  * Who is asking, read from the database on every request (a role change or deactivation
@@ -31,7 +26,7 @@ export const loadActor: RequestHandler = async (req, _res, next) => {
   const expired = now - (data.signedInAt ?? 0) > absoluteMs || now - (data.lastSeenAt ?? 0) > idleMs;
   const actor = expired ? null : await findActiveActor(db, data.userId);
   if (!actor) {
-    await destroySession(req);
+    await destroySession(req.session);
     return next();
   }
   if (now - (data.lastSeenAt ?? 0) > touchEveryMs) data.lastSeenAt = now;

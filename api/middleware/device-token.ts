@@ -1,6 +1,4 @@
 import type { RequestHandler } from 'express';
-import type pg from 'pg';
-import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import { depsOf } from '../deps';
 import { HttpError } from '../lib/http-error';
 import { devicePolicy } from '../policy/index';
@@ -32,49 +30,3 @@ export const deviceToken: RequestHandler = devicePolicy(async (req, res, next) =
   req.device = device;
   next();
 });
-
-/**
- * Per device, shared by every API process through PostgreSQL (RateLimiterPostgres on the app's
- * pool; its table comes from a migration). A device normally posts every few minutes; 20 requests
- * a minute lets one catch up after an outage in 1000-reading batches.
- */
-export const ingestRateLimit = { points: 20, durationS: 60 } as const;
-
-const limiters = new WeakMap<pg.Pool, RateLimiterPostgres>();
-
-function limiterFor(pool: pg.Pool): RateLimiterPostgres {
-  let limiter = limiters.get(pool);
-  if (!limiter) {
-    limiter = new RateLimiterPostgres({
-      storeClient: pool,
-      storeType: 'pool',
-      tableName: 'device_rate_limits',
-      tableCreated: true,
-      keyPrefix: 'ingest',
-      points: ingestRateLimit.points,
-      duration: ingestRateLimit.durationS,
-    });
-    limiters.set(pool, limiter);
-  }
-  return limiter;
-}
-
-export const limitIngestRate: RequestHandler = async (req, res, next) => {
-  const device = req.device;
-  if (!device) return next(refused('No device.'));
-  try {
-    await limiterFor(depsOf(req).pool).consume(device.id);
-  } catch (outcome) {
-    if (!(outcome instanceof RateLimiterRes)) throw outcome;
-    const retryAfterS = Math.max(1, Math.ceil(outcome.msBeforeNext / 1000));
-    res.setHeader('Retry-After', String(retryAfterS));
-    return next(
-      new HttpError(
-        429,
-        'rate_limited',
-        `This device has sent more than ${ingestRateLimit.points} requests in ${ingestRateLimit.durationS} s. Try again in ${retryAfterS} s.`,
-      ),
-    );
-  }
-  next();
-};

@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { HttpError } from '../lib/http-error';
-import { issuesFrom } from './validate';
+import { issuesFrom } from '../lib/route';
 
 /** Errors raised by body-parser carry a `type` and a status; we name them in our own words. */
 interface ParserError {

@@ -1,6 +1,6 @@
 import connectPgSimple from 'connect-pg-simple';
 import type { RequestHandler } from 'express';
-import session from 'express-session';
+import session, { type Session } from 'express-session';
 import type pg from 'pg';
 import type { Env } from '../env';
 import type { PendingLogin } from '../lib/oidc-client';
@@ -51,3 +51,13 @@ export function createSessionMiddleware(env: Env, pool: pg.Pool): RequestHandler
     },
   });
 }
+
+function settle(run: (done: (error?: unknown) => void) => void): Promise<void> {
+  return new Promise((resolve, reject) => run((error) => (error ? reject(error) : resolve())));
+}
+
+/** Writes the session now, so the store holds it before the browser is redirected. */
+export const saveSession = (data: Session) => settle((done) => data.save(done));
+/** A new id for the same browser: at sign-in, so an id set before sign-in is worth nothing after. */
+export const regenerateSession = (data: Session) => settle((done) => data.regenerate(done));
+export const destroySession = (data: Session) => settle((done) => data.destroy(done));

@@ -1,37 +1,30 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import { createDeviceInput, deviceParams } from '@shared/schemas/readings';
 import { tankIdParams } from '@shared/schemas/tanks';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { created, route } from '../lib/route';
+import { can } from '../policy/index';
 import { createDevice, listDevices, revokeDevice } from '../services/devices';
 
 /** Mounted at /api/tanks/:tankId/devices. */
 export const devicesRouter = Router({ mergeParams: true });
 
-devicesRouter.get('/', can('devices:manage'), validate({ params: tankIdParams }), getDevices);
+devicesRouter.get(
+  '/',
+  can('devices:manage'),
+  route({ params: tankIdParams }, ({ deps, actor, params }) => listDevices(deps.db, actor, params.tankId)),
+);
 devicesRouter.post(
   '/',
   can('devices:manage'),
-  validate({ params: tankIdParams, body: createDeviceInput }),
-  postDevice,
+  route({ params: tankIdParams, body: createDeviceInput }, async ({ deps, actor, params, body }) =>
+    created(await createDevice(deps.db, actor, params.tankId, body.name)),
+  ),
 );
-devicesRouter.delete('/:deviceId', can('devices:manage'), validate({ params: deviceParams }), deleteDevice);
-
-async function getDevices(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await listDevices(depsOf(req).db, requireActor(req.actor), tankId));
-}
-
-async function postDevice(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const { name } = parsed(res, 'body', createDeviceInput);
-  res.status(201).json(await createDevice(depsOf(req).db, requireActor(req.actor), tankId, name));
-}
-
 /** Revokes the token; the device and its readings stay. */
-async function deleteDevice(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { tankId, deviceId } = parsed(res, 'params', deviceParams);
-  res.json(await revokeDevice(db, requireActor(req.actor), tankId, deviceId, clock()));
-}
+devicesRouter.delete(
+  '/:deviceId',
+  can('devices:manage'),
+  route({ params: deviceParams }, ({ deps, actor, params }) =>
+    revokeDevice(deps.db, actor, params.tankId, params.deviceId, deps.clock()),
+  ),
+);

@@ -1,9 +1,8 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import { equipmentIdParams, equipmentInput, equipmentPatch } from '@shared/schemas/equipment';
 import { tankIdParams } from '@shared/schemas/tanks';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { created, noContent, route } from '../lib/route';
+import { can } from '../policy/index';
 import {
   createEquipment,
   deleteEquipment,
@@ -15,51 +14,37 @@ import {
 /** Mounted under /tanks/:tankId/equipment. */
 export const equipmentRouter = Router({ mergeParams: true });
 
-equipmentRouter.get('/', can('tanks:read'), validate({ params: tankIdParams }), getAll);
+equipmentRouter.get(
+  '/',
+  can('tanks:read'),
+  route({ params: tankIdParams }, ({ deps, actor, params }) => listEquipment(deps.db, actor, params.tankId)),
+);
 equipmentRouter.post(
   '/',
   can('equipment:write'),
-  validate({ params: tankIdParams, body: equipmentInput }),
-  postOne,
+  route({ params: tankIdParams, body: equipmentInput }, async ({ deps, actor, params, body }) =>
+    created(await createEquipment(deps.db, actor, params.tankId, body)),
+  ),
 );
-equipmentRouter.get('/:equipmentId', can('tanks:read'), validate({ params: equipmentIdParams }), getOne);
+equipmentRouter.get(
+  '/:equipmentId',
+  can('tanks:read'),
+  route({ params: equipmentIdParams }, ({ deps, actor, params }) =>
+    getEquipment(deps.db, actor, params.tankId, params.equipmentId),
+  ),
+);
 equipmentRouter.patch(
   '/:equipmentId',
   can('equipment:write'),
-  validate({ params: equipmentIdParams, body: equipmentPatch }),
-  patchOne,
+  route({ params: equipmentIdParams, body: equipmentPatch }, ({ deps, actor, params, body }) =>
+    updateEquipment(deps.db, actor, params.tankId, params.equipmentId, body),
+  ),
 );
 equipmentRouter.delete(
   '/:equipmentId',
   can('equipment:write'),
-  validate({ params: equipmentIdParams }),
-  deleteOne,
+  route({ params: equipmentIdParams }, async ({ deps, actor, params }) => {
+    await deleteEquipment(deps.db, actor, params.tankId, params.equipmentId);
+    return noContent();
+  }),
 );
-
-async function getAll(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await listEquipment(depsOf(req).db, requireActor(req.actor), tankId));
-}
-
-async function postOne(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const input = parsed(res, 'body', equipmentInput);
-  res.status(201).json(await createEquipment(depsOf(req).db, requireActor(req.actor), tankId, input));
-}
-
-async function getOne(req: Request, res: Response) {
-  const { tankId, equipmentId } = parsed(res, 'params', equipmentIdParams);
-  res.json(await getEquipment(depsOf(req).db, requireActor(req.actor), tankId, equipmentId));
-}
-
-async function patchOne(req: Request, res: Response) {
-  const { tankId, equipmentId } = parsed(res, 'params', equipmentIdParams);
-  const input = parsed(res, 'body', equipmentPatch);
-  res.json(await updateEquipment(depsOf(req).db, requireActor(req.actor), tankId, equipmentId, input));
-}
-
-async function deleteOne(req: Request, res: Response) {
-  const { tankId, equipmentId } = parsed(res, 'params', equipmentIdParams);
-  await deleteEquipment(depsOf(req).db, requireActor(req.actor), tankId, equipmentId);
-  res.status(204).end();
-}

@@ -1,13 +1,15 @@
-import { Router, type Request, type Response } from 'express';
-import { depsOf } from '../deps';
+import { Router } from 'express';
+import { openRoute, withStatus } from '../lib/route';
 import { publicRoute } from '../policy/index';
 import { getHealth } from '../services/health';
 
 export const healthRouter = Router();
 
-healthRouter.get('/', publicRoute, getHealthStatus);
-
-async function getHealthStatus(req: Request, res: Response) {
-  const health = await getHealth(depsOf(req).pool);
-  res.status(health.db === 'ok' ? 200 : 503).json(health);
-}
+healthRouter.get(
+  '/',
+  publicRoute,
+  openRoute({}, async ({ deps }) => {
+    const health = await getHealth(deps.pool);
+    return withStatus(health.db === 'ok' ? 200 : 503, health);
+  }),
+);

@@ -1,10 +1,8 @@
-import { Router, type Request, type Response } from 'express';
-import { deviceIngestEnvelope, maxDeviceBatch } from '@shared/schemas/readings';
-import { depsOf } from '../deps';
-import { HttpError } from '../lib/http-error';
-import { deviceToken, limitIngestRate } from '../middleware/device-token';
-import { parsed, validate } from '../middleware/validate';
-import { raiseAlertsFor } from '../services/alerts';
+import { Router } from 'express';
+import { deviceIngestEnvelope } from '@shared/schemas/readings';
+import { deviceRoute } from '../lib/route';
+import { deviceToken } from '../middleware/device-token';
+import { perDevice, rateLimit } from '../middleware/rate-limit';
 import { ingestReadings } from '../services/ingest';
 
 /**
@@ -13,21 +11,25 @@ import { ingestReadings } from '../services/ingest';
  */
 export const ingestRouter = Router();
 
+/**
+ * Per device. A device normally posts every few minutes; 20 requests a minute lets one catch up
+ * after an outage in 1000-reading batches.
+ */
+export const ingestRateLimit = { points: 20, durationS: 60 } as const;
+
+const limitIngestRate = rateLimit({
+  name: 'ingest',
+  ...ingestRateLimit,
+  keyOf: perDevice,
+  message: (retryAfterS) =>
+    `This device has sent more than ${ingestRateLimit.points} requests in ${ingestRateLimit.durationS} s. Try again in ${retryAfterS} s.`,
+});
+
 ingestRouter.post(
   '/readings',
   deviceToken,
   limitIngestRate,
-  validate({ body: deviceIngestEnvelope }),
-  postReadings,
+  deviceRoute({ body: deviceIngestEnvelope }, ({ deps, device, body }) =>
+    ingestReadings(deps, device, body.readings),
+  ),
 );
-
-async function postReadings(req: Request, res: Response) {
-  const deps = depsOf(req);
-  const { readings } = parsed(res, 'body', deviceIngestEnvelope);
-  if (readings.length > maxDeviceBatch) {
-    throw new HttpError(413, 'batch_too_large', `Send at most ${maxDeviceBatch} readings per request.`);
-  }
-  const { summary, inserted } = await ingestReadings(deps.db, req.device!, readings, deps.clock());
-  await raiseAlertsFor(deps, req.device!.tankId, inserted);
-  res.json(summary);
-}

@@ -1,4 +1,4 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import {
   addLivestockInput,
   addLivestockQuery,
@@ -6,9 +6,8 @@ import {
   updateLivestockInput,
 } from '@shared/schemas/livestock';
 import { tankIdParams } from '@shared/schemas/tanks';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { created, noContent, route, withStatus, type SignedInContext } from '../lib/route';
+import { can } from '../policy/index';
 import {
   addLivestock,
   checkLivestock,
@@ -22,76 +21,53 @@ import { discardObjects } from '../services/photos';
 /** Mounted under /tanks/:tankId/livestock. */
 export const livestockRouter = Router({ mergeParams: true });
 
-livestockRouter.get('/', can('tanks:read'), validate({ params: tankIdParams }), getAll);
-livestockRouter.post(
+const addSchemas = { params: tankIdParams, query: addLivestockQuery, body: addLivestockInput };
+
+livestockRouter.get(
   '/',
-  can('livestock:write'),
-  validate({ params: tankIdParams, query: addLivestockQuery, body: addLivestockInput }),
-  postOne,
+  can('tanks:read'),
+  route({ params: tankIdParams }, ({ deps, actor, params }) => listLivestock(deps.db, actor, params.tankId)),
 );
-livestockRouter.get('/:livestockId', can('tanks:read'), validate({ params: livestockIdParams }), getOne);
+livestockRouter.post('/', can('livestock:write'), route(addSchemas, postOne));
+livestockRouter.get(
+  '/:livestockId',
+  can('tanks:read'),
+  route({ params: livestockIdParams }, ({ deps, actor, params }) =>
+    getLivestock(deps.db, actor, params.tankId, params.livestockId),
+  ),
+);
 livestockRouter.patch(
   '/:livestockId',
   can('livestock:write'),
-  validate({ params: livestockIdParams, body: updateLivestockInput }),
-  patchOne,
+  route({ params: livestockIdParams, body: updateLivestockInput }, ({ deps, actor, params, body }) =>
+    updateLivestock(deps.db, actor, params.tankId, params.livestockId, body, deps.clock()),
+  ),
 );
 livestockRouter.delete(
   '/:livestockId',
   can('livestock:write'),
-  validate({ params: livestockIdParams }),
-  deleteOne,
+  route({ params: livestockIdParams }, async ({ deps, actor, params }) => {
+    const keys = await deleteLivestock(deps.db, actor, params.tankId, params.livestockId);
+    await discardObjects(deps.storage, deps.logger, keys);
+    return noContent();
+  }),
 );
-
-async function getAll(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await listLivestock(depsOf(req).db, requireActor(req.actor), tankId));
-}
 
 /**
  * `?dryRun=true` answers the compatibility warnings without saving. A real add with warnings
  * the person has not acknowledged is a 409 carrying them, so the form can show why.
  */
-async function postOne(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const actor = requireActor(req.actor);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const { dryRun } = parsed(res, 'query', addLivestockQuery);
-  const input = parsed(res, 'body', addLivestockInput);
-  if (dryRun) {
-    res.json(await checkLivestock(db, actor, tankId, input));
-    return;
-  }
-  const result = await addLivestock(db, actor, tankId, input, clock());
+async function postOne({ deps, actor, params, query, body }: SignedInContext<typeof addSchemas>) {
+  if (query.dryRun) return checkLivestock(deps.db, actor, params.tankId, body);
+  const result = await addLivestock(deps.db, actor, params.tankId, body, deps.clock());
   if ('blocked' in result) {
-    res.status(409).json({
+    return withStatus(409, {
       error: {
         code: 'unacknowledged_warnings',
         message: 'This addition has compatibility warnings. Read them and acknowledge them to add it anyway.',
         warnings: result.blocked.warnings,
       },
     });
-    return;
   }
-  res.status(201).json(result.added);
-}
-
-async function getOne(req: Request, res: Response) {
-  const { tankId, livestockId } = parsed(res, 'params', livestockIdParams);
-  res.json(await getLivestock(depsOf(req).db, requireActor(req.actor), tankId, livestockId));
-}
-
-async function patchOne(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { tankId, livestockId } = parsed(res, 'params', livestockIdParams);
-  const input = parsed(res, 'body', updateLivestockInput);
-  res.json(await updateLivestock(db, requireActor(req.actor), tankId, livestockId, input, clock()));
-}
-
-async function deleteOne(req: Request, res: Response) {
-  const { db, storage, logger } = depsOf(req);
-  const { tankId, livestockId } = parsed(res, 'params', livestockIdParams);
-  const keys = await deleteLivestock(db, requireActor(req.actor), tankId, livestockId);
-  await discardObjects(storage, logger, keys);
-  res.status(204).end();
+  return created(result.added);
 }

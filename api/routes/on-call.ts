@@ -1,36 +1,34 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import { onCallShiftInput, shiftIdParams } from '@shared/schemas/on-call';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { created, noContent, route } from '../lib/route';
+import { can } from '../policy/index';
 import { addShift, listFailedDeliveries, listShifts, removeShift } from '../services/on-call';
 
 export const onCallRouter = Router();
 export const deliveriesRouter = Router();
 
-onCallRouter.get('/', can('on-call:read'), getShifts);
-onCallRouter.post('/', can('on-call:manage'), validate({ body: onCallShiftInput }), postShift);
-onCallRouter.delete('/:shiftId', can('on-call:manage'), validate({ params: shiftIdParams }), deleteShift);
-deliveriesRouter.get('/failed', can('on-call:read'), getFailedDeliveries);
-
-async function getShifts(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  res.json(await listShifts(db, requireActor(req.actor), clock()));
-}
-
-async function postShift(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  res
-    .status(201)
-    .json(await addShift(db, requireActor(req.actor), parsed(res, 'body', onCallShiftInput), clock()));
-}
-
-async function deleteShift(req: Request, res: Response) {
-  const { shiftId } = parsed(res, 'params', shiftIdParams);
-  await removeShift(depsOf(req).db, requireActor(req.actor), shiftId);
-  res.status(204).end();
-}
-
-async function getFailedDeliveries(req: Request, res: Response) {
-  res.json(await listFailedDeliveries(depsOf(req).db, requireActor(req.actor)));
-}
+onCallRouter.get(
+  '/',
+  can('on-call:read'),
+  route({}, ({ deps, actor }) => listShifts(deps.db, actor, deps.clock())),
+);
+onCallRouter.post(
+  '/',
+  can('on-call:manage'),
+  route({ body: onCallShiftInput }, async ({ deps, actor, body }) =>
+    created(await addShift(deps.db, actor, body, deps.clock())),
+  ),
+);
+onCallRouter.delete(
+  '/:shiftId',
+  can('on-call:manage'),
+  route({ params: shiftIdParams }, async ({ deps, actor, params }) => {
+    await removeShift(deps.db, actor, params.shiftId);
+    return noContent();
+  }),
+);
+deliveriesRouter.get(
+  '/failed',
+  can('on-call:read'),
+  route({}, ({ deps, actor }) => listFailedDeliveries(deps.db, actor)),
+);

@@ -1,17 +1,14 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import {
   createReadingsInput,
   importReadingsInput,
   readingExportQuery,
   readingHistoryQuery,
   readingListQuery,
-  type Reading,
 } from '@shared/schemas/readings';
 import { tankIdParams } from '@shared/schemas/tanks';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
-import { raiseAlertsFor } from '../services/alerts';
+import { created, route, streamed } from '../lib/route';
+import { can } from '../policy/index';
 import { readingHistory } from '../services/history';
 import {
   exportReadingsCsv,
@@ -27,80 +24,49 @@ export const readingsRouter = Router({ mergeParams: true });
 readingsRouter.get(
   '/',
   can('readings:read'),
-  validate({ params: tankIdParams, query: readingHistoryQuery }),
-  getHistory,
+  route({ params: tankIdParams, query: readingHistoryQuery }, ({ deps, actor, params, query }) =>
+    readingHistory(deps.db, actor, params.tankId, query),
+  ),
 );
 readingsRouter.post(
   '/',
   can('readings:write'),
-  validate({ params: tankIdParams, body: createReadingsInput }),
-  postReadings,
+  route({ params: tankIdParams, body: createReadingsInput }, async ({ deps, actor, params, body }) =>
+    created({ readings: await recordReadings(deps, actor, params.tankId, body) }),
+  ),
 );
-readingsRouter.get('/latest', can('readings:read'), validate({ params: tankIdParams }), getLatest);
+readingsRouter.get(
+  '/latest',
+  can('readings:read'),
+  route({ params: tankIdParams }, ({ deps, actor, params }) =>
+    latestReadings(deps.db, actor, params.tankId, deps.clock()),
+  ),
+);
 readingsRouter.get(
   '/list',
   can('readings:read'),
-  validate({ params: tankIdParams, query: readingListQuery }),
-  getList,
+  route({ params: tankIdParams, query: readingListQuery }, ({ deps, actor, params, query }) =>
+    listReadings(deps.db, actor, params.tankId, query),
+  ),
 );
 readingsRouter.get(
   '/export',
   can('readings:read'),
-  validate({ params: tankIdParams, query: readingExportQuery }),
-  getExport,
+  route({ params: tankIdParams, query: readingExportQuery }, async ({ deps, actor, params, query }) => {
+    const csv = await exportReadingsCsv(deps.db, actor, params.tankId, query, deps.clock());
+    return streamed(
+      {
+        'Content-Type': 'text/csv; charset=utf-8',
+        'Content-Disposition': `attachment; filename="${csv.fileName}"`,
+      },
+      csv.lines,
+    );
+  }),
 );
 readingsRouter.post(
   '/import',
   can('readings:write'),
-  validate({ params: tankIdParams, body: importReadingsInput }),
-  postImport,
+  route({ params: tankIdParams, body: importReadingsInput }, async ({ deps, actor, params, body }) =>
+    created({ imported: (await importReadings(deps, actor, params.tankId, body)).length }),
+  ),
 );
-
-async function getHistory(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const query = parsed(res, 'query', readingHistoryQuery);
-  res.json(await readingHistory(depsOf(req).db, requireActor(req.actor), tankId, query));
-}
-
-async function postReadings(req: Request, res: Response) {
-  const deps = depsOf(req);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const input = parsed(res, 'body', createReadingsInput);
-  const saved = await recordReadings(deps.db, requireActor(req.actor), tankId, input, deps.clock());
-  await raiseAlertsFor(deps, tankId, saved.map(asNewReading));
-  res.status(201).json({ readings: saved });
-}
-
-const asNewReading = (reading: Reading) => ({
-  parameter: reading.parameter,
-  value: reading.value,
-  measuredAt: new Date(reading.measuredAt),
-  source: reading.source,
-});
-
-async function getLatest(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await latestReadings(db, requireActor(req.actor), tankId, clock()));
-}
-
-async function getList(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const query = parsed(res, 'query', readingListQuery);
-  res.json(await listReadings(depsOf(req).db, requireActor(req.actor), tankId, query));
-}
-
-async function getExport(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const query = parsed(res, 'query', readingExportQuery);
-  await exportReadingsCsv(depsOf(req).db, requireActor(req.actor), tankId, query, res);
-}
-
-async function postImport(req: Request, res: Response) {
-  const deps = depsOf(req);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const input = parsed(res, 'body', importReadingsInput);
-  const saved = await importReadings(deps.db, requireActor(req.actor), tankId, input, deps.clock());
-  await raiseAlertsFor(deps, tankId, saved.map(asNewReading));
-  res.status(201).json({ imported: saved.length });
-}

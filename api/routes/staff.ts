@@ -1,56 +1,39 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import { changeRoleInput, userIdParams } from '@shared/schemas/users';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { route } from '../lib/route';
+import { can } from '../policy/index';
 import { changeStaffRole, deactivateUser, listClients, listStaff, reactivateUser } from '../services/users';
 
 export const staffRouter = Router();
 export const clientsRouter = Router();
 export const usersRouter = Router();
 
-staffRouter.get('/', can('staff:read'), getStaff);
+staffRouter.get(
+  '/',
+  can('staff:read'),
+  route({}, ({ deps, actor }) => listStaff(deps.db, actor)),
+);
 staffRouter.patch(
   '/:userId',
   can('staff:manage'),
-  validate({ params: userIdParams, body: changeRoleInput }),
-  patchRole,
+  route({ params: userIdParams, body: changeRoleInput }, ({ deps, actor, params, body }) =>
+    changeStaffRole(deps.db, actor, params.userId, body.role),
+  ),
 );
-clientsRouter.get('/', can('clients:read'), getClients);
+clientsRouter.get(
+  '/',
+  can('clients:read'),
+  route({}, ({ deps, actor }) => listClients(deps.db, actor)),
+);
 usersRouter.post(
   '/:userId/deactivate',
   can('staff:manage'),
-  validate({ params: userIdParams }),
-  postDeactivate,
+  route({ params: userIdParams }, ({ deps, actor, params }) =>
+    deactivateUser(deps.db, actor, params.userId, deps.clock()),
+  ),
 );
 usersRouter.post(
   '/:userId/reactivate',
   can('staff:manage'),
-  validate({ params: userIdParams }),
-  postReactivate,
+  route({ params: userIdParams }, ({ deps, actor, params }) => reactivateUser(deps.db, actor, params.userId)),
 );
-
-async function getStaff(req: Request, res: Response) {
-  res.json(await listStaff(depsOf(req).db, requireActor(req.actor)));
-}
-
-async function patchRole(req: Request, res: Response) {
-  const { userId } = parsed(res, 'params', userIdParams);
-  const { role } = parsed(res, 'body', changeRoleInput);
-  res.json(await changeStaffRole(depsOf(req).db, requireActor(req.actor), userId, role));
-}
-
-async function getClients(req: Request, res: Response) {
-  res.json(await listClients(depsOf(req).db, requireActor(req.actor)));
-}
-
-async function postDeactivate(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { userId } = parsed(res, 'params', userIdParams);
-  res.json(await deactivateUser(db, requireActor(req.actor), userId, clock()));
-}
-
-async function postReactivate(req: Request, res: Response) {
-  const { userId } = parsed(res, 'params', userIdParams);
-  res.json(await reactivateUser(depsOf(req).db, requireActor(req.actor), userId));
-}

@@ -1,59 +1,47 @@
-import { Router, type Request, type Response } from 'express';
+import { Router } from 'express';
 import { createTankInput, tankIdParams, tankListQuery, updateTankInput } from '@shared/schemas/tanks';
-import { depsOf } from '../deps';
-import { parsed, validate } from '../middleware/validate';
-import { can, requireActor } from '../policy/index';
+import { created, route } from '../lib/route';
+import { can } from '../policy/index';
 import { tankComfortRange } from '../services/livestock';
 import { createTank, getTankDetail, listAssignableStaff, listTanks, updateTank } from '../services/tanks';
 
 export const tanksRouter = Router();
 
-tanksRouter.get('/', can('tanks:read'), validate({ query: tankListQuery }), getTanks);
-tanksRouter.post('/', can('tanks:write'), validate({ body: createTankInput }), postTank);
-tanksRouter.get('/technicians', can('tanks:write'), getTechnicians);
-tanksRouter.get('/:tankId', can('tanks:read'), validate({ params: tankIdParams }), getOneTank);
+tanksRouter.get(
+  '/',
+  can('tanks:read'),
+  route({ query: tankListQuery }, ({ deps, actor, query }) => listTanks(deps.db, actor, query, deps.clock())),
+);
+tanksRouter.post(
+  '/',
+  can('tanks:write'),
+  route({ body: createTankInput }, async ({ deps, actor, body }) =>
+    created(await createTank(deps.db, actor, body, deps.clock())),
+  ),
+);
+tanksRouter.get(
+  '/technicians',
+  can('tanks:write'),
+  route({}, ({ deps, actor }) => listAssignableStaff(deps.db, actor)),
+);
+tanksRouter.get(
+  '/:tankId',
+  can('tanks:read'),
+  route({ params: tankIdParams }, ({ deps, actor, params }) =>
+    getTankDetail(deps.db, actor, params.tankId, deps.clock()),
+  ),
+);
 tanksRouter.patch(
   '/:tankId',
   can('tanks:write'),
-  validate({ params: tankIdParams, body: updateTankInput }),
-  patchTank,
+  route({ params: tankIdParams, body: updateTankInput }, ({ deps, actor, params, body }) =>
+    updateTank(deps.db, actor, params.tankId, body, deps.clock()),
+  ),
 );
 tanksRouter.get(
   '/:tankId/comfort-range',
   can('tanks:read'),
-  validate({ params: tankIdParams }),
-  getComfortRange,
+  route({ params: tankIdParams }, ({ deps, actor, params }) =>
+    tankComfortRange(deps.db, actor, params.tankId),
+  ),
 );
-
-async function getTanks(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  res.json(await listTanks(db, requireActor(req.actor), parsed(res, 'query', tankListQuery), clock()));
-}
-
-async function postTank(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const input = parsed(res, 'body', createTankInput);
-  res.status(201).json(await createTank(db, requireActor(req.actor), input, clock()));
-}
-
-async function getTechnicians(req: Request, res: Response) {
-  res.json(await listAssignableStaff(depsOf(req).db, requireActor(req.actor)));
-}
-
-async function getOneTank(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await getTankDetail(db, requireActor(req.actor), tankId, clock()));
-}
-
-async function patchTank(req: Request, res: Response) {
-  const { db, clock } = depsOf(req);
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  const input = parsed(res, 'body', updateTankInput);
-  res.json(await updateTank(db, requireActor(req.actor), tankId, input, clock()));
-}
-
-async function getComfortRange(req: Request, res: Response) {
-  const { tankId } = parsed(res, 'params', tankIdParams);
-  res.json(await tankComfortRange(depsOf(req).db, requireActor(req.actor), tankId));
-}

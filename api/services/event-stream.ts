@@ -1,33 +1,23 @@
-import type { Request, Response } from 'express';
-import { depsOf } from '../deps';
+import type { AppDeps } from '../deps';
+import type { AppEvent } from '../lib/event-bus';
 import type { Actor } from './actors';
 
-const heartbeatMs = 25_000;
+/** What a screen needs to know to refetch: which tank and alert changed. */
+export type LiveEventData = Pick<AppEvent, 'tankId' | 'alertId'>;
 
 /**
- * Server-Sent Events for one signed-in person: every alert or notification event (from any API
- * process, through LISTEN/NOTIFY) addressed to them, as a small "refetch this" message.
+ * Every alert or notification event (from any API process, through LISTEN/NOTIFY) addressed to
+ * this person, as a small "refetch this" message. Returns how to stop listening, or null where
+ * this process has no listener (API-only tests).
  */
-export function streamEvents(req: Request, res: Response, actor: Actor) {
-  const { events } = depsOf(req);
-  res.writeHead(200, {
-    'Content-Type': 'text/event-stream; charset=utf-8',
-    'Cache-Control': 'no-store',
-    Connection: 'keep-alive',
-    'X-Accel-Buffering': 'no',
-  });
-  res.write('retry: 5000\n\n');
-  res.write(`event: ready\ndata: {}\n\n`);
-  if (!events) return;
-  const stop = events.on((event) => {
+export function subscribeToEvents(
+  deps: Pick<AppDeps, 'events'>,
+  actor: Actor,
+  onEvent: (type: AppEvent['type'], data: LiveEventData) => void,
+): (() => void) | null {
+  if (!deps.events) return null;
+  return deps.events.on((event) => {
     if (!event.userIds.includes(actor.id)) return;
-    res.write(
-      `event: ${event.type}\ndata: ${JSON.stringify({ tankId: event.tankId, alertId: event.alertId })}\n\n`,
-    );
-  });
-  const heartbeat = setInterval(() => res.write(': keep-alive\n\n'), heartbeatMs);
-  req.on('close', () => {
-    clearInterval(heartbeat);
-    stop();
+    onEvent(event.type, { tankId: event.tankId, alertId: event.alertId });
   });
 }

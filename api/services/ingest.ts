@@ -1,21 +1,19 @@
 import { eq, sql } from 'drizzle-orm';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { checkStoredValue } from '@shared/parameters/units';
-import { deviceReadingInput, type IngestRejectionReason, type IngestResult } from '@shared/schemas/readings';
-import type { Db } from '../db/client';
+import {
+  deviceReadingInput,
+  maxDeviceBatch,
+  type IngestRejectionReason,
+  type IngestResult,
+} from '@shared/schemas/readings';
+import type { AppDeps } from '../deps';
 import { devices, readings, tanks } from '../db/schema/index';
-import { notFound } from '../lib/http-error';
+import { HttpError, notFound } from '../lib/http-error';
 import type { DeviceIdentity } from './devices';
-import { tankExistsFrom, timeProblem, timeProblemMessage } from './readings';
+import { commitReadings, tankExistsFrom, timeProblem, timeProblemMessage } from './readings';
 
 type NewReading = typeof readings.$inferInsert;
-
-export interface StoredDeviceReading {
-  parameter: ParameterKey;
-  value: number;
-  measuredAt: Date;
-  source: 'device';
-}
 
 function shapeReason(path: PropertyKey | undefined): IngestRejectionReason {
   if (path === 'parameter') return 'unknown-parameter';
@@ -28,15 +26,18 @@ function shapeReason(path: PropertyKey | undefined): IngestRejectionReason {
  * reason while the good ones are kept. Re-sending is harmless: duplicates inside the batch are
  * dropped first, and the unique index on (device, parameter, measured_at) with ON CONFLICT DO
  * NOTHING drops the ones already stored, also against a concurrent request with the same
- * readings. The caller answers only after this transaction has committed.
+ * readings. The new readings' alerts are raised after the commit, before this returns.
  */
 export async function ingestReadings(
-  db: Db,
+  deps: AppDeps,
   device: DeviceIdentity,
   batch: readonly unknown[],
-  now: Date,
-): Promise<{ summary: IngestResult; inserted: StoredDeviceReading[] }> {
-  const [tank] = await db
+): Promise<IngestResult> {
+  if (batch.length > maxDeviceBatch) {
+    throw new HttpError(413, 'batch_too_large', `Send at most ${maxDeviceBatch} readings per request.`);
+  }
+  const now = deps.clock();
+  const [tank] = await deps.db
     .select({ createdAt: tanks.createdAt, setUpOn: tanks.setUpOn })
     .from(tanks)
     .where(eq(tanks.id, device.tankId));
@@ -95,8 +96,9 @@ export async function ingestReadings(
     });
   });
 
-  const accepted = await db.transaction(async (tx) => {
-    const inserted: Array<{ parameter: ParameterKey; value: number; measuredAt: Date }> = [];
+  const accepted = await commitReadings(deps, device.tankId, async (tx) => {
+    const inserted: Array<{ parameter: ParameterKey; value: number; measuredAt: Date; source: 'device' }> =
+      [];
     if (rows.length > 0) {
       const saved = await tx
         .insert(readings)
@@ -106,14 +108,10 @@ export async function ingestReadings(
           where: sql`${readings.deviceId} is not null`,
         })
         .returning({ parameter: readings.parameter, value: readings.value, measuredAt: readings.measuredAt });
-      inserted.push(...saved);
+      inserted.push(...saved.map((row) => ({ ...row, source: 'device' as const })));
     }
     await tx.update(devices).set({ lastSeenAt: now }).where(eq(devices.id, device.id));
-    return inserted;
+    return { stored: inserted, result: inserted.length };
   });
-  return {
-    summary: { accepted: accepted.length, duplicate: duplicate + rows.length - accepted.length, rejected },
-    /** What was new, for the alert engine (run by the caller after this commit). */
-    inserted: accepted.map((row) => ({ ...row, source: 'device' as const })),
-  };
+  return { accepted, duplicate: duplicate + rows.length - accepted, rejected };
 }

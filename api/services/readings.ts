@@ -1,5 +1,3 @@
-import { once } from 'node:events';
-import type { Response } from 'express';
 import { sql, type SQL } from 'drizzle-orm';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { toStored } from '@shared/parameters/units';
@@ -17,11 +15,13 @@ import {
   type ReadingSource,
   type TankHealthSummary,
 } from '@shared/schemas/readings';
+import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import { readings, type tanks } from '../db/schema/index';
 import { badRequest, forbidden, type ErrorIssue } from '../lib/http-error';
 import { findTankFor, isStaff } from '../policy/index';
 import type { Actor } from './actors';
+import { raiseAlertsFor } from './alerts';
 import { healthForTanks } from './tank-health';
 
 type TankRow = typeof tanks.$inferSelect;
@@ -49,6 +49,26 @@ export function timeProblemMessage(problem: TimeProblem, existsFrom: Date): stri
     : `this is before the tank existed (from ${existsFrom.toISOString().slice(0, 10)})`;
 }
 
+/** A stored reading as the alert engine judges it. */
+export type StoredReading = Parameters<typeof raiseAlertsFor>[2][number];
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/**
+ * The one way readings are stored, whoever sends them (a person, a CSV import, a device): `write`
+ * stores them in one transaction and says which are new, and only after that commit are they
+ * handed to the alert engine, so an alert never points at a reading that was rolled back.
+ */
+export async function commitReadings<T>(
+  deps: AppDeps,
+  tankId: string,
+  write: (tx: Tx) => Promise<{ stored: readonly StoredReading[]; result: T }>,
+): Promise<T> {
+  const { stored, result } = await deps.db.transaction(write);
+  await raiseAlertsFor(deps, tankId, stored);
+  return result;
+}
+
 interface ManualRow extends ManualReadingInput {
   source: ManualSource;
 }
@@ -74,14 +94,14 @@ function manualValues(tank: TankRow, actor: Actor, rows: readonly ManualRow[]) {
 
 /** All or nothing: every row is checked, and any issue refuses the whole batch with every issue. */
 async function insertManual(
-  db: Db,
+  deps: AppDeps,
   actor: Actor,
   tank: TankRow,
   rows: readonly ManualRow[],
-  now: Date,
   extraIssues: ErrorIssue[] = [],
 ): Promise<Reading[]> {
   const existsFrom = tankExistsFrom(tank);
+  const now = deps.clock();
   const issues = [...extraIssues];
   rows.forEach((row, index) => {
     const problem = timeProblem(new Date(row.measuredAt), existsFrom, now);
@@ -96,13 +116,14 @@ async function insertManual(
     issues.sort((a, b) => a.path.localeCompare(b.path, 'en', { numeric: true }));
     throw badRequest('invalid_request', 'Some readings need attention; none were saved.', issues);
   }
-  const saved: (typeof readings.$inferSelect)[] = [];
-  await db.transaction(async (tx) => {
+  const saved = await commitReadings(deps, tank.id, async (tx) => {
+    const inserted: (typeof readings.$inferSelect)[] = [];
     // 1000 rows × 14 columns stays far below PostgreSQL's 65,535 parameters per statement.
     for (let start = 0; start < rows.length; start += 1000) {
       const values = manualValues(tank, actor, rows.slice(start, start + 1000));
-      saved.push(...(await tx.insert(readings).values(values).returning()));
+      inserted.push(...(await tx.insert(readings).values(values).returning()));
     }
+    return { stored: inserted, result: inserted };
   });
   return saved.map((row) => ({
     id: row.id,
@@ -120,35 +141,34 @@ async function insertManual(
   }));
 }
 
+/** Readings typed in by a person; their alerts are raised before this returns. */
 export async function recordReadings(
-  db: Db,
+  deps: AppDeps,
   actor: Actor,
   tankId: string,
   input: CreateReadingsInput,
-  now: Date,
 ): Promise<Reading[]> {
-  const tank = await findTankFor(db, actor, tankId, 'read');
+  const tank = await findTankFor(deps.db, actor, tankId, 'read');
   const source: ManualSource = input.source ?? (isStaff(actor) ? 'visit' : 'home-test');
   if (!isStaff(actor) && source !== 'home-test') {
     throw forbidden('Owners record home tests; visit readings come from the company.');
   }
   return insertManual(
-    db,
+    deps,
     actor,
     tank,
     input.readings.map((reading) => ({ ...reading, source })),
-    now,
   );
 }
 
+/** A CSV file's readings, checked in the browser and again here; their alerts are raised before this returns. */
 export async function importReadings(
-  db: Db,
+  deps: AppDeps,
   actor: Actor,
   tankId: string,
   input: ImportReadingsInput,
-  now: Date,
 ): Promise<Reading[]> {
-  const tank = await findTankFor(db, actor, tankId, 'read');
+  const tank = await findTankFor(deps.db, actor, tankId, 'read');
   const sourceIssues: ErrorIssue[] = isStaff(actor)
     ? []
     : input.readings.flatMap((reading, index) =>
@@ -156,7 +176,7 @@ export async function importReadings(
           ? []
           : [{ path: `body.readings.${index}.source`, message: 'owners import home tests only' }],
       );
-  return insertManual(db, actor, tank, input.readings, now, sourceIssues);
+  return insertManual(deps, actor, tank, input.readings, sourceIssues);
 }
 
 export type ReadingRow = {
@@ -248,37 +268,43 @@ export async function listReadings(
   return { readings: page, next: rows.length > query.limit ? cursorOf(page.at(-1)!) : null };
 }
 
-/** Streams the filtered readings as CSV, page by page, so a year of device data never sits in memory. */
+export interface ReadingsCsv {
+  fileName: string;
+  /** The header line, then the readings newest first, a page at a time. */
+  lines: AsyncIterable<string>;
+}
+
+/**
+ * The filtered readings as CSV, read page by page while the caller writes them, so a year of
+ * device data never sits in memory. Access is checked before anything is written.
+ */
 export async function exportReadingsCsv(
   db: Db,
   actor: Actor,
   tankId: string,
   query: ReadingExportQuery,
-  res: Response,
-): Promise<void> {
+  now: Date,
+): Promise<ReadingsCsv> {
   const tank = await findTankFor(db, actor, tankId, 'read');
-  const day = new Date().toISOString().slice(0, 10);
+  const day = now.toISOString().slice(0, 10);
   const slug =
     tank.name
       .toLowerCase()
       .replace(/[^a-z0-9]+/g, '-')
       .replace(/^-|-$/g, '') || 'tank';
-  res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-  res.setHeader(
-    'Content-Disposition',
-    `attachment; filename="${slug}-readings-${query.parameter ?? 'all'}-${day}.csv"`,
-  );
-  res.write(csvHeaderLine());
-  const pageSize = 2000;
-  let before: string | undefined;
-  for (;;) {
-    const page = await readingsPage(db, tank.id, { ...query, before }, pageSize);
-    if (page.length === 0) break;
-    if (!res.write(page.map(readingCsvLine).join(''))) await once(res, 'drain');
-    if (page.length < pageSize) break;
-    before = cursorOf(page.at(-1)!);
+  async function* lines() {
+    yield csvHeaderLine();
+    const pageSize = 2000;
+    let before: string | undefined;
+    for (;;) {
+      const page = await readingsPage(db, tank.id, { ...query, before }, pageSize);
+      if (page.length === 0) break;
+      yield page.map(readingCsvLine).join('');
+      if (page.length < pageSize) break;
+      before = cursorOf(page.at(-1)!);
+    }
   }
-  res.end();
+  return { fileName: `${slug}-readings-${query.parameter ?? 'all'}-${day}.csv`, lines: lines() };
 }
 
 export async function latestReadings(

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { devices, readings } from '../../api/db/schema/index';
-import { ingestRateLimit } from '../../api/middleware/device-token';
+import { ingestRateLimit } from '../../api/routes/ingest';
 import { startTestStack, type TestStack } from '../helpers/stack';
 import { deviceFor, minutesAgo, readingCount, readingsWorld } from './readings-kit';
 
@@ -188,6 +188,7 @@ describe('device ingest', () => {
 
       expect(statuses.slice(0, ingestRateLimit.points).every((s) => s === 200)).toBe(true);
       expect(statuses.at(-1)).toBe(429);
+      expect(last!.body.error.code).toBe('rate_limited');
       const retryAfter = Number(last!.headers.get('retry-after'));
       expect(retryAfter).toBeGreaterThan(0);
       expect(retryAfter).toBeLessThanOrEqual(ingestRateLimit.durationS);

@@ -188,6 +188,7 @@ describe('photos API', () => {
 
       expect(res.status).toBe(429);
       expect(Number(res.headers.get('retry-after'))).toBeGreaterThan(500);
+      expect((res.body as unknown as { error: { code: string } }).error.code).toBe('rate_limited');
       expect((await upload(technician, form(png, 'someone-else.png', 'image/png'))).status).toBe(201);
     });
   });

@@ -4,6 +4,7 @@ export * from './equipment';
 export * from './invitations';
 export * from './livestock';
 export * from './photos';
+export * from './rate-limits';
 export * from './readings';
 export * from './sessions';
 export * from './tanks';

@@ -3,7 +3,6 @@ import {
   bigint,
   doublePrecision,
   index,
-  integer,
   pgEnum,
   pgTable,
   primaryKey,
@@ -11,7 +10,6 @@ import {
   timestamp,
   uniqueIndex,
   uuid,
-  varchar,
 } from 'drizzle-orm/pg-core';
 import { parameterKeys } from '@shared/parameters/keys';
 import { id, timestamps } from './columns';
@@ -108,15 +106,3 @@ export const tankLimits = pgTable(
   },
   (t) => [primaryKey({ columns: [t.tankId, t.parameter] })],
 );
-
-/**
- * rate-limiter-flexible's Postgres store for device ingest, kept in a migration rather than
- * created by the library at run time. Its columns, their order and their names are the library's
- * (it inserts positionally and upserts on its own), hence no created_at/updated_at here.
- */
-export const deviceRateLimits = pgTable('device_rate_limits', {
-  key: varchar('key', { length: 255 }).primaryKey(),
-  points: integer('points').notNull().default(0),
-  /** Epoch milliseconds when the window ends. */
-  expire: bigint('expire', { mode: 'number' }),
-});
