@@ -1,3 +1,5 @@
+import { readdirSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import js from '@eslint/js';
 import drizzle from 'eslint-plugin-drizzle';
 import importX from 'eslint-plugin-import-x';
@@ -6,6 +8,20 @@ import jsxA11y from 'eslint-plugin-jsx-a11y';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
 import tseslint from 'typescript-eslint';
+
+const root = fileURLToPath(new URL('.', import.meta.url));
+
+// One zone per feature folder: a feature imports web/lib, web/components, shared/ and itself only.
+const features = readdirSync(new URL('./web/features', import.meta.url), { withFileTypes: true })
+  .filter((entry) => entry.isDirectory())
+  .map((entry) => entry.name);
+const featureZones = features.map((feature) => ({
+  target: `./web/features/${feature}`,
+  from: './web/features',
+  except: [`./${feature}`],
+  message:
+    'A feature never imports another feature: move the shared piece down to web/lib or web/components.',
+}));
 
 export default tseslint.config(
   { ignores: ['dist/**', '.data/**', 'drizzle/**', 'node_modules/**', 'tests/artifacts/**', 'coverage/**'] },
@@ -31,9 +47,23 @@ export default tseslint.config(
             },
             { target: './web', from: './api', message: 'web/ talks to api/ over HTTP only.' },
             { target: './api', from: './web', message: 'api/ never imports web/.' },
+            // Inside web/: shared pieces (lib, components) ← features ← app.
+            ...featureZones,
+            {
+              target: ['./web/features', './web/lib', './web/components'],
+              from: './web/app',
+              message: 'Only web/app composes features into routes; nothing imports web/app.',
+            },
+            {
+              target: ['./web/lib', './web/components'],
+              from: './web/features',
+              message: 'web/lib and web/components are below the features and never import them.',
+            },
           ],
+          basePath: root,
         },
       ],
+      'import-x/no-cycle': ['error', { ignoreExternal: true }],
       'no-restricted-syntax': [
         'error',
         { selector: 'ExportDefaultDeclaration', message: 'Use named exports.' },

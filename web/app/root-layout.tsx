@@ -1,6 +1,6 @@
 import { Link, NavLink, Outlet, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
-import { useMe } from '../lib/auth';
+import { can, useMe } from '../lib/auth';
 import { UserMenu } from '../features/auth/components/user-menu';
 import { NotificationBell } from '../features/notifications/components/notification-bell';
 import { useLiveEvents } from '../features/notifications/live-events';
@@ -13,12 +13,12 @@ const navLinkClass = ({ isActive }: { isActive: boolean }) =>
 function MainNav() {
   const { data: me } = useMe();
   const links: { to: string; label: string; end?: boolean }[] = [];
-  if (me?.role === 'owner') links.push({ to: '/tanks', label: 'My tanks' });
-  if (me && me.role !== 'owner') {
+  // Staff work from the company console; a client sees their own tanks.
+  if (can(me, 'clients:read')) {
     links.push({ to: '/console', label: 'Tanks', end: true }, { to: '/console/clients', label: 'Clients' });
     links.push({ to: '/console/alerts', label: 'Alerts' });
-    if (me.role === 'admin') links.push({ to: '/console/staff', label: 'Staff' });
-  }
+    if (can(me, 'staff:read')) links.push({ to: '/console/staff', label: 'Staff' });
+  } else if (me) links.push({ to: '/tanks', label: 'My tanks' });
   links.push({ to: '/calculators', label: 'Calculators' });
   return (
     <nav

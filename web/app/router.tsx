@@ -1,10 +1,7 @@
 import { createBrowserRouter, RouterProvider } from 'react-router';
 import { RouteError } from '../components/route-error';
-import { RequireRole } from '../features/auth/components/require-role';
+import { RequirePermission } from '../features/auth/components/require-permission';
 import { RootLayout } from './root-layout';
-
-const everyone = ['owner', 'technician', 'admin'] as const;
-const staff = ['technician', 'admin'] as const;
 
 const router = createBrowserRouter([
   {
@@ -34,7 +31,7 @@ const router = createBrowserRouter([
           },
           {
             path: 'tanks',
-            element: <RequireRole roles={everyone} />,
+            element: <RequirePermission permission="tanks:read" />,
             children: [
               {
                 index: true,
@@ -48,7 +45,8 @@ const router = createBrowserRouter([
           },
           {
             path: 'console',
-            element: <RequireRole roles={staff} />,
+            // The company console: staff only, as the client list in it is.
+            element: <RequirePermission permission="clients:read" />,
             children: [
               {
                 index: true,
@@ -90,7 +88,7 @@ const router = createBrowserRouter([
               },
               {
                 path: 'staff',
-                element: <RequireRole roles={['admin']} />,
+                element: <RequirePermission permission="staff:read" />,
                 children: [
                   {
                     index: true,
@@ -104,7 +102,7 @@ const router = createBrowserRouter([
           },
           {
             path: 'settings',
-            element: <RequireRole roles={everyone} />,
+            element: <RequirePermission permission="notifications:own" />,
             children: [
               {
                 path: 'notifications',

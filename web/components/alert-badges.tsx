@@ -1,4 +1,5 @@
 import type { AlertSeverity, AlertStatus } from '@shared/alerts/kinds';
+import { Badge } from './badge';
 
 export const severityLabels: Record<AlertSeverity, string> = {
   critical: 'Critical',
@@ -39,12 +40,9 @@ function SeverityMark({ severity }: { severity: AlertSeverity }) {
 
 export function SeverityBadge({ severity }: { severity: AlertSeverity }) {
   return (
-    <span
-      className={`inline-flex items-center gap-1.5 rounded-full px-2.5 py-0.5 text-sm font-bold ${severityTones[severity]}`}
-    >
-      <SeverityMark severity={severity} />
+    <Badge tone={severityTones[severity]} mark={<SeverityMark severity={severity} />}>
       {severityLabels[severity]}
-    </span>
+    </Badge>
   );
 }
 
@@ -77,11 +75,8 @@ function StatusMark({ status }: { status: AlertStatus }) {
 
 export function AlertStatusBadge({ status }: { status: AlertStatus }) {
   return (
-    <span
-      className={`inline-flex items-center gap-1.5 rounded-full border bg-white px-2.5 py-0.5 text-sm font-bold ${statusTones[status]}`}
-    >
-      <StatusMark status={status} />
+    <Badge tone={`border bg-white ${statusTones[status]}`} mark={<StatusMark status={status} />}>
       {statusLabels[status]}
-    </span>
+    </Badge>
   );
 }

@@ -10,7 +10,7 @@ import { RadioGroup, type RadioOption } from './radio-group';
  */
 
 const controlClass = (error?: string) =>
-  `mt-1 min-h-12 w-full min-w-0 rounded-lg border-2 bg-white px-3 text-base text-ink-950 ${
+  `mt-1 min-h-12 w-full min-w-0 rounded-lg border-2 bg-white px-3 text-base text-ink-950 disabled:bg-ink-50 ${
     error ? 'border-alert-700' : 'border-ink-300 focus:border-ink-700'
   }`;
 
@@ -92,10 +92,13 @@ export function TextField<T extends FieldValues = FieldValues>({
   hint,
   className,
   suffix,
+  error: shownError,
   ...input
-}: BoundProps<T> & InputProps & { suffix?: ReactNode }) {
+}: BoundProps<T> & InputProps & { suffix?: ReactNode; error?: string }) {
   const id = useId();
-  const { field, error } = useBoundField<T>(name);
+  const { field, error: fieldError } = useBoundField<T>(name);
+  // A live calculator works its problems out from the values as they are typed, not in its schema.
+  const error = shownError ?? fieldError;
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       {(described) => {
@@ -130,7 +133,7 @@ export function TextField<T extends FieldValues = FieldValues>({
  * `decimalText` (lib/decimal.ts). `suffix` shows the unit beside the box.
  */
 export function DecimalField<T extends FieldValues = FieldValues>(
-  props: BoundProps<T> & InputProps & { suffix?: ReactNode },
+  props: BoundProps<T> & InputProps & { suffix?: ReactNode; error?: string },
 ) {
   return <TextField<T> inputMode="decimal" autoComplete="off" spellCheck={false} {...props} />;
 }
@@ -143,7 +146,8 @@ export function TextAreaField<T extends FieldValues = FieldValues>({
   rows = 3,
   maxLength,
   placeholder,
-}: BoundProps<T> & { rows?: number; maxLength?: number; placeholder?: string }) {
+  required,
+}: BoundProps<T> & { rows?: number; maxLength?: number; placeholder?: string; required?: boolean }) {
   const id = useId();
   const { field, error } = useBoundField<T>(name);
   return (
@@ -159,6 +163,7 @@ export function TextAreaField<T extends FieldValues = FieldValues>({
           rows={rows}
           maxLength={maxLength}
           placeholder={placeholder}
+          aria-required={required || undefined}
           aria-invalid={error ? true : undefined}
           aria-describedby={described}
           className={`${controlClass(error)} py-2`}
@@ -215,6 +220,8 @@ export function CheckboxField<T extends FieldValues = FieldValues>({
 }: BoundProps<T>) {
   const id = useId();
   const { field, error } = useBoundField<T>(name);
+  // Taken apart first: the React Compiler's lint reads every property of an object holding a ref as a ref.
+  const { ref, value, onChange, onBlur } = field;
   const described = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ');
   return (
     <div className={className}>
@@ -222,11 +229,11 @@ export function CheckboxField<T extends FieldValues = FieldValues>({
         <input
           id={id}
           type="checkbox"
-          name={field.name}
-          ref={field.ref}
-          checked={Boolean(field.value)}
-          onChange={(event) => field.onChange(event.target.checked)}
-          onBlur={field.onBlur}
+          name={name}
+          ref={ref}
+          checked={Boolean(value)}
+          onChange={(event) => onChange(event.target.checked)}
+          onBlur={onBlur}
           aria-invalid={error ? true : undefined}
           aria-describedby={described || undefined}
           className="h-6 w-6 shrink-0 accent-brine-700"
@@ -244,6 +251,66 @@ export function CheckboxField<T extends FieldValues = FieldValues>({
         </FieldError>
       )}
     </div>
+  );
+}
+
+/** Several ticks bound to one array field (the tank's owners, a species' waters): it holds the ticked values. */
+export function CheckboxGroupField<T extends FieldValues = FieldValues>({
+  name,
+  label,
+  hint,
+  className = '',
+  options,
+  columns = '',
+}: BoundProps<T> & {
+  options: readonly { value: string; label: ReactNode }[];
+  /** Classes laying the ticks out, e.g. "grid gap-1 sm:grid-cols-2". */
+  columns?: string;
+}) {
+  const id = useId();
+  const { field, error } = useBoundField<T>(name);
+  const chosen = (field.value as string[] | undefined) ?? [];
+  const described = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ');
+  return (
+    <fieldset className={`min-w-0 ${className}`} aria-describedby={described || undefined}>
+      <legend className="px-1 font-bold text-ink-900">{label}</legend>
+      {hint && (
+        <p id={`${id}-hint`} className="text-sm text-ink-700">
+          {hint}
+        </p>
+      )}
+      <div className={columns}>
+        {options.map((option, index) => (
+          <label
+            key={option.value}
+            className="flex min-h-11 cursor-pointer items-center gap-3 font-bold text-ink-900"
+          >
+            <input
+              type="checkbox"
+              name={field.name}
+              value={option.value}
+              ref={index === 0 ? field.ref : undefined}
+              checked={chosen.includes(option.value)}
+              onChange={(event) =>
+                field.onChange(
+                  event.target.checked
+                    ? [...chosen, option.value]
+                    : chosen.filter((value) => value !== option.value),
+                )
+              }
+              onBlur={field.onBlur}
+              className="h-6 w-6 shrink-0 accent-brine-700"
+            />
+            {option.label}
+          </label>
+        ))}
+      </div>
+      {error && (
+        <FieldError id={`${id}-error`} className="mt-1">
+          {error}
+        </FieldError>
+      )}
+    </fieldset>
   );
 }
 

@@ -63,10 +63,19 @@ export function RadioGroup<V extends string>({
   const described = [hint ? hintId : null, error ? errorId : null].filter(Boolean).join(' ') || undefined;
   const { list, option } = looks[look];
   return (
-    <fieldset className={`min-w-0 ${className}`} aria-describedby={described}>
+    // The error is read with the group (aria-describedby); a radio input takes no aria-invalid.
+    <fieldset
+      className={`min-w-0 ${className}`}
+      aria-describedby={described}
+      aria-invalid={error ? true : undefined}
+    >
       <legend
         className={
-          hideLegend ? 'sr-only' : look === 'compact' ? 'mb-1 text-sm font-bold text-ink-900' : 'font-bold text-ink-900'
+          hideLegend
+            ? 'sr-only'
+            : look === 'compact'
+              ? 'mb-1 text-sm font-bold text-ink-900'
+              : 'font-bold text-ink-900'
         }
       >
         {legend}
@@ -85,7 +94,6 @@ export function RadioGroup<V extends string>({
               value={choice.value}
               checked={value === choice.value}
               onChange={() => onChange(choice.value)}
-              aria-invalid={error ? true : undefined}
               className={
                 look === 'rows'
                   ? 'row-span-2 mt-0.5 h-5 w-5 accent-brine-700'

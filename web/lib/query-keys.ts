@@ -13,10 +13,17 @@ export const tankKeys = {
   detail: (tankId: string) => [...tankKeys.all, 'detail', tankId] as const,
   photos: (tankId: string) => [...tankKeys.detail(tankId), 'photos'] as const,
   readings: (tankId: string) => [...tankKeys.detail(tankId), 'readings'] as const,
+  latestReadings: (tankId: string) => [...tankKeys.readings(tankId), 'latest'] as const,
+  readingHistory: (tankId: string, request: object) =>
+    [...tankKeys.readings(tankId), 'history', request] as const,
+  readingList: (tankId: string, filters: object) => [...tankKeys.readings(tankId), 'list', filters] as const,
   limits: (tankId: string) => [...tankKeys.detail(tankId), 'limits'] as const,
   devices: (tankId: string) => [...tankKeys.detail(tankId), 'devices'] as const,
   equipment: (tankId: string) => [...tankKeys.detail(tankId), 'equipment'] as const,
   livestock: (tankId: string) => [...tankKeys.detail(tankId), 'livestock'] as const,
+  livestockCheck: (tankId: string, speciesId: string) =>
+    [...tankKeys.detail(tankId), 'livestock-check', speciesId] as const,
+  comfortRange: (tankId: string) => [...tankKeys.detail(tankId), 'comfort-range'] as const,
   technicians: () => [...tankKeys.all, 'technicians'] as const,
 };
 
@@ -41,7 +48,9 @@ export const peopleKeys = {
 
 export const onCallKeys = { all: ['on-call'] as const };
 export const deliveryKeys = { failed: ['deliveries', 'failed'] as const };
+/** The inbox and the preferences are apart, so a live event refreshes the one without reloading a form. */
 export const notificationKeys = {
   all: ['notifications'] as const,
+  inbox: ['notifications', 'inbox'] as const,
   preferences: ['notifications', 'preferences'] as const,
 };

@@ -1,8 +1,8 @@
 import { Page } from '../../components/page';
 import { useMe } from '../../lib/auth';
-import { InvitationsSection } from '../../features/staff/components/invitations-section';
-import { InviteStaffForm } from '../../features/staff/components/invite-staff-form';
-import { StaffList } from '../../features/staff/components/staff-list';
+import { InvitationsSection } from '../../features/people/components/invitations-section';
+import { InviteStaffForm } from '../../features/people/components/invite-staff-form';
+import { StaffList } from '../../features/people/components/staff-list';
 
 export function ConsoleStaffRoute() {
   const { data: me } = useMe();

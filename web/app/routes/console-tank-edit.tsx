@@ -58,9 +58,7 @@ export function ConsoleTankEditRoute() {
         <TankForm
           tank={tank.data}
           submitLabel="Save changes"
-          pending={updateTank.isPending}
-          error={updateTank.error}
-          onSubmit={(input) => updateTank.mutate(input)}
+          onSubmit={(input) => updateTank.mutateAsync(input)}
         />
         <TankPhotos tank={tank.data} />
       </div>

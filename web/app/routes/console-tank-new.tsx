@@ -17,13 +17,10 @@ export function ConsoleTankNewRoute() {
     >
       <TankForm
         submitLabel="Create tank"
-        pending={createTank.isPending}
-        error={createTank.error}
-        onSubmit={(input) =>
-          createTank.mutate(input, {
-            onSuccess: (tank) => void navigate(`/console/tanks/${tank.id}/edit?created=1`),
-          })
-        }
+        onSubmit={async (input) => {
+          const tank = await createTank.mutateAsync(input);
+          await navigate(`/console/tanks/${tank.id}/edit?created=1`);
+        }}
       />
     </Page>
   );

@@ -3,10 +3,10 @@ import { Link, useSearchParams } from 'react-router';
 import type { TankListQuery } from '@shared/schemas/tanks';
 import { Page } from '../../components/page';
 import { EmptyState, ErrorState, LoadingState } from '../../components/states';
-import { useTanksList } from '../../features/tanks/api/get-tanks';
 import { useTechnicians } from '../../features/tanks/api/get-technicians';
 import { TankFilters } from '../../features/tanks/components/tank-filters';
 import { TankTable } from '../../features/tanks/components/tank-table';
+import { useTanks } from '../../lib/queries/tanks';
 
 /** Every client tank the company looks after; the filters live in the address, so a reload keeps them. */
 export function ConsoleHomeRoute() {
@@ -27,7 +27,7 @@ export function ConsoleHomeRoute() {
     },
     [setParams],
   );
-  const tanks = useTanksList(query);
+  const tanks = useTanks(query);
   const technicians = useTechnicians();
   const filtered = Boolean(query.q || query.technicianId);
   const clientCount = new Set(tanks.data?.flatMap((tank) => tank.owners.map((owner) => owner.id))).size;

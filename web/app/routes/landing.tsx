@@ -1,6 +1,5 @@
 import { Link } from 'react-router';
-import { useMe } from '../../lib/auth';
-import { signInUrl } from '../../lib/auth';
+import { can, signInUrl, useMe } from '../../lib/auth';
 import { ServiceStatus } from '../../features/health/components/service-status';
 import { TankIllustration } from '../../features/landing/components/tank-illustration';
 
@@ -30,7 +29,7 @@ function FrontDoorAction() {
   const { data: me, isPending } = useMe();
   if (isPending) return <span className="h-12 w-32 animate-pulse rounded-lg bg-ink-800" aria-hidden="true" />;
   if (me) {
-    const staff = me.role !== 'owner';
+    const staff = can(me, 'clients:read');
     return (
       <Link to={staff ? '/console' : '/tanks'} className={actionClass}>
         {staff ? 'Open the company console' : 'See my tanks'}

@@ -2,7 +2,8 @@ import { Link, useParams } from 'react-router';
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
 import { TankAlertsSection } from '../../features/alerts/components/tank-alerts-section';
-import { useMe } from '../../lib/auth';
+import { can, useMe } from '../../lib/auth';
+import { todayIn } from '../../lib/format';
 import { EquipmentList } from '../../features/equipment/components/equipment-list';
 import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
 import { useEquipment } from '../../features/equipment/api/get-equipment';
@@ -13,7 +14,6 @@ import { LivestockGallery } from '../../features/livestock/components/livestock-
 import { TankReadingsSection } from '../../features/readings/components/tank-readings-section';
 import { useTank } from '../../features/tanks/api/get-tank';
 import { TankOverview } from '../../features/tanks/components/tank-overview';
-import { todayIn } from '../../features/tanks/utils/format';
 
 const actionClass =
   'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
@@ -99,7 +99,7 @@ export function TankRoute() {
   const { tankId = '' } = useParams();
   const tank = useTank(tankId);
   const { data: me } = useMe();
-  const isStaff = me?.role === 'technician' || me?.role === 'admin';
+  const isStaff = can(me, 'tanks:write');
 
   if (tank.isPending) {
     return (

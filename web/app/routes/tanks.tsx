@@ -1,10 +1,10 @@
 import { Page } from '../../components/page';
 import { EmptyState, ErrorState, LoadingState } from '../../components/states';
-import { useTanksList } from '../../features/tanks/api/get-tanks';
 import { TankCard } from '../../features/tanks/components/tank-card';
+import { useTanks } from '../../lib/queries/tanks';
 
 export function MyTanksRoute() {
-  const tanks = useTanksList();
+  const tanks = useTanks();
   return (
     <Page
       title="My tanks"

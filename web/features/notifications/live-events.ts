@@ -1,9 +1,7 @@
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
 import { useMe } from '../../lib/auth';
-import { alertsQueryKey } from '../alerts/api/alert-query-keys';
-import { tanksQueryKey } from '../clients/api/list-tanks';
-import { notificationsQueryKey } from './api/list-notifications';
+import { alertKeys, notificationKeys, tankKeys } from '../../lib/query-keys';
 
 export type LiveEventType = 'alert' | 'notification';
 
@@ -19,12 +17,12 @@ const reopenAfterMs = 30_000;
 
 /** Marks stale what an alert change touches: every alert list and detail, the tanks, and the inbox. */
 export function refreshAfterLiveEvent(queryClient: QueryClient) {
-  void queryClient.invalidateQueries({ queryKey: alertsQueryKey });
-  void queryClient.invalidateQueries({ queryKey: notificationsQueryKey });
+  void queryClient.invalidateQueries({ queryKey: alertKeys.all });
+  void queryClient.invalidateQueries({ queryKey: notificationKeys.inbox });
   // An alert changes with the readings behind it, and tank lists and pages show both. Alert
   // events are rare (a limit crossed, an alert picked up or closed), and only queries on screen
   // refetch, so every tank query is marked stale rather than guessing which ones show this tank.
-  void queryClient.invalidateQueries({ queryKey: tanksQueryKey });
+  void queryClient.invalidateQueries({ queryKey: tankKeys.all });
 }
 
 function parseData(raw: unknown): LiveEventData {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AlertView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
-import { alertsQueryKey } from './alert-query-keys';
+import { alertKeys } from '../../../lib/query-keys';
 
 /** Only an open alert can be acknowledged; the API answers 409 `not_open` otherwise. */
 export const acknowledgeAlert = ({ alertId, note }: { alertId: string; note?: string }) =>
@@ -11,6 +11,6 @@ export const useAcknowledgeAlert = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: acknowledgeAlert,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: alertsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: alertKeys.all }),
   });
 };

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { OnCallShiftInput, OnCallShiftView } from '@shared/schemas/on-call';
 import { api } from '../../../lib/api-client';
-import { onCallQueryKey } from './on-call-query-keys';
+import { onCallKeys } from '../../../lib/query-keys';
 
 /** Answers with the roster as it now stands. */
 export const addOnCallShift = (input: OnCallShiftInput) =>
@@ -11,6 +11,6 @@ export const useAddOnCallShift = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: addOnCallShift,
-    onSuccess: (roster) => queryClient.setQueryData(onCallQueryKey, roster),
+    onSuccess: (roster) => queryClient.setQueryData(onCallKeys.all, roster),
   });
 };

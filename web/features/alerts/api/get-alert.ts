@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AlertView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
-import { alertDetailQueryKey } from './alert-query-keys';
+import { alertKeys } from '../../../lib/query-keys';
 
 /** One alert with its timeline (`events`: opened, escalated, acknowledged, resolved…). */
 export const getAlert = (alertId: string, signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const getAlert = (alertId: string, signal?: AbortSignal) =>
 
 export const alertQueryOptions = (alertId: string) =>
   queryOptions({
-    queryKey: alertDetailQueryKey(alertId),
+    queryKey: alertKeys.detail(alertId),
     queryFn: ({ signal }) => getAlert(alertId, signal),
   });
 

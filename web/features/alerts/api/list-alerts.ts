@@ -1,7 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AlertView } from '@shared/schemas/alerts';
+import type { AlertListQuery, AlertView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
-import { alertListQueryKey, type AlertFilters } from './alert-query-keys';
+import { alertKeys } from '../../../lib/query-keys';
+
+export type AlertFilters = Partial<Pick<AlertListQuery, 'status' | 'severity' | 'tankId'>>;
 
 /** The API sorts: the most severe first, then the oldest (resolved ones: the latest first). */
 export function listAlerts(filters: AlertFilters, signal?: AbortSignal) {
@@ -13,7 +15,7 @@ export function listAlerts(filters: AlertFilters, signal?: AbortSignal) {
 
 export const alertsQueryOptions = (filters: AlertFilters) =>
   queryOptions({
-    queryKey: alertListQueryKey(filters),
+    queryKey: alertKeys.list(filters),
     queryFn: ({ signal }) => listAlerts(filters, signal),
   });
 

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { DeliveryView } from '@shared/schemas/on-call';
 import { api } from '../../../lib/api-client';
-import { failedDeliveriesQueryKey } from './on-call-query-keys';
+import { deliveryKeys } from '../../../lib/query-keys';
 
 /** Notifications that could not be delivered: staff follow these up by hand. */
 export const listFailedDeliveries = (signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const listFailedDeliveries = (signal?: AbortSignal) =>
 
 export const failedDeliveriesQueryOptions = () =>
   queryOptions({
-    queryKey: failedDeliveriesQueryKey,
+    queryKey: deliveryKeys.failed,
     queryFn: ({ signal }) => listFailedDeliveries(signal),
     // A delivery fails only after its retries run out, minutes later, with no live event of its own.
     refetchInterval: 60_000,

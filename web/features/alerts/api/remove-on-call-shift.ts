@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { onCallQueryKey } from './on-call-query-keys';
+import { onCallKeys } from '../../../lib/query-keys';
 
 export const removeOnCallShift = (shiftId: string) => api<void>(`/on-call/${shiftId}`, { method: 'DELETE' });
 
@@ -8,6 +8,6 @@ export const useRemoveOnCallShift = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: removeOnCallShift,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: onCallQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: onCallKeys.all }),
   });
 };

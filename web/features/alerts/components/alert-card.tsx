@@ -1,10 +1,10 @@
 import type { AlertView } from '@shared/schemas/alerts';
+import { AlertStatusBadge, SeverityBadge, severityEdge } from '../../../components/alert-badges';
 import { Button } from '../../../components/button';
 import { criticalFirstSteps } from '../utils/alert-facts';
 import { AlertActions } from './alert-actions';
 import { AlertFactsList } from './alert-facts-list';
 import { FirstStepsPanel } from './first-steps-panel';
-import { AlertStatusBadge, SeverityBadge, severityEdge } from './severity-badge';
 
 /** One alert on the staff board: what, where, how far past the limit, since when, and what to do. */
 export function AlertCard({

@@ -1,14 +1,14 @@
 import { useEffect, useRef } from 'react';
 import { Link } from 'react-router';
+import { AlertStatusBadge, SeverityBadge } from '../../../components/alert-badges';
 import { ErrorState, LoadingState } from '../../../components/states';
+import { useNow } from '../../../lib/format';
 import { useAlert } from '../api/get-alert';
 import { criticalFirstSteps } from '../utils/alert-facts';
-import { useNow } from '../utils/use-now';
 import { AlertActions } from './alert-actions';
 import { AlertFactsList } from './alert-facts-list';
 import { AlertTimeline } from './alert-timeline';
 import { FirstStepsPanel } from './first-steps-panel';
-import { AlertStatusBadge, SeverityBadge } from './severity-badge';
 
 const titleId = 'alert-drawer-title';
 

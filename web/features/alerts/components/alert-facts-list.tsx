@@ -1,6 +1,6 @@
 import type { AlertView } from '@shared/schemas/alerts';
+import { formatDateTime, relativeTime } from '../../../lib/format';
 import { readingFacts } from '../utils/alert-facts';
-import { formatDateTime, relativeTime } from '../utils/time';
 
 function When({ iso, now }: { iso: string; now: number }) {
   return (

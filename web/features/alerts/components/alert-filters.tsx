@@ -1,9 +1,13 @@
-import { useId } from 'react';
-import { alertSeverities, type AlertSeverity } from '@shared/alerts/kinds';
-import type { AlertListQuery } from '@shared/schemas/alerts';
-import { useTanks } from '../../clients/api/list-tanks';
-import type { AlertFilters } from '../api/alert-query-keys';
-import { severityLabels } from './severity-badge';
+import { useEffect } from 'react';
+import { z } from 'zod';
+import { alertSeverities } from '@shared/alerts/kinds';
+import { alertListQuery, type AlertListQuery } from '@shared/schemas/alerts';
+import { severityLabels } from '../../../components/alert-badges';
+import { Form, useZodForm } from '../../../components/form';
+import { SelectField } from '../../../components/form-fields';
+import { blankAsUndefined } from '../../../lib/form-values';
+import { useTanks } from '../../../lib/queries/tanks';
+import type { AlertFilters } from '../api/list-alerts';
 
 export type BoardStatus = AlertListQuery['status'];
 
@@ -15,37 +19,21 @@ export const boardStatusLabels: Record<BoardStatus, string> = {
   all: 'All',
 };
 
-const selectClass =
-  'mt-1 min-h-12 w-full min-w-0 rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700';
+const filtersForm = z.object({
+  status: alertListQuery.shape.status,
+  severity: blankAsUndefined(alertListQuery.shape.severity),
+  tankId: blankAsUndefined(alertListQuery.shape.tankId),
+});
 
-function Select({
-  label,
-  value,
-  onChange,
-  children,
-}: {
-  label: string;
-  value: string;
-  onChange: (value: string) => void;
-  children: React.ReactNode;
-}) {
-  const id = useId();
-  return (
-    <div className="min-w-0">
-      <label htmlFor={id} className="block text-sm font-bold text-ink-900">
-        {label}
-      </label>
-      <select
-        id={id}
-        value={value}
-        onChange={(event) => onChange(event.target.value)}
-        className={selectClass}
-      >
-        {children}
-      </select>
-    </div>
-  );
-}
+const statusOptions = (Object.keys(boardStatusLabels) as BoardStatus[]).map((status) => ({
+  value: status,
+  label: boardStatusLabels[status],
+}));
+
+const severityOptions = [
+  { value: '', label: 'Any severity' },
+  ...[...alertSeverities].reverse().map((severity) => ({ value: severity, label: severityLabels[severity] })),
+];
 
 /** Which alerts the board shows; every choice lives in the address, so a reload or a shared link keeps it. */
 export function AlertFiltersBar({
@@ -56,53 +44,42 @@ export function AlertFiltersBar({
   onChange: (next: AlertFilters) => void;
 }) {
   const tanks = useTanks();
+  // The address is the truth: the form follows it (a link, the back button) and writes each choice to it.
+  const form = useZodForm(filtersForm, {
+    values: { status: filters.status, severity: filters.severity ?? '', tankId: filters.tankId ?? '' },
+  });
+
+  useEffect(() => {
+    const subscription = form.watch((values, { name }) => {
+      if (!name) return;
+      const read = filtersForm.safeParse(values);
+      if (read.success) onChange(read.data);
+    });
+    return () => subscription.unsubscribe();
+  }, [form, onChange]);
+
+  const tankOptions = [
+    { value: '', label: 'All tanks' },
+    ...(filters.tankId && !tanks.data?.some((tank) => tank.id === filters.tankId)
+      ? [{ value: filters.tankId, label: 'The chosen tank' }]
+      : []),
+    ...(tanks.data ?? []).map((tank) => ({
+      value: tank.id,
+      label: tank.siteLabel ? `${tank.name} — ${tank.siteLabel}` : tank.name,
+    })),
+  ];
+
   return (
-    <form
+    <Form
+      form={form}
+      onSubmit={onChange}
       role="search"
       aria-label="Filter alerts"
-      onSubmit={(event) => event.preventDefault()}
       className="grid gap-3 rounded-card bg-white p-4 shadow-card sm:grid-cols-3"
     >
-      <Select
-        label="Status"
-        value={filters.status}
-        onChange={(status) => onChange({ ...filters, status: status as BoardStatus })}
-      >
-        {(Object.keys(boardStatusLabels) as BoardStatus[]).map((status) => (
-          <option key={status} value={status}>
-            {boardStatusLabels[status]}
-          </option>
-        ))}
-      </Select>
-      <Select
-        label="Severity"
-        value={filters.severity ?? ''}
-        onChange={(severity) =>
-          onChange({ ...filters, severity: (severity || undefined) as AlertSeverity | undefined })
-        }
-      >
-        <option value="">Any severity</option>
-        {[...alertSeverities].reverse().map((severity) => (
-          <option key={severity} value={severity}>
-            {severityLabels[severity]}
-          </option>
-        ))}
-      </Select>
-      <Select
-        label="Tank"
-        value={filters.tankId ?? ''}
-        onChange={(tankId) => onChange({ ...filters, tankId: tankId || undefined })}
-      >
-        <option value="">All tanks</option>
-        {filters.tankId && !tanks.data?.some((tank) => tank.id === filters.tankId) && (
-          <option value={filters.tankId}>The chosen tank</option>
-        )}
-        {tanks.data?.map((tank) => (
-          <option key={tank.id} value={tank.id}>
-            {tank.siteLabel ? `${tank.name} — ${tank.siteLabel}` : tank.name}
-          </option>
-        ))}
-      </Select>
-    </form>
+      <SelectField name="status" label="Status" options={statusOptions} />
+      <SelectField name="severity" label="Severity" options={severityOptions} />
+      <SelectField name="tankId" label="Tank" options={tankOptions} />
+    </Form>
   );
 }

@@ -1,7 +1,7 @@
 import type { AlertEventView, AlertView } from '@shared/schemas/alerts';
 import { formatValue } from '@shared/parameters/units';
-import { formatDateTime, relativeTime } from '../utils/time';
-import { SeverityBadge, severityLabels } from './severity-badge';
+import { SeverityBadge, severityLabels } from '../../../components/alert-badges';
+import { formatDateTime, relativeTime } from '../../../lib/format';
 
 function describeEvent(event: AlertEventView): string {
   const who = event.actorName;

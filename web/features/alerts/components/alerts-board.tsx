@@ -2,9 +2,8 @@ import { useCallback, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router';
 import { alertListQuery } from '@shared/schemas/alerts';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
-import type { AlertFilters } from '../api/alert-query-keys';
-import { useAlerts } from '../api/list-alerts';
-import { useNow } from '../utils/use-now';
+import { useNow } from '../../../lib/format';
+import { useAlerts, type AlertFilters } from '../api/list-alerts';
 import { AlertCard } from './alert-card';
 import { AlertDrawer } from './alert-drawer';
 import { AlertFiltersBar, boardStatusLabels } from './alert-filters';
@@ -41,19 +40,22 @@ export function AlertsBoard() {
   const [message, setMessage] = useState('');
   const listHeading = useRef<HTMLHeadingElement>(null);
 
-  const setFilters = (next: AlertFilters) =>
-    setParams(
-      (current) => {
-        const updated = new URLSearchParams(current);
-        for (const key of ['status', 'severity', 'tankId'] as const) {
-          const value = next[key];
-          if (value && !(key === 'status' && value === 'active')) updated.set(key, value);
-          else updated.delete(key);
-        }
-        return updated;
-      },
-      { replace: true },
-    );
+  const setFilters = useCallback(
+    (next: AlertFilters) =>
+      setParams(
+        (current) => {
+          const updated = new URLSearchParams(current);
+          for (const key of ['status', 'severity', 'tankId'] as const) {
+            const value = next[key];
+            if (value && !(key === 'status' && value === 'active')) updated.set(key, value);
+            else updated.delete(key);
+          }
+          return updated;
+        },
+        { replace: true },
+      ),
+    [setParams],
+  );
 
   const openDetail = (alertId: string) =>
     setParams((current) => {

@@ -1,7 +1,7 @@
 import type { DeliveryView } from '@shared/schemas/on-call';
 import { ErrorState, LoadingState } from '../../../components/states';
+import { formatDateTime } from '../../../lib/format';
 import { useFailedDeliveries } from '../api/list-failed-deliveries';
-import { formatDateTime } from '../utils/time';
 
 const channelLabels: Record<DeliveryView['channel'], string> = {
   push: 'Push notification',

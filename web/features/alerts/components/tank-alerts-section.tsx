@@ -1,14 +1,13 @@
 import { Link } from 'react-router';
 import type { AlertView } from '@shared/schemas/alerts';
+import { AlertStatusBadge, SeverityBadge, severityEdge } from '../../../components/alert-badges';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../../../lib/auth';
+import { can, useMe } from '../../../lib/auth';
+import { formatDateTime, relativeTime, useNow } from '../../../lib/format';
 import { useAlerts } from '../api/list-alerts';
 import { criticalFirstSteps } from '../utils/alert-facts';
-import { formatDateTime, relativeTime } from '../utils/time';
-import { useNow } from '../utils/use-now';
 import { AlertFactsList } from './alert-facts-list';
 import { FirstStepsPanel } from './first-steps-panel';
-import { AlertStatusBadge, SeverityBadge, severityEdge } from './severity-badge';
 
 const recentResolved = 5;
 
@@ -49,7 +48,7 @@ export function TankAlertsSection({ tankId }: { tankId: string }) {
     .filter((alert) => alert.status === 'resolved')
     .sort((a, b) => Date.parse(b.resolvedAt ?? b.openedAt) - Date.parse(a.resolvedAt ?? a.openedAt))
     .slice(0, recentResolved);
-  const staff = me && me.role !== 'owner';
+  const staff = can(me, 'alerts:manage');
 
   return (
     <section aria-labelledby="tank-alerts-title" className="grid gap-4">

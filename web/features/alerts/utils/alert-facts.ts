@@ -2,7 +2,7 @@ import { firstSteps, type FirstSteps } from '@shared/alerts/first-steps';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { formatValue } from '@shared/parameters/units';
 import type { AlertView } from '@shared/schemas/alerts';
-import type { LimitDirection } from '@shared/schemas/limits';
+import type { LimitDirection } from '@shared/parameters/limits';
 
 /**
  * Which side of its limit the alert is on. The view does not carry the stored direction, so it is

@@ -1,12 +1,20 @@
 import { useEffect, type ReactNode } from 'react';
 import { Link, Outlet } from 'react-router';
-import type { Role } from '@shared/schemas/users';
+import type { Permission } from '@shared/people/permissions';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../../../lib/auth';
-import { signInUrl } from '../../../lib/auth';
+import { can, signInUrl, useMe } from '../../../lib/auth';
 
-/** Guards an area of the app by role; signed-out visitors go to sign in and come back. */
-export function RequireRole({ roles, children }: { roles: readonly Role[]; children?: ReactNode }) {
+/**
+ * Guards an area of the app by what the person may do there (the API's own permission for it);
+ * signed-out visitors go to sign in and come back.
+ */
+export function RequirePermission({
+  permission,
+  children,
+}: {
+  permission: Permission;
+  children?: ReactNode;
+}) {
   const me = useMe();
   const signedOut = me.isSuccess && me.data === null;
   useEffect(() => {
@@ -27,7 +35,7 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
       </div>
     );
   }
-  if (!roles.includes(me.data!.role)) {
+  if (!can(me.data, permission)) {
     return (
       <section className="mx-auto max-w-xl px-4 py-16 text-center" aria-labelledby="wrong-area-title">
         <h1 id="wrong-area-title" className="text-2xl font-bold text-ink-900">

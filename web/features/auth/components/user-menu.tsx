@@ -1,7 +1,6 @@
 import { Button } from '../../../components/button';
-import { useMe } from '../../../lib/auth';
+import { signInUrl, useMe } from '../../../lib/auth';
 import { useSignOut } from '../api/sign-out';
-import { signInUrl } from '../../../lib/auth';
 
 const roleLabel = { owner: 'Tank owner', technician: 'Technician', admin: 'Admin' } as const;
 

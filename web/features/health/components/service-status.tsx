@@ -1,3 +1,4 @@
+import { Badge } from '../../../components/badge';
 import { useHealth } from '../api/get-health';
 
 /** A quiet line telling whether the portal and its database are answering. */
@@ -16,25 +17,20 @@ export function ServiceStatus() {
     dot = 'bg-alert-700';
   }
   return (
-    <div
-      role="status"
-      aria-live="polite"
-      className={`inline-flex items-center gap-3 rounded-full px-4 py-2 text-sm ${tone}`}
-    >
-      <span className={`h-2.5 w-2.5 rounded-full ${dot}`} aria-hidden="true" />
-      <span className="font-bold" data-testid="service-status">
-        {label}
-      </span>
-      {(isError || data?.db === 'down') && (
-        <button
-          type="button"
-          onClick={() => void refetch()}
-          disabled={isFetching}
-          className="rounded-full border border-current px-3 py-0.5 text-xs font-bold"
-        >
-          {isFetching ? 'Trying…' : 'Try again'}
-        </button>
-      )}
+    <div role="status" aria-live="polite" className="inline-flex">
+      <Badge tone={tone} mark={<span className={`h-2.5 w-2.5 rounded-full ${dot}`} />}>
+        <span data-testid="service-status">{label}</span>
+        {(isError || data?.db === 'down') && (
+          <button
+            type="button"
+            onClick={() => void refetch()}
+            disabled={isFetching}
+            className="ml-1.5 rounded-full border border-current px-3 py-0.5 text-xs font-bold"
+          >
+            {isFetching ? 'Trying…' : 'Try again'}
+          </button>
+        )}
+      </Badge>
     </div>
   );
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { NotificationView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
+import { notificationKeys } from '../../../lib/query-keys';
 
 export interface NotificationInbox {
   unread: number;
@@ -11,11 +12,9 @@ export interface NotificationInbox {
 export const listNotifications = (signal?: AbortSignal) =>
   api<NotificationInbox>('/notifications', { signal });
 
-export const notificationsQueryKey = ['notifications'] as const;
-
 export const notificationsQueryOptions = () =>
   queryOptions({
-    queryKey: notificationsQueryKey,
+    queryKey: notificationKeys.inbox,
     queryFn: ({ signal }) => listNotifications(signal),
     // Live events keep this fresh; the slow poll only covers a stream that has quietly dropped.
     refetchInterval: 5 * 60_000,

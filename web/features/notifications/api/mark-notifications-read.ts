@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { notificationsQueryKey } from './list-notifications';
+import { notificationKeys } from '../../../lib/query-keys';
 
 /** Without ids, every unread notification of the signed-in person is marked read. */
 export const markNotificationsRead = (ids?: string[]) =>
@@ -10,6 +10,6 @@ export const useMarkNotificationsRead = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: markNotificationsRead,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: notificationsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: notificationKeys.inbox }),
   });
 };

@@ -1,13 +1,12 @@
 import { useEffect, useId, useRef, useState, type CSSProperties } from 'react';
 import { Link } from 'react-router';
 import type { NotificationView } from '@shared/schemas/alerts';
+import { SeverityBadge } from '../../../components/alert-badges';
 import { FieldError } from '../../../components/form-fields';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { problemMessage } from '../../../lib/form-issues';
-import { SeverityBadge } from '../../alerts/components/severity-badge';
-import { formatDateTime, relativeTime } from '../../alerts/utils/time';
-import { useNow } from '../../alerts/utils/use-now';
 import { useMe } from '../../../lib/auth';
+import { formatDateTime, relativeTime, useNow } from '../../../lib/format';
 import { useNotifications } from '../api/list-notifications';
 import { useMarkNotificationsRead } from '../api/mark-notifications-read';
 

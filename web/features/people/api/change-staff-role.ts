@@ -1,9 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { StaffRole } from '@shared/people/permissions';
 import type { StaffMember } from '@shared/schemas/users';
 import { api } from '../../../lib/api-client';
-import { staffQueryKey } from './people-query-keys';
-
-export type StaffRole = 'technician' | 'admin';
+import { invalidatePeople } from '../../../lib/queries/people';
 
 /** The API answers 409 `own_role` when an admin tries to change their own role. */
 export const changeStaffRole = ({ userId, role }: { userId: string; role: StaffRole }) =>
@@ -11,8 +10,5 @@ export const changeStaffRole = ({ userId, role }: { userId: string; role: StaffR
 
 export const useChangeStaffRole = () => {
   const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: changeStaffRole,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: staffQueryKey }),
-  });
+  return useMutation({ mutationFn: changeStaffRole, onSuccess: () => invalidatePeople(queryClient) });
 };

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateInvitationInput, Invitation } from '@shared/schemas/invitations';
 import { api } from '../../../lib/api-client';
-import { invitationsQueryKey } from './list-invitations';
+import { peopleKeys } from '../../../lib/query-keys';
 
 /** `emailSent: false` means the invitation exists but its e-mail did not leave. */
 export type CreatedInvitation = Invitation & { emailSent: boolean };
@@ -13,6 +13,6 @@ export const useCreateInvitation = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createInvitation,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: invitationsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.invitations() }),
   });
 };

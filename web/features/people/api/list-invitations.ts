@@ -1,13 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Invitation } from '@shared/schemas/invitations';
 import { api } from '../../../lib/api-client';
+import { peopleKeys } from '../../../lib/query-keys';
 
 /** Newest first, every status; staff and client invitations together. */
 export const getInvitations = (signal?: AbortSignal) => api<Invitation[]>('/invitations', { signal });
 
-export const invitationsQueryKey = ['invitations'] as const;
-
 export const invitationsQueryOptions = () =>
-  queryOptions({ queryKey: invitationsQueryKey, queryFn: ({ signal }) => getInvitations(signal) });
+  queryOptions({ queryKey: peopleKeys.invitations(), queryFn: ({ signal }) => getInvitations(signal) });
 
 export const useInvitations = () => useQuery(invitationsQueryOptions());

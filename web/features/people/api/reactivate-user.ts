@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { StaffMember } from '@shared/schemas/users';
 import { api } from '../../../lib/api-client';
-import { invalidatePeople } from './people-query-keys';
+import { invalidatePeople } from '../../../lib/queries/people';
 
 export const reactivateUser = (userId: string) =>
   api<StaffMember>(`/users/${userId}/reactivate`, { method: 'POST' });

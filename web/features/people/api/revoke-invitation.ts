@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { invitationsQueryKey } from './list-invitations';
+import { peopleKeys } from '../../../lib/query-keys';
 
 export const revokeInvitation = (invitationId: string) =>
   api<void>(`/invitations/${invitationId}`, { method: 'DELETE' });
@@ -9,6 +9,6 @@ export const useRevokeInvitation = () => {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: revokeInvitation,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: invitationsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.invitations() }),
   });
 };

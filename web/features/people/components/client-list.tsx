@@ -2,8 +2,8 @@ import { useDeferredValue, useId, useState } from 'react';
 import type { ClientSummary } from '@shared/schemas/users';
 import { AccountStatusBadge } from '../../../components/badges';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
-import { AccountStatusAction } from '../../staff/components/account-status-action';
-import { useClients } from '../api/list-clients';
+import { useClients } from '../../../lib/queries/people';
+import { AccountStatusAction } from './account-status-action';
 
 const fold = (text: string) => text.normalize('NFKD').replace(/\p{M}/gu, '').toLocaleLowerCase();
 

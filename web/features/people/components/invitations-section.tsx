@@ -1,14 +1,14 @@
 import { useState } from 'react';
+import { isStaffRole } from '@shared/people/permissions';
 import type { Invitation } from '@shared/schemas/invitations';
 import { InvitationStatusBadge, RoleBadge } from '../../../components/badges';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { problemMessage } from '../../../lib/form-issues';
+import { formatDate } from '../../../lib/format';
 import { useInvitations } from '../api/list-invitations';
 import { useRevokeInvitation } from '../api/revoke-invitation';
-
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
 
 function InvitationRow({
   invitation,
@@ -25,9 +25,9 @@ function InvitationRow({
   };
   const when =
     invitation.status === 'pending'
-      ? `Link works until ${day(invitation.expiresAt)}`
+      ? `Link works until ${formatDate(invitation.expiresAt)}`
       : invitation.status === 'expired'
-        ? `Expired ${day(invitation.expiresAt)}`
+        ? `Expired ${formatDate(invitation.expiresAt)}`
         : null;
   return (
     <li className="flex flex-col gap-3 p-4 sm:flex-row sm:items-center sm:justify-between">
@@ -35,7 +35,7 @@ function InvitationRow({
         <h3 className="break-all font-bold text-ink-900">{invitation.email}</h3>
         {invitation.name && <p className="text-sm text-ink-700">{invitation.name}</p>}
         <div className="mt-2 flex flex-wrap items-center gap-2">
-          {invitation.role !== 'owner' && <RoleBadge role={invitation.role} />}
+          {isStaffRole(invitation.role) && <RoleBadge role={invitation.role} />}
           <InvitationStatusBadge status={invitation.status} />
           {invitation.tank && <span className="text-sm text-ink-700">Tank: {invitation.tank.name}</span>}
         </div>
@@ -77,12 +77,12 @@ function InvitationRow({
 const audiences = {
   staff: {
     title: 'Invitations',
-    includes: (invitation: Invitation) => invitation.role !== 'owner',
+    includes: (invitation: Invitation) => isStaffRole(invitation.role),
     none: 'Nobody has been invited to the team yet.',
   },
   clients: {
     title: 'Client invitations',
-    includes: (invitation: Invitation) => invitation.role === 'owner',
+    includes: (invitation: Invitation) => !isStaffRole(invitation.role),
     none: 'No client has been invited yet.',
   },
 } as const;

@@ -1,15 +1,24 @@
 import { useState } from 'react';
-import { Button } from '../../../components/button';
+import { z } from 'zod';
+import { createInvitationInput } from '@shared/schemas/invitations';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { TextField } from '../../../components/form-fields';
-import { InvitationOutcome } from '../../staff/components/invitation-outcome';
-import { useInviteSubmit } from '../../staff/components/use-invite-submit';
+import { blankAsUndefined } from '../../../lib/form-values';
+import { useCreateInvitation, type CreatedInvitation } from '../api/create-invitation';
+import { InvitationOutcome } from './invitation-outcome';
 import { TankField } from './tank-field';
 
+const clientInvitation = createInvitationInput.options[1];
+const inviteClientForm = z.object({
+  email: clientInvitation.shape.email,
+  name: blankAsUndefined(clientInvitation.shape.name),
+  tankId: clientInvitation.shape.tankId,
+});
+
 export function InviteClientForm({ className = '' }: { className?: string }) {
-  const [email, setEmail] = useState('');
-  const [name, setName] = useState('');
-  const [tankId, setTankId] = useState('');
-  const { formRef, submit, issues, outcome, pending } = useInviteSubmit(['email', 'name', 'tankId']);
+  const invite = useCreateInvitation();
+  const [outcome, setOutcome] = useState<CreatedInvitation | null>(null);
+  const form = useZodForm(inviteClientForm, { defaultValues: { email: '', name: '', tankId: '' } });
 
   return (
     <section
@@ -23,42 +32,27 @@ export function InviteClientForm({ className = '' }: { className?: string }) {
         The owner of a tank gets an e-mail with a link that works once. Invite each person who should follow
         the tank.
       </p>
-      <form
-        ref={formRef}
-        noValidate
+      <Form
+        form={form}
         className="mt-4 grid gap-4"
-        onSubmit={(event) => {
-          event.preventDefault();
-          submit({ role: 'owner', email: email.trim(), name: name.trim() || undefined, tankId }, () => {
-            setEmail('');
-            setName('');
-            setTankId('');
-          });
+        onSubmit={async (values) => {
+          setOutcome(null);
+          setOutcome(await invite.mutateAsync({ role: 'owner', ...values }));
+          form.reset();
         }}
       >
+        <TextField name="email" label="E-mail address" type="email" autoComplete="off" spellCheck={false} />
         <TextField
-          label="E-mail address"
-          type="email"
-          autoComplete="off"
-          spellCheck={false}
-          value={email}
-          onChange={setEmail}
-          error={issues.fields.email}
-        />
-        <TextField
+          name="name"
           label="Name (optional)"
           hint="Used to greet them in the e-mail."
           autoComplete="off"
-          value={name}
-          onChange={setName}
-          error={issues.fields.name}
         />
-        <TankField value={tankId} onChange={setTankId} error={issues.fields.tankId} />
-        <InvitationOutcome outcome={outcome} issues={issues} />
-        <Button type="submit" disabled={pending}>
-          {pending ? 'Sending invitation…' : 'Send invitation'}
-        </Button>
-      </form>
+        <TankField name="tankId" />
+        <InvitationOutcome outcome={outcome} />
+        <FormProblem />
+        <SubmitButton pending="Sending invitation…">Send invitation</SubmitButton>
+      </Form>
     </section>
   );
 }

@@ -50,7 +50,12 @@ export function InviteStaffForm({ className = '' }: { className?: string }) {
         }}
       >
         <TextField name="email" label="E-mail address" type="email" autoComplete="off" spellCheck={false} />
-        <TextField name="name" label="Name (optional)" hint="Used to greet them in the e-mail." autoComplete="off" />
+        <TextField
+          name="name"
+          label="Name (optional)"
+          hint="Used to greet them in the e-mail."
+          autoComplete="off"
+        />
         <RadioGroupField name="role" label="Role" look="rows" options={roleChoices} />
         <InvitationOutcome outcome={outcome} />
         <FormProblem />

@@ -5,8 +5,8 @@ import { Button } from '../../../components/button';
 import { FieldError } from '../../../components/form-fields';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { problemMessage } from '../../../lib/form-issues';
+import { useStaff } from '../../../lib/queries/people';
 import { useChangeStaffRole } from '../api/change-staff-role';
-import { useStaff } from '../api/list-staff';
 import { AccountStatusAction } from './account-status-action';
 
 const otherRole = { technician: 'admin', admin: 'technician' } as const;

@@ -1,16 +1,15 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { NotificationPreferences } from '@shared/schemas/notifications';
 import { api } from '../../../lib/api-client';
+import { notificationKeys } from '../../../lib/query-keys';
 
 export const getNotificationPreferences = (signal?: AbortSignal) =>
   api<NotificationPreferences>('/notifications/preferences', { signal });
 
-/** Not under `['notifications']`: live events refresh the inbox, and must not reload a form being edited. */
-export const notificationPreferencesQueryKey = ['notification-preferences'] as const;
-
 export const notificationPreferencesQueryOptions = () =>
   queryOptions({
-    queryKey: notificationPreferencesQueryKey,
+    // Apart from the inbox: live events refresh that, and must not reload a form being edited.
+    queryKey: notificationKeys.preferences,
     queryFn: ({ signal }) => getNotificationPreferences(signal),
     refetchOnWindowFocus: false,
   });

@@ -1,11 +1,11 @@
-import { useId, useMemo, useState, type FormEvent } from 'react';
+import { useEffect, useId, useMemo, useState } from 'react';
+import { useController, useWatch } from 'react-hook-form';
+import { z } from 'zod';
 import { alertSeverities, type AlertSeverity } from '@shared/alerts/kinds';
 import { notificationPreferences, type NotificationPreferences } from '@shared/schemas/notifications';
-import { Button } from '../../../components/button';
-import { FieldError } from '../../../components/form-fields';
-import { ApiError } from '../../../lib/api-client';
-import { groupIssues, problemMessage } from '../../../lib/form-issues';
-import { SeverityBadge } from '../../alerts/components/severity-badge';
+import { SeverityBadge } from '../../../components/alert-badges';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { CheckboxField, SelectField, TextField } from '../../../components/form-fields';
 import { useSaveNotificationPreferences } from '../api/save-notification-preferences';
 
 type Channel = 'push' | 'email' | 'inApp';
@@ -22,13 +22,43 @@ const severityHelp: Record<AlertSeverity, string> = {
   notice: 'Low urgency: a home test that is due, or a reading back within its limits.',
 };
 
-const fields = ['quietHours.start', 'quietHours.end', 'timeZone'] as const;
-type Field = (typeof fields)[number];
+/*
+ * The form keeps the quiet hours while they are switched off (`holdBack`), so switching them back
+ * on brings the last times back; only when they are on are the times checked and sent.
+ */
+const { push, email, inApp, timeZone } = notificationPreferences.shape;
+const clockTimes = notificationPreferences.shape.quietHours.unwrap().shape;
+const choices = { push, email, inApp, timeZone };
+const preferencesForm = z
+  .discriminatedUnion('holdBack', [
+    z.object({
+      ...choices,
+      holdBack: z.literal(true),
+      quietHours: z.object({
+        start: z.string().trim().pipe(clockTimes.start),
+        end: z.string().trim().pipe(clockTimes.end),
+      }),
+    }),
+    z.object({
+      ...choices,
+      holdBack: z.literal(false),
+      quietHours: z.object({ start: z.string(), end: z.string() }),
+    }),
+  ])
+  .transform(({ holdBack, quietHours, ...rest }): NotificationPreferences => ({
+    ...rest,
+    quietHours: holdBack ? quietHours : null,
+  }));
+type PreferencesFormValues = z.input<typeof preferencesForm>;
 
-const inputClass = (invalid: boolean) =>
-  `mt-1 min-h-12 w-full min-w-0 rounded-lg border-2 bg-white px-3 text-base text-ink-950 ${
-    invalid ? 'border-alert-700' : 'border-ink-300 focus:border-ink-700'
-  }`;
+const formValues = (preferences: NotificationPreferences): PreferencesFormValues => ({
+  push: preferences.push,
+  email: preferences.email,
+  inApp: preferences.inApp,
+  timeZone: preferences.timeZone,
+  holdBack: preferences.quietHours !== null,
+  quietHours: preferences.quietHours ?? { start: '22:00', end: '07:00' },
+});
 
 function timeZones(current: string): string[] {
   const zones = Intl.supportedValuesOf('timeZone');
@@ -37,67 +67,70 @@ function timeZones(current: string): string[] {
 
 const deviceZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
 
+/** One severity on one channel: a tick in that channel's list of severities. */
+function ChannelChoice({
+  channel,
+  severity,
+  label,
+}: {
+  channel: Channel;
+  severity: AlertSeverity;
+  label: string;
+}) {
+  const { field } = useController<PreferencesFormValues, Channel>({ name: channel });
+  const chosen = field.value;
+  return (
+    <label className="flex min-h-11 cursor-pointer items-center gap-1.5 whitespace-nowrap rounded-lg border-2 border-ink-100 px-2 text-sm font-bold text-ink-900 has-[:checked]:border-brine-700 has-[:checked]:bg-brine-100 sm:gap-2 sm:px-3">
+      <input
+        type="checkbox"
+        checked={chosen.includes(severity)}
+        onChange={(event) =>
+          field.onChange(
+            alertSeverities.filter((s) => (s === severity ? event.target.checked : chosen.includes(s))),
+          )
+        }
+        onBlur={field.onBlur}
+        className="h-5 w-5 shrink-0 accent-brine-700"
+      />
+      {label}
+    </label>
+  );
+}
+
 /** Which alerts reach this person on which channel, and when to hold the non-critical ones back. */
 export function NotificationPreferencesForm({ initial }: { initial: NotificationPreferences }) {
-  const [preferences, setPreferences] = useState(initial);
-  const [lastQuietHours, setLastQuietHours] = useState(
-    initial.quietHours ?? { start: '22:00', end: '07:00' },
-  );
-  const [errors, setErrors] = useState<Partial<Record<Field, string>>>({});
-  const [saved, setSaved] = useState(false);
   const save = useSaveNotificationPreferences();
+  const form = useZodForm(preferencesForm, { defaultValues: formValues(initial) });
+  const [saved, setSaved] = useState(false);
   const id = useId();
-  const zones = useMemo(() => timeZones(preferences.timeZone), [preferences.timeZone]);
+  const [pushOn, emailOn, inAppOn, holdBack, zone] = useWatch({
+    control: form.control,
+    name: ['push', 'email', 'inApp', 'holdBack', 'timeZone'],
+  });
+  const zones = useMemo(() => timeZones(zone), [zone]);
+  const zoneOptions = useMemo(() => zones.map((z) => ({ value: z, label: z.replace(/_/g, ' ') })), [zones]);
   const hereZone = deviceZone();
 
-  const update = (next: NotificationPreferences) => {
-    setSaved(false);
-    setPreferences(next);
-  };
-
-  const toggle = (channel: Channel, severity: AlertSeverity, on: boolean) => {
-    const chosen = new Set(preferences[channel]);
-    if (on) chosen.add(severity);
-    else chosen.delete(severity);
-    update({ ...preferences, [channel]: alertSeverities.filter((s) => chosen.has(s)) });
-  };
-
-  const setQuiet = (part: 'start' | 'end', value: string) => {
-    const quietHours = { ...(preferences.quietHours ?? lastQuietHours), [part]: value };
-    setLastQuietHours(quietHours);
-    update({ ...preferences, quietHours });
-  };
-
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    const checked = notificationPreferences.safeParse(preferences);
-    if (!checked.success) {
-      setErrors(
-        groupIssues(
-          checked.error.issues.map((issue) => ({ path: issue.path.join('.'), message: issue.message })),
-          fields,
-        ).fields,
-      );
-      return;
-    }
-    setErrors({});
-    save.mutate(checked.data, {
-      onSuccess: () => setSaved(true),
-      onError: (error) => {
-        if (error instanceof ApiError) setErrors(groupIssues(error.issues, fields).fields);
-      },
+  // "Saved." stays only until the next change.
+  useEffect(() => {
+    const subscription = form.watch((_values, { name }) => {
+      if (name) setSaved(false);
     });
-  };
+    return () => subscription.unsubscribe();
+  }, [form]);
 
-  const criticalNowhere = channels.every((channel) => !preferences[channel.key].includes('critical'));
-  const quiet = preferences.quietHours;
+  const criticalNowhere = [pushOn, emailOn, inAppOn].every((chosen) => !chosen.includes('critical'));
 
   return (
-    <form
-      noValidate
-      onSubmit={submit}
+    <Form
+      form={form}
       aria-labelledby={`${id}-title`}
       className="rounded-card bg-white p-4 shadow-card sm:p-6"
+      onSubmit={async (preferences) => {
+        const stored = await save.mutateAsync(preferences);
+        form.reset(formValues(stored));
+        setSaved(true);
+      }}
     >
       <h2 id={`${id}-title`} className="text-xl font-bold text-ink-900">
         How alerts reach you
@@ -130,18 +163,12 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
             <p className="text-sm text-ink-700">{severityHelp[severity]}</p>
             <div className="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2">
               {channels.map((channel) => (
-                <label
+                <ChannelChoice
                   key={channel.key}
-                  className="flex min-h-11 cursor-pointer items-center gap-1.5 whitespace-nowrap rounded-lg border-2 border-ink-100 px-2 text-sm font-bold text-ink-900 has-[:checked]:border-brine-700 has-[:checked]:bg-brine-100 sm:gap-2 sm:px-3"
-                >
-                  <input
-                    type="checkbox"
-                    checked={preferences[channel.key].includes(severity)}
-                    onChange={(event) => toggle(channel.key, severity, event.target.checked)}
-                    className="h-5 w-5 shrink-0 accent-brine-700"
-                  />
-                  {channel.label}
-                </label>
+                  channel={channel.key}
+                  severity={severity}
+                  label={channel.label}
+                />
               ))}
             </div>
           </fieldset>
@@ -156,41 +183,23 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
 
       <fieldset className="mt-6">
         <legend className="text-lg font-bold text-ink-900">Quiet hours</legend>
-        <label className="mt-2 flex min-h-11 cursor-pointer items-center gap-3 font-bold text-ink-900">
-          <input
-            type="checkbox"
-            checked={quiet !== null}
-            onChange={(event) =>
-              update({ ...preferences, quietHours: event.target.checked ? lastQuietHours : null })
-            }
-            className="h-5 w-5 shrink-0 accent-brine-700"
-          />
-          Hold back warnings and notices at night
-        </label>
-        {quiet && (
-          <div className="mt-2 grid grid-cols-2 gap-3">
-            {(['start', 'end'] as const).map((part) => {
-              const field = `quietHours.${part}` as const;
-              return (
-                <div key={part} className="min-w-0">
-                  <label htmlFor={`${id}-${part}`} className="block font-bold text-ink-900">
-                    {part === 'start' ? 'From' : 'Until'}
-                  </label>
-                  <input
-                    id={`${id}-${part}`}
-                    value={quiet[part]}
-                    onChange={(event) => setQuiet(part, event.target.value.trim())}
-                    inputMode="numeric"
-                    autoComplete="off"
-                    placeholder={part === 'start' ? '22:00' : '07:00'}
-                    aria-invalid={errors[field] ? true : undefined}
-                    aria-describedby={`${id}-clock-hint${errors[field] ? ` ${id}-${part}-error` : ''}`}
-                    className={inputClass(Boolean(errors[field]))}
-                  />
-                  {errors[field] && <FieldError id={`${id}-${part}-error`}>{errors[field]}</FieldError>}
-                </div>
-              );
-            })}
+        <CheckboxField name="holdBack" label="Hold back warnings and notices at night" className="mt-2" />
+        {holdBack && (
+          <div role="group" aria-describedby={`${id}-clock-hint`} className="mt-2 grid grid-cols-2 gap-3">
+            <TextField
+              name="quietHours.start"
+              label="From"
+              inputMode="numeric"
+              autoComplete="off"
+              placeholder="22:00"
+            />
+            <TextField
+              name="quietHours.end"
+              label="Until"
+              inputMode="numeric"
+              autoComplete="off"
+              placeholder="07:00"
+            />
             <p id={`${id}-clock-hint`} className="col-span-2 text-sm text-ink-700">
               On the 24-hour clock, such as 22:00 to 07:00.
             </p>
@@ -199,31 +208,16 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
       </fieldset>
 
       <div className="mt-6">
-        <label htmlFor={`${id}-zone`} className="block text-lg font-bold text-ink-900">
-          Time zone
-        </label>
-        <p id={`${id}-zone-hint`} className="text-sm text-ink-700">
-          Quiet hours and the times in your e-mails follow this zone.
-        </p>
-        <select
-          id={`${id}-zone`}
-          value={preferences.timeZone}
-          onChange={(event) => update({ ...preferences, timeZone: event.target.value })}
-          aria-describedby={`${id}-zone-hint${errors.timeZone ? ` ${id}-zone-error` : ''}`}
-          aria-invalid={errors.timeZone ? true : undefined}
-          className={inputClass(Boolean(errors.timeZone))}
-        >
-          {zones.map((zone) => (
-            <option key={zone} value={zone}>
-              {zone.replace(/_/g, ' ')}
-            </option>
-          ))}
-        </select>
-        {errors.timeZone && <FieldError id={`${id}-zone-error`}>{errors.timeZone}</FieldError>}
-        {hereZone && hereZone !== preferences.timeZone && zones.includes(hereZone) && (
+        <SelectField
+          name="timeZone"
+          label="Time zone"
+          hint="Quiet hours and the times in your e-mails follow this zone."
+          options={zoneOptions}
+        />
+        {hereZone && hereZone !== zone && zones.includes(hereZone) && (
           <button
             type="button"
-            onClick={() => update({ ...preferences, timeZone: hereZone })}
+            onClick={() => form.setValue('timeZone', hereZone, { shouldDirty: true })}
             className="mt-2 min-h-11 font-bold text-brine-700 underline"
           >
             Use this device’s zone ({hereZone.replace(/_/g, ' ')})
@@ -231,19 +225,13 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
         )}
       </div>
 
-      {save.isError && !(save.error instanceof ApiError && save.error.issues.length > 0) && (
-        <div role="alert">
-          <FieldError>{problemMessage(save.error)}</FieldError>
-        </div>
-      )}
+      <FormProblem />
       <div className="mt-6 flex flex-wrap items-center gap-3">
-        <Button type="submit" disabled={save.isPending}>
-          {save.isPending ? 'Saving…' : 'Save preferences'}
-        </Button>
+        <SubmitButton pending="Saving…">Save preferences</SubmitButton>
         <p role="status" className="font-bold text-healthy-700">
           {saved ? 'Saved.' : ''}
         </p>
       </div>
-    </form>
+    </Form>
   );
 }
