@@ -92,13 +92,10 @@ export function TextField<T extends FieldValues = FieldValues>({
   hint,
   className,
   suffix,
-  error: shownError,
   ...input
-}: BoundProps<T> & InputProps & { suffix?: ReactNode; error?: string }) {
+}: BoundProps<T> & InputProps & { suffix?: ReactNode }) {
   const id = useId();
-  const { field, error: fieldError } = useBoundField<T>(name);
-  // A live calculator works its problems out from the values as they are typed, not in its schema.
-  const error = shownError ?? fieldError;
+  const { field, error } = useBoundField<T>(name);
   return (
     <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       {(described) => {
@@ -133,7 +130,7 @@ export function TextField<T extends FieldValues = FieldValues>({
  * `decimalText` (lib/decimal.ts). `suffix` shows the unit beside the box.
  */
 export function DecimalField<T extends FieldValues = FieldValues>(
-  props: BoundProps<T> & InputProps & { suffix?: ReactNode; error?: string },
+  props: BoundProps<T> & InputProps & { suffix?: ReactNode },
 ) {
   return <TextField<T> inputMode="decimal" autoComplete="off" spellCheck={false} {...props} />;
 }

@@ -43,11 +43,14 @@ export function useZodForm<S extends FormSchema>(
 export function Form<TInput extends FieldValues, TOutput extends FieldValues>({
   form,
   onSubmit,
+  fieldFor,
   children,
   ...props
 }: Omit<FormHTMLAttributes<HTMLFormElement>, 'onSubmit'> & {
   form: UseFormReturn<TInput, unknown, TOutput>;
   onSubmit: (values: TOutput) => unknown;
+  /** Renames a server issue's path where the form is shaped differently from the request. */
+  fieldFor?: (path: string) => string | null;
   children: ReactNode;
 }) {
   return (
@@ -60,7 +63,7 @@ export function Form<TInput extends FieldValues, TOutput extends FieldValues>({
             try {
               await onSubmit(values);
             } catch (error) {
-              applyServerIssues(form, error);
+              applyServerIssues(form, error, fieldFor);
             }
           })(event)
         }
@@ -90,18 +93,21 @@ export function SubmitButton({
   pending,
   tone,
   className,
+  disabled = false,
 }: {
   children: ReactNode;
   /** What it says while sending, e.g. "Saving…". */
   pending: ReactNode;
   tone?: 'primary' | 'secondary' | 'danger';
   className?: string;
+  /** Held back until the form can be sent, e.g. until warnings are acknowledged. */
+  disabled?: boolean;
 }) {
   const {
     formState: { isSubmitting },
   } = useFormContext();
   return (
-    <Button type="submit" tone={tone} disabled={isSubmitting} className={className}>
+    <Button type="submit" tone={tone} disabled={disabled || isSubmitting} className={className}>
       {isSubmitting ? pending : children}
     </Button>
   );

@@ -21,7 +21,8 @@ export function decimalText<S extends z.ZodType = z.ZodNumber>(number?: S) {
     }
     return parsed.state === 'empty' ? undefined : parsed.value;
   });
-  const check = number ?? z.number({ error: (issue) => (issue.input === undefined ? 'Enter a number.' : undefined) });
+  const check =
+    number ?? z.number({ error: (issue) => (issue.input === undefined ? 'Enter a number.' : undefined) });
   return read.pipe(check as unknown as z.ZodType<z.output<S>, number | undefined>);
 }
 
@@ -31,5 +32,16 @@ export const decimalDefault = (value: number | null | undefined): string =>
 
 /** Text where blank means "not given": "" and whitespace become `undefined` before `schema` runs. */
 export function blankAsUndefined<S extends z.ZodType>(schema: S) {
-  return z.preprocess((value) => (typeof value === 'string' && value.trim() === '' ? undefined : value), schema);
+  return z.preprocess(
+    (value) => (typeof value === 'string' && value.trim() === '' ? undefined : value),
+    schema,
+  );
+}
+
+/**
+ * Text where blank means "none": "" and whitespace become `null` before `schema` runs. For a change
+ * (PATCH) a left-out value keeps the old one, so clearing a field has to send null.
+ */
+export function blankAsNull<S extends z.ZodType>(schema: S) {
+  return z.preprocess((value) => (typeof value === 'string' && value.trim() === '' ? null : value), schema);
 }

@@ -5,7 +5,7 @@ import { attempt } from '../utils/range-message';
 import { readFields } from '../utils/read-fields';
 import { notReady, type ResultStatus } from '../utils/result-status';
 import { CalculatorCard } from './calculator-card';
-import { ChoiceGroup } from './choice-group';
+import { RadioGroup } from '../../../components/radio-group';
 import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
@@ -58,7 +58,7 @@ export function AlkalinityCalculator() {
       title="Alkalinity units"
       intro="Test kits and labs report alkalinity in different units. Enter one to see all three."
     >
-      <ChoiceGroup legend="Your reading is in" value={unit} onChange={setUnit} choices={unitChoices} />
+      <RadioGroup legend="Your reading is in" value={unit} onChange={setUnit} options={unitChoices} />
       <NumberField
         label="Alkalinity"
         unit={shownAs[unit].unit}

@@ -5,11 +5,12 @@ import { attempt, type ArgumentMap } from '../utils/range-message';
 import { readFields } from '../utils/read-fields';
 import { notReady, type ResultStatus } from '../utils/result-status';
 import { convertTemperatureText, fromCelsius, toCelsius, type TemperatureUnit } from '../utils/temperature';
+import { RadioGroup } from '../../../components/radio-group';
+import { temperatureUnits } from '../utils/temperature';
 import { CalculatorCard } from './calculator-card';
 import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
-import { TemperatureUnitChoice } from './temperature-unit-choice';
 
 type Field = 'total' | 'pH' | 'temperature' | 'salinity';
 type Danger = 'low' | 'watch' | 'harmful';
@@ -136,7 +137,7 @@ export function AmmoniaCalculator() {
         hint="In seawater, use pH on the total scale — the scale the seawater equation was fitted on. A meter calibrated with ordinary buffers reads on a different scale."
         error={errors.pH}
       />
-      <TemperatureUnitChoice value={unit} onChange={changeUnit} />
+      <RadioGroup legend="Temperatures in" value={unit} onChange={changeUnit} options={temperatureUnits} />
       <NumberField
         label="Water temperature"
         unit={unit}

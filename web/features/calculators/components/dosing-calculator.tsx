@@ -14,7 +14,7 @@ import { readFields } from '../utils/read-fields';
 import { notReady, type ResultStatus } from '../utils/result-status';
 import { CalculatorCard } from './calculator-card';
 import { ChemicalCaution } from './chemical-caution';
-import { ChoiceGroup } from './choice-group';
+import { RadioGroup } from '../../../components/radio-group';
 import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SelectField } from './select-field';
@@ -119,7 +119,7 @@ export function DosingCalculator() {
         options={compoundOptions}
         hint={`${compounds[compound].formula}, dry — raises ${raised.parameter}.`}
       />
-      <ChoiceGroup legend="Volumes in" value={volumeUnit} onChange={setVolumeUnit} choices={volumeChoices} />
+      <RadioGroup legend="Volumes in" value={volumeUnit} onChange={setVolumeUnit} options={volumeChoices} />
       <div className="grid gap-5 sm:grid-cols-2">
         <NumberField
           label="Display tank volume"

@@ -12,12 +12,12 @@ import { attempt, type ArgumentMap, type Attempt } from '../utils/range-message'
 import { readFields, type FieldErrors, type FieldSpec } from '../utils/read-fields';
 import { hasErrors, notReady, type ResultStatus } from '../utils/result-status';
 import { convertTemperatureText, fromCelsius, toCelsius, type TemperatureUnit } from '../utils/temperature';
+import { temperatureUnits } from '../utils/temperature';
 import { CalculatorCard } from './calculator-card';
-import { ChoiceGroup } from './choice-group';
+import { RadioGroup } from '../../../components/radio-group';
 import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultUnavailable, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
-import { TemperatureUnitChoice } from './temperature-unit-choice';
 
 type Measured = 'salinity' | 'specificGravity' | 'conductivity';
 type Reference = '25' | '20' | '60F' | '4' | 'other';
@@ -197,11 +197,11 @@ export function SalinityCalculator() {
       title="Salinity"
       intro="Enter what your instrument shows — salinity, specific gravity or conductivity — and see the others, with the water’s density."
     >
-      <ChoiceGroup
+      <RadioGroup
         legend="What did you measure?"
         value={measured}
         onChange={setMeasured}
-        choices={measuredChoices}
+        options={measuredChoices}
       />
       {measured === 'salinity' && (
         <NumberField
@@ -232,7 +232,7 @@ export function SalinityCalculator() {
           error={errors.conductivity}
         />
       )}
-      <TemperatureUnitChoice value={unit} onChange={changeUnit} />
+      <RadioGroup legend="Temperatures in" value={unit} onChange={changeUnit} options={temperatureUnits} />
       <NumberField
         label="Water temperature"
         unit={unit}
@@ -245,12 +245,12 @@ export function SalinityCalculator() {
         }
         error={errors.temperature}
       />
-      <ChoiceGroup
+      <RadioGroup
         legend="Specific gravity reference temperature"
         hint="Hydrometers and refractometers compare the sample with pure water at a stated temperature, printed on the instrument or in its manual."
         value={reference}
         onChange={setReference}
-        choices={referenceChoices}
+        options={referenceChoices}
       />
       {reference === 'other' && (
         <NumberField

@@ -22,3 +22,9 @@ export function convertTemperatureText(raw: string, from: TemperatureUnit, to: T
     throw error;
   }
 }
+
+/** The choices of the calculators' "Temperatures in" switch. */
+export const temperatureUnits = [
+  { value: '°C', label: '°C' },
+  { value: '°F', label: '°F' },
+] as const satisfies readonly { value: TemperatureUnit; label: string }[];

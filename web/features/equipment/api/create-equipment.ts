@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { EquipmentInput, EquipmentItem } from '@shared/schemas/equipment';
 import { api } from '../../../lib/api-client';
-import { equipmentKeys } from './equipment-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const createEquipment = (tankId: string, input: EquipmentInput) =>
   api<EquipmentItem>(`/tanks/${tankId}/equipment`, { method: 'POST', body: input });
@@ -10,6 +10,6 @@ export function useCreateEquipment(tankId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: EquipmentInput) => createEquipment(tankId, input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: equipmentKeys.list(tankId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: tankKeys.equipment(tankId) }),
   });
 }

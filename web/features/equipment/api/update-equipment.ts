@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { EquipmentItem, EquipmentPatch } from '@shared/schemas/equipment';
 import { api } from '../../../lib/api-client';
-import { equipmentKeys } from './equipment-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const updateEquipment = (tankId: string, equipmentId: string, input: EquipmentPatch) =>
   api<EquipmentItem>(`/tanks/${tankId}/equipment/${equipmentId}`, { method: 'PATCH', body: input });
@@ -11,6 +11,6 @@ export function useUpdateEquipment(tankId: string) {
   return useMutation({
     mutationFn: ({ equipmentId, input }: { equipmentId: string; input: EquipmentPatch }) =>
       updateEquipment(tankId, equipmentId, input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: equipmentKeys.list(tankId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: tankKeys.equipment(tankId) }),
   });
 }

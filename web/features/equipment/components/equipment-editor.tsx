@@ -1,31 +1,43 @@
-import { useState, type FormEvent } from 'react';
+import { useState } from 'react';
+import { z } from 'zod';
 import {
+  equipmentInput,
+  equipmentIssues,
   equipmentKindLabels,
   equipmentKinds,
   type EquipmentInput,
   type EquipmentItem,
-  type EquipmentKind,
 } from '@shared/schemas/equipment';
 import { Button } from '../../../components/button';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
-import { ApiError } from '../../../lib/api-client';
-import { fieldErrors } from '../../../lib/form-issues';
+import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
 import { useCreateEquipment } from '../api/create-equipment';
 import { useDeleteEquipment } from '../api/delete-equipment';
 import { useUpdateEquipment } from '../api/update-equipment';
 
-interface FormValues {
-  kind: EquipmentKind;
-  description: string;
-  powerBoard: string;
-  outlet: string;
-  installedOn: string;
-  lastServicedOn: string;
-  maintenanceIntervalDays: string;
-  notes: string;
-}
+const fields = equipmentInput.shape;
 
-const emptyValues: FormValues = {
+/** Blank text is sent as null, so clearing a field on a change clears it on the record too. */
+const equipmentForm = z
+  .object({
+    kind: fields.kind,
+    description: fields.description,
+    powerBoard: blankAsNull(fields.powerBoard),
+    outlet: blankAsNull(fields.outlet),
+    installedOn: blankAsNull(fields.installedOn),
+    lastServicedOn: blankAsNull(fields.lastServicedOn),
+    maintenanceIntervalDays: decimalText(fields.maintenanceIntervalDays).transform((days) => days ?? null),
+    notes: blankAsNull(fields.notes),
+  })
+  .superRefine((input, context) => {
+    for (const issue of equipmentIssues(input)) {
+      context.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+    }
+  });
+type EquipmentFormValues = z.input<typeof equipmentForm>;
+
+const emptyValues: EquipmentFormValues = {
   kind: 'return-pump',
   description: '',
   powerBoard: '',
@@ -36,7 +48,7 @@ const emptyValues: FormValues = {
   notes: '',
 };
 
-function valuesOf(item: EquipmentItem): FormValues {
+function valuesOf(item: EquipmentItem): EquipmentFormValues {
   return {
     kind: item.kind,
     description: item.description,
@@ -44,131 +56,69 @@ function valuesOf(item: EquipmentItem): FormValues {
     outlet: item.outlet ?? '',
     installedOn: item.installedOn ?? '',
     lastServicedOn: item.lastServicedOn ?? '',
-    maintenanceIntervalDays:
-      item.maintenanceIntervalDays === null ? '' : String(item.maintenanceIntervalDays),
+    maintenanceIntervalDays: decimalDefault(item.maintenanceIntervalDays),
     notes: item.notes ?? '',
-  };
-}
-
-function inputOf(values: FormValues): EquipmentInput {
-  const interval = values.maintenanceIntervalDays.trim();
-  return {
-    kind: values.kind,
-    description: values.description,
-    powerBoard: values.powerBoard.trim() || null,
-    outlet: values.outlet.trim() || null,
-    installedOn: values.installedOn || null,
-    lastServicedOn: values.lastServicedOn || null,
-    maintenanceIntervalDays: interval === '' ? null : Number(interval),
-    notes: values.notes.trim() || null,
   };
 }
 
 function EquipmentForm({
   initial,
   submitLabel,
-  pending,
-  error,
   onSubmit,
   onCancel,
 }: {
-  initial: FormValues;
+  initial: EquipmentFormValues;
   submitLabel: string;
-  pending: boolean;
-  error: unknown;
-  onSubmit: (input: EquipmentInput) => void;
+  /** Saves it; a rejected promise (an ApiError) puts its problems on the form. */
+  onSubmit: (input: EquipmentInput) => Promise<unknown>;
   onCancel?: () => void;
 }) {
-  const [values, setValues] = useState(initial);
-  const set = <K extends keyof FormValues>(key: K, value: FormValues[K]) =>
-    setValues((prev) => ({ ...prev, [key]: value }));
-  const errors = error instanceof ApiError ? fieldErrors(error.issues) : {};
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    onSubmit(inputOf(values));
-  };
+  const form = useZodForm(equipmentForm, { defaultValues: initial });
   return (
-    <form onSubmit={submit} noValidate className="space-y-4">
+    <Form form={form} onSubmit={onSubmit} className="space-y-4">
       <div className="grid gap-4 sm:grid-cols-2">
-        <SelectField
+        <SelectField<EquipmentFormValues>
+          name="kind"
           label="Kind"
-          value={values.kind}
-          onChange={(value) => set('kind', value as EquipmentKind)}
           options={equipmentKinds.map((value) => ({ value, label: equipmentKindLabels[value] }))}
-          error={errors.kind}
         />
-        <TextField
+        <TextField<EquipmentFormValues>
+          name="description"
           label="Description"
           hint="What and where, e.g. “Return pump in the sump”"
-          value={values.description}
-          onChange={(value) => set('description', value)}
-          error={errors.description}
           maxLength={200}
         />
-        <TextField
+        <TextField<EquipmentFormValues>
+          name="powerBoard"
           label="Power board"
           hint="The label on the board, e.g. “B”"
-          value={values.powerBoard}
-          onChange={(value) => set('powerBoard', value)}
-          error={errors.powerBoard}
           maxLength={24}
         />
-        <TextField
+        <TextField<EquipmentFormValues>
+          name="outlet"
           label="Outlet"
           hint="The label on the outlet, e.g. “4”"
-          value={values.outlet}
-          onChange={(value) => set('outlet', value)}
-          error={errors.outlet}
           maxLength={24}
         />
-        <TextField
-          label="Installed on"
-          type="date"
-          value={values.installedOn}
-          onChange={(value) => set('installedOn', value)}
-          error={errors.installedOn}
-        />
-        <TextField
-          label="Last serviced on"
-          type="date"
-          value={values.lastServicedOn}
-          onChange={(value) => set('lastServicedOn', value)}
-          error={errors.lastServicedOn}
-        />
-        <TextField
+        <TextField<EquipmentFormValues> name="installedOn" label="Installed on" type="date" />
+        <TextField<EquipmentFormValues> name="lastServicedOn" label="Last serviced on" type="date" />
+        <TextField<EquipmentFormValues>
+          name="maintenanceIntervalDays"
           label="Service every (days)"
           inputMode="numeric"
-          value={values.maintenanceIntervalDays}
-          onChange={(value) => set('maintenanceIntervalDays', value)}
-          error={errors.maintenanceIntervalDays}
         />
       </div>
-      <TextAreaField
-        label="Notes"
-        value={values.notes}
-        onChange={(value) => set('notes', value)}
-        rows={2}
-        maxLength={2000}
-        error={errors.notes}
-      />
-      {error !== null && error !== undefined && (
-        <p role="alert" className="font-bold text-alert-700">
-          {error instanceof ApiError && error.status === 400
-            ? 'Some fields need attention.'
-            : 'It could not be saved. Please try again.'}
-        </p>
-      )}
+      <TextAreaField<EquipmentFormValues> name="notes" label="Notes" rows={2} maxLength={2000} />
+      <FormProblem />
       <div className="flex flex-wrap gap-2">
-        <Button type="submit" disabled={pending}>
-          {pending ? 'Saving…' : submitLabel}
-        </Button>
+        <SubmitButton pending="Saving…">{submitLabel}</SubmitButton>
         {onCancel && (
           <Button tone="secondary" onClick={onCancel}>
             Cancel
           </Button>
         )}
       </div>
-    </form>
+    </Form>
   );
 }
 
@@ -182,12 +132,11 @@ function EquipmentRow({ tankId, item }: { tankId: string; item: EquipmentItem })
         <EquipmentForm
           initial={valuesOf(item)}
           submitLabel="Save"
-          pending={update.isPending}
-          error={update.error}
           onCancel={() => setEditing(false)}
-          onSubmit={(input) =>
-            update.mutate({ equipmentId: item.id, input }, { onSuccess: () => setEditing(false) })
-          }
+          onSubmit={async (input) => {
+            await update.mutateAsync({ equipmentId: item.id, input });
+            setEditing(false);
+          }}
         />
       ) : (
         <div className="flex flex-wrap items-center justify-between gap-3">
@@ -241,16 +190,10 @@ export function EquipmentEditor({
           key={formKey}
           initial={emptyValues}
           submitLabel="Add equipment"
-          pending={create.isPending}
-          error={create.error}
-          onSubmit={(input) =>
-            create.mutate(input, {
-              onSuccess: () => {
-                create.reset();
-                setFormKey((key) => key + 1);
-              },
-            })
-          }
+          onSubmit={async (input) => {
+            await create.mutateAsync(input);
+            setFormKey((key) => key + 1);
+          }}
         />
       </section>
       <section aria-labelledby="equipment-list-title">

@@ -1,5 +1,5 @@
 import { equipmentKindLabels, type EquipmentItem } from '@shared/schemas/equipment';
-import { formatDay } from '../../tanks/utils/format';
+import { formatDay } from '../../../lib/format';
 
 export function isOverdue(item: EquipmentItem, today: string): boolean {
   return item.maintenanceDueOn !== null && item.maintenanceDueOn < today;

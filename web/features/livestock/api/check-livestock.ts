@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { CompatibilityCheck } from '@shared/schemas/livestock';
 import { api } from '../../../lib/api-client';
-import { livestockKeys } from './livestock-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 /** A dry run of adding the species: the warnings against what lives in the tank now; nothing is saved. */
 export const checkLivestock = (tankId: string, speciesId: string, signal?: AbortSignal) =>
@@ -13,7 +13,7 @@ export const checkLivestock = (tankId: string, speciesId: string, signal?: Abort
 
 export const livestockCheckQueryOptions = (tankId: string, speciesId: string | null) =>
   queryOptions({
-    queryKey: livestockKeys.check(tankId, speciesId ?? ''),
+    queryKey: tankKeys.livestockCheck(tankId, speciesId ?? ''),
     queryFn: ({ signal }) => checkLivestock(tankId, speciesId!, signal),
     enabled: speciesId !== null,
     staleTime: 0,

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ComfortRange } from '@shared/livestock/comfort-range';
 import { api } from '../../../lib/api-client';
-import { livestockKeys } from './livestock-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export interface TankComfortRange extends ComfortRange {
   species: { id: string; commonName: string; scientificName: string }[];
@@ -12,7 +12,7 @@ export const getComfortRange = (tankId: string, signal?: AbortSignal) =>
 
 export const comfortRangeQueryOptions = (tankId: string) =>
   queryOptions({
-    queryKey: livestockKeys.comfortRange(tankId),
+    queryKey: tankKeys.comfortRange(tankId),
     queryFn: ({ signal }) => getComfortRange(tankId, signal),
   });
 

@@ -1,14 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { LivestockItem } from '@shared/schemas/livestock';
 import { api } from '../../../lib/api-client';
-import { livestockKeys } from './livestock-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const getLivestock = (tankId: string, signal?: AbortSignal) =>
   api<LivestockItem[]>(`/tanks/${tankId}/livestock`, { signal });
 
 export const livestockQueryOptions = (tankId: string) =>
   queryOptions({
-    queryKey: livestockKeys.list(tankId),
+    queryKey: tankKeys.livestock(tankId),
     queryFn: ({ signal }) => getLivestock(tankId, signal),
   });
 

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { SpeciesEntry, SpeciesQuery } from '@shared/schemas/livestock';
 import { api } from '../../../lib/api-client';
-import { livestockKeys } from './livestock-query-keys';
+import { speciesKeys } from '../../../lib/query-keys';
 
 export function searchSpecies(query: Partial<SpeciesQuery>, signal?: AbortSignal) {
   const params = new URLSearchParams();
@@ -14,7 +14,7 @@ export function searchSpecies(query: Partial<SpeciesQuery>, signal?: AbortSignal
 
 export const speciesSearchQueryOptions = (query: Partial<SpeciesQuery>) =>
   queryOptions({
-    queryKey: livestockKeys.species(query),
+    queryKey: speciesKeys.search(query),
     queryFn: ({ signal }) => searchSpecies(query, signal),
     placeholderData: keepPreviousData,
     staleTime: 5 * 60_000,

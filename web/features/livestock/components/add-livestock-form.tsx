@@ -1,13 +1,13 @@
-import { useState, type FormEvent } from 'react';
-import type { SpeciesEntry } from '@shared/schemas/livestock';
+import { useState } from 'react';
+import { z } from 'zod';
+import { addLivestockInput, livestockStatusLabels, type SpeciesEntry } from '@shared/schemas/livestock';
 import type { LivestockStatus } from '@shared/schemas/livestock-status';
-import { livestockStatusLabels } from '@shared/schemas/livestock';
-import type { WaterType } from '@shared/schemas/species';
-import { Button } from '../../../components/button';
+import type { WaterType } from '@shared/parameters/water-types';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { CheckboxField, SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { ApiError } from '../../../lib/api-client';
-import { fieldErrors } from '../../../lib/form-issues';
-import { capitalise } from '../../tanks/utils/format';
+import { blankAsNull, decimalText } from '../../../lib/form-values';
+import { capitalise } from '../../../lib/format';
 import { useAddLivestock } from '../api/add-livestock';
 import { useLivestockCheck } from '../api/check-livestock';
 import { CompatibilityWarnings } from './compatibility-warnings';
@@ -15,6 +15,30 @@ import { HandlingCaution, stingCaution } from './handling-caution';
 import { SpeciesPicker } from './species-picker';
 
 const addableStatuses: LivestockStatus[] = ['stable', 'thriving', 'watch', 'sick'];
+
+const fields = addLivestockInput.shape;
+const addForm = z.object({
+  quantity: decimalText(fields.quantity.unwrap()),
+  status: fields.status.unwrap(),
+  nickname: blankAsNull(fields.nickname),
+  placement: blankAsNull(fields.placement),
+  source: blankAsNull(fields.source),
+  addedOn: blankAsNull(fields.addedOn),
+  note: blankAsNull(fields.note),
+  acknowledgeWarnings: z.boolean(),
+});
+type AddFormValues = z.input<typeof addForm>;
+
+const emptyValues: AddFormValues = {
+  quantity: '1',
+  status: 'stable',
+  nickname: '',
+  placement: '',
+  source: '',
+  addedOn: '',
+  note: '',
+  acknowledgeWarnings: false,
+};
 
 function SelectedSpecies({ species }: { species: SpeciesEntry }) {
   const hazard =
@@ -36,69 +60,45 @@ function SelectedSpecies({ species }: { species: SpeciesEntry }) {
  */
 export function AddLivestockForm({ tankId, waterType }: { tankId: string; waterType: WaterType }) {
   const [species, setSpecies] = useState<SpeciesEntry | null>(null);
-  const [quantity, setQuantity] = useState('1');
-  const [nickname, setNickname] = useState('');
-  const [placement, setPlacement] = useState('');
-  const [source, setSource] = useState('');
-  const [addedOn, setAddedOn] = useState('');
-  const [status, setStatus] = useState<LivestockStatus>('stable');
-  const [note, setNote] = useState('');
-  const [acknowledged, setAcknowledged] = useState(false);
   const [added, setAdded] = useState<string | null>(null);
   const check = useLivestockCheck(tankId, species?.id ?? null);
   const add = useAddLivestock(tankId);
+  const form = useZodForm(addForm, { defaultValues: emptyValues });
   const warnings = check.data?.warnings ?? [];
-  const errors = add.error instanceof ApiError ? fieldErrors(add.error.issues) : {};
+  const acknowledged = form.watch('acknowledgeWarnings');
 
   const choose = (entry: SpeciesEntry) => {
     setSpecies(entry);
-    setAcknowledged(false);
     setAdded(null);
-    add.reset();
-  };
-
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    if (!species) return;
-    add.mutate(
-      {
-        speciesId: species.id,
-        quantity: Number(quantity),
-        nickname: nickname.trim() || null,
-        placement: placement.trim() || null,
-        source: source.trim() || null,
-        addedOn: addedOn || null,
-        status,
-        note: note.trim() || null,
-        acknowledgeWarnings: acknowledged,
-      },
-      {
-        onSuccess: (item) => {
-          setAdded(capitalise(item.species.commonName));
-          setSpecies(null);
-          setQuantity('1');
-          setNickname('');
-          setPlacement('');
-          setSource('');
-          setNote('');
-          setAcknowledged(false);
-        },
-        // The tank changed since the check (someone else added livestock): show the new warnings.
-        onError: (error) => {
-          if (error instanceof ApiError && error.status === 409) void check.refetch();
-        },
-      },
-    );
+    form.setValue('acknowledgeWarnings', false);
+    form.clearErrors();
   };
 
   const mustAcknowledge = warnings.length > 0 && !acknowledged;
 
   return (
-    <form
-      onSubmit={submit}
-      noValidate
+    <Form
+      form={form}
       className="space-y-4 rounded-card bg-white p-5 shadow-card"
       aria-labelledby="add-livestock-title"
+      onSubmit={async (values) => {
+        if (!species) return;
+        try {
+          const item = await add.mutateAsync({ speciesId: species.id, ...values });
+          setAdded(capitalise(item.species.commonName));
+          setSpecies(null);
+          form.reset({ ...emptyValues, addedOn: values.addedOn ?? '', status: values.status });
+        } catch (error) {
+          // The tank changed since the check (someone else added livestock): show the new warnings.
+          if (!(error instanceof ApiError) || error.status !== 409) throw error;
+          void check.refetch();
+          form.setValue('acknowledgeWarnings', false);
+          form.setError('root.server', {
+            type: 'server',
+            message: 'The tank changed since the check. Read the warnings above and confirm again.',
+          });
+        }
+      }}
     >
       <h2 id="add-livestock-title" className="text-xl font-bold text-ink-900">
         Add livestock
@@ -132,70 +132,36 @@ export function AddLivestockForm({ tankId, waterType }: { tankId: string; waterT
             )}
           </section>
           <div className="grid gap-4 sm:grid-cols-2">
-            <TextField
-              label="How many"
-              inputMode="numeric"
-              value={quantity}
-              onChange={setQuantity}
-              error={errors.quantity}
-            />
-            <SelectField
+            <TextField<AddFormValues> name="quantity" label="How many" inputMode="numeric" />
+            <SelectField<AddFormValues>
+              name="status"
               label="Condition"
-              value={status}
-              onChange={(value) => setStatus(value as LivestockStatus)}
               options={addableStatuses.map((value) => ({ value, label: livestockStatusLabels[value] }))}
-              error={errors.status}
             />
-            <TextField label="Nickname (optional)" value={nickname} onChange={setNickname} maxLength={80} />
-            <TextField
-              label="Where in the tank (optional)"
-              value={placement}
-              onChange={setPlacement}
-              maxLength={120}
-            />
-            <TextField
-              label="Where it came from (optional)"
-              value={source}
-              onChange={setSource}
-              maxLength={120}
-            />
-            <TextField
-              label="Added on (optional)"
-              type="date"
-              value={addedOn}
-              onChange={setAddedOn}
-              error={errors.addedOn}
-            />
+            <TextField<AddFormValues> name="nickname" label="Nickname (optional)" maxLength={80} />
+            <TextField<AddFormValues> name="placement" label="Where in the tank (optional)" maxLength={120} />
+            <TextField<AddFormValues> name="source" label="Where it came from (optional)" maxLength={120} />
+            <TextField<AddFormValues> name="addedOn" label="Added on (optional)" type="date" />
           </div>
-          <TextAreaField
+          <TextAreaField<AddFormValues>
+            name="note"
             label="Note for the history (optional)"
-            value={note}
-            onChange={setNote}
             maxLength={500}
             rows={2}
           />
           {warnings.length > 0 && (
-            <CheckboxField
+            <CheckboxField<AddFormValues>
+              name="acknowledgeWarnings"
               label="I have read the warnings and want to add it anyway"
               hint="The owners see the livestock, not these warnings; say in the note how you placed it."
-              checked={acknowledged}
-              onChange={setAcknowledged}
             />
           )}
-          {add.isError && (
-            <p role="alert" className="font-bold text-alert-700">
-              {add.error instanceof ApiError && add.error.status === 409
-                ? 'The tank changed since the check. Read the warnings above and confirm again.'
-                : add.error instanceof ApiError && add.error.status === 400
-                  ? 'Some fields need attention.'
-                  : 'It could not be added. Please try again.'}
-            </p>
-          )}
-          <Button type="submit" disabled={add.isPending || check.isPending || mustAcknowledge}>
-            {add.isPending ? 'Adding…' : warnings.length > 0 ? 'Add anyway' : 'Add to the tank'}
-          </Button>
+          <FormProblem />
+          <SubmitButton pending="Adding…" disabled={check.isPending || mustAcknowledge}>
+            {warnings.length > 0 ? 'Add anyway' : 'Add to the tank'}
+          </SubmitButton>
         </>
       )}
-    </form>
+    </Form>
   );
 }

@@ -1,4 +1,4 @@
-import type { CompatibilityWarning } from '@shared/schemas/species';
+import type { CompatibilityWarning } from '@shared/livestock/compatibility';
 
 const kindLabels: Record<CompatibilityWarning['kind'], string> = {
   'water-type': 'Wrong water',

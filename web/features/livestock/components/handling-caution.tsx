@@ -1,4 +1,4 @@
-import type { HandlingHazard } from '@shared/schemas/species';
+import type { HandlingHazard } from '@shared/livestock/species';
 
 const headings: Record<HandlingHazard['hazard'], string> = {
   'contact-toxin': 'Toxic to touch: gloves and eye protection',

@@ -1,7 +1,7 @@
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { LivestockItem } from '@shared/schemas/livestock';
 import { livestockStatusLabels } from '@shared/schemas/livestock';
-import { capitalise, formatMoment } from '../../tanks/utils/format';
+import { capitalise, formatDate } from '../../../lib/format';
 import { HandlingCaution, stingCaution } from './handling-caution';
 import { LivestockPicture } from './livestock-picture';
 import { LivestockStatusBadge } from './livestock-status-badge';
@@ -47,7 +47,7 @@ function LivestockCard({ item, timeZone }: { item: LivestockItem; timeZone: stri
       <div className="col-span-2 mt-2 flex flex-1 flex-col gap-2 sm:px-4 sm:pb-4">
         {latest?.note && (
           <p className="text-sm text-ink-950">
-            <span className="font-bold">{formatMoment(latest.changedAt, timeZone)}</span>
+            <span className="font-bold">{formatDate(latest.changedAt, timeZone)}</span>
             {latest.changedBy && <> · {latest.changedBy.name}</>}: {latest.note}
           </p>
         )}
@@ -63,7 +63,7 @@ function LivestockCard({ item, timeZone }: { item: LivestockItem; timeZone: stri
               {item.history.map((event) => (
                 <li key={event.id}>
                   <span className="font-bold">
-                    {formatMoment(event.changedAt, timeZone)} — {livestockStatusLabels[event.status]}
+                    {formatDate(event.changedAt, timeZone)} — {livestockStatusLabels[event.status]}
                   </span>
                   {event.changedBy && <span className="text-ink-700"> ({event.changedBy.name})</span>}
                   {event.note && <p className="text-ink-950">{event.note}</p>}

@@ -1,13 +1,13 @@
-import { useState, type FormEvent } from 'react';
-import type { LivestockItem } from '@shared/schemas/livestock';
-import { livestockStatusLabels } from '@shared/schemas/livestock';
-import { livestockStatuses, type LivestockStatus } from '@shared/schemas/livestock-status';
+import { useState } from 'react';
+import { z } from 'zod';
+import { livestockStatusLabels, updateLivestockInput, type LivestockItem } from '@shared/schemas/livestock';
+import { livestockStatuses } from '@shared/schemas/livestock-status';
 import { Button } from '../../../components/button';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
-import { ApiError } from '../../../lib/api-client';
-import { fieldErrors } from '../../../lib/form-issues';
-import { PhotoUploader } from '../../tanks/components/photo-uploader';
-import { capitalise, formatMoment } from '../../tanks/utils/format';
+import { PhotoUploader } from '../../../components/photo-uploader';
+import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
+import { capitalise, formatDate } from '../../../lib/format';
 import { useDeleteLivestock } from '../api/delete-livestock';
 import { useUpdateLivestock } from '../api/update-livestock';
 import { displayName, hazardOf } from './livestock-gallery';
@@ -15,80 +15,68 @@ import { HandlingCaution } from './handling-caution';
 import { LivestockPicture } from './livestock-picture';
 import { LivestockStatusBadge } from './livestock-status-badge';
 
-function ChangeForm({ tankId, item, onDone }: { tankId: string; item: LivestockItem; onDone: () => void }) {
-  const [status, setStatus] = useState<LivestockStatus>(item.status);
-  const [statusNote, setStatusNote] = useState('');
-  const [quantity, setQuantity] = useState(String(item.quantity));
-  const [placement, setPlacement] = useState(item.placement ?? '');
-  const [nickname, setNickname] = useState(item.nickname ?? '');
-  const update = useUpdateLivestock(tankId);
-  const errors = update.error instanceof ApiError ? fieldErrors(update.error.issues) : {};
+const fields = updateLivestockInput.shape;
+const changeForm = z.object({
+  status: fields.status.unwrap(),
+  statusNote: blankAsNull(fields.statusNote),
+  quantity: decimalText(fields.quantity.unwrap()),
+  nickname: blankAsNull(fields.nickname),
+  placement: blankAsNull(fields.placement),
+});
+type ChangeFormValues = z.input<typeof changeForm>;
 
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    const statusChanged = status !== item.status || statusNote.trim() !== '';
-    update.mutate(
-      {
-        livestockId: item.id,
-        input: {
-          quantity: Number(quantity),
-          placement: placement.trim() || null,
-          nickname: nickname.trim() || null,
-          ...(statusChanged ? { status, statusNote: statusNote.trim() || null } : {}),
-        },
-      },
-      { onSuccess: onDone },
-    );
-  };
+function ChangeForm({ tankId, item, onDone }: { tankId: string; item: LivestockItem; onDone: () => void }) {
+  const update = useUpdateLivestock(tankId);
+  const form = useZodForm(changeForm, {
+    defaultValues: {
+      status: item.status,
+      statusNote: '',
+      quantity: decimalDefault(item.quantity),
+      nickname: item.nickname ?? '',
+      placement: item.placement ?? '',
+    },
+  });
 
   return (
-    <form
-      onSubmit={submit}
-      noValidate
+    <Form
+      form={form}
       className="mt-3 space-y-3 rounded-lg bg-ink-50 p-3"
       aria-label={`Update ${displayName(item)}`}
+      onSubmit={async ({ status, statusNote, ...rest }) => {
+        // Only a new condition or a note goes into the history.
+        const statusChanged = status !== item.status || statusNote !== null;
+        await update.mutateAsync({
+          livestockId: item.id,
+          input: { ...rest, ...(statusChanged ? { status, statusNote } : {}) },
+        });
+        onDone();
+      }}
     >
       <div className="grid gap-3 sm:grid-cols-2">
-        <SelectField
+        <SelectField<ChangeFormValues>
+          name="status"
           label="Condition"
-          value={status}
-          onChange={(value) => setStatus(value as LivestockStatus)}
           options={livestockStatuses.map((value) => ({ value, label: livestockStatusLabels[value] }))}
           hint="Removed: it left the tank. The history is kept."
-          error={errors.status}
         />
-        <TextField
-          label="How many"
-          inputMode="numeric"
-          value={quantity}
-          onChange={setQuantity}
-          error={errors.quantity}
-        />
-        <TextField label="Nickname" value={nickname} onChange={setNickname} maxLength={80} />
-        <TextField label="Where in the tank" value={placement} onChange={setPlacement} maxLength={120} />
+        <TextField<ChangeFormValues> name="quantity" label="How many" inputMode="numeric" />
+        <TextField<ChangeFormValues> name="nickname" label="Nickname" maxLength={80} />
+        <TextField<ChangeFormValues> name="placement" label="Where in the tank" maxLength={120} />
       </div>
-      <TextAreaField
+      <TextAreaField<ChangeFormValues>
+        name="statusNote"
         label="What you saw (kept in the history)"
-        value={statusNote}
-        onChange={setStatusNote}
         rows={2}
         maxLength={500}
-        error={errors.statusNote}
       />
-      {update.isError && (
-        <p role="alert" className="text-sm font-bold text-alert-700">
-          The change could not be saved.
-        </p>
-      )}
+      <FormProblem className="text-sm" />
       <div className="flex flex-wrap gap-2">
-        <Button type="submit" disabled={update.isPending}>
-          {update.isPending ? 'Saving…' : 'Save'}
-        </Button>
+        <SubmitButton pending="Saving…">Save</SubmitButton>
         <Button tone="secondary" onClick={onDone}>
           Cancel
         </Button>
       </div>
-    </form>
+    </Form>
   );
 }
 
@@ -124,7 +112,7 @@ function ManagedItem({ tankId, item, timeZone }: { tankId: string; item: Livesto
           </div>
           {latest && (
             <p className="mt-1 text-sm text-ink-700">
-              {formatMoment(latest.changedAt, timeZone)}
+              {formatDate(latest.changedAt, timeZone)}
               {latest.note && `: ${latest.note}`}
             </p>
           )}

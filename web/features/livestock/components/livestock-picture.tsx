@@ -1,4 +1,4 @@
-import type { LivestockGroup } from '@shared/schemas/species';
+import type { LivestockGroup } from '@shared/livestock/species';
 import type { PhotoRef } from '@shared/schemas/tanks';
 
 /** The animal's latest photo, or a simple drawing of its kind until someone takes one. */

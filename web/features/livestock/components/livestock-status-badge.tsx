@@ -1,4 +1,5 @@
 import { livestockStatusLabels } from '@shared/schemas/livestock';
+import { Badge } from '../../../components/badge';
 import type { LivestockStatus } from '@shared/schemas/livestock-status';
 
 const tones: Record<LivestockStatus, string> = {
@@ -60,11 +61,8 @@ function Shape({ status }: { status: LivestockStatus }) {
 
 export function LivestockStatusBadge({ status }: { status: LivestockStatus }) {
   return (
-    <span
-      className={`inline-flex items-center gap-1.5 rounded-full px-2.5 py-1 text-sm font-bold ${tones[status]}`}
-    >
-      <Shape status={status} />
+    <Badge tone={tones[status]} mark={<Shape status={status} />}>
       {livestockStatusLabels[status]}
-    </span>
+    </Badge>
   );
 }

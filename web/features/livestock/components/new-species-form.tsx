@@ -1,23 +1,23 @@
-import { useState, type FormEvent } from 'react';
+import { z } from 'zod';
+import { speciesInput, type SpeciesInput } from '@shared/schemas/species';
 import {
+  handlingHazard,
+  livestockGroup,
   livestockGroups,
-  waterTypes,
   type HandlingHazard,
   type LivestockGroup,
-  type SpeciesInput,
-  type WaterType,
-} from '@shared/schemas/species';
-import { Button } from '../../../components/button';
+} from '@shared/livestock/species';
+import { waterType, waterTypes, type WaterType } from '@shared/parameters/water-types';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import {
   CheckboxField,
-  FieldError,
+  CheckboxGroupField,
+  DecimalField,
   SelectField,
   TextAreaField,
   TextField,
 } from '../../../components/form-fields';
-import { ApiError } from '../../../lib/api-client';
-import { parseUnsignedDecimal } from '../../../lib/decimal';
-import { fieldErrors } from '../../../lib/form-issues';
+import { blankAsUndefined, decimalText } from '../../../lib/form-values';
 import { useCreateSpecies } from '../api/create-species';
 
 const groupLabels: Record<LivestockGroup, string> = {
@@ -56,6 +56,53 @@ const nipChoices = [
 ];
 
 const asTendency = (value: string) => (value === 'sometimes' ? 'sometimes' : value === 'true');
+const optionalNumber = decimalText(z.number().optional());
+
+/** The form mirrors the species' own shape, so the API's issues land under their fields by path. */
+const speciesForm = z
+  .object({
+    commonName: z.string(),
+    scientificName: z.string(),
+    family: blankAsUndefined(z.string().trim().optional()),
+    profile: z.object({
+      waterTypes: z.array(waterType),
+      group: livestockGroup,
+      adultSizeCm: optionalNumber,
+      ranges: z.object({ temperature: z.object({ min: optionalNumber, max: optionalNumber }) }),
+      behaviour: z.object({
+        stings: z.boolean(),
+        stingReachCm: optionalNumber,
+        wanders: z.boolean(),
+        nipsCorals: z.enum(['false', 'sometimes', 'true']),
+        eatsSmallFish: z.boolean(),
+        toxic: z.object({
+          hazard: z.union([z.literal(''), handlingHazard.shape.hazard]),
+          caution: z.string().trim(),
+        }),
+      }),
+      careNotes: z.string(),
+    }),
+  })
+  .transform(({ profile: { ranges, behaviour, ...profile }, ...names }): SpeciesInput => {
+    const { min, max } = ranges.temperature;
+    const { stings, stingReachCm, nipsCorals, toxic, ...rest } = behaviour;
+    return {
+      ...names,
+      profile: {
+        ...profile,
+        ranges: min !== undefined && max !== undefined ? { temperature: { min, max } } : {},
+        behaviour: {
+          ...rest,
+          stings,
+          ...(stings && stingReachCm !== undefined ? { stingReachCm } : {}),
+          nipsCorals: asTendency(nipsCorals),
+          ...(toxic.hazard ? { toxic: { hazard: toxic.hazard, caution: toxic.caution } } : {}),
+        },
+      },
+    };
+  })
+  .pipe(speciesInput);
+type SpeciesFormValues = z.input<typeof speciesForm>;
 
 /** A species missing from the catalogue, added for this company with the care data the checks need. */
 export function NewSpeciesForm({
@@ -65,182 +112,116 @@ export function NewSpeciesForm({
   defaultWater: WaterType;
   onCreated: () => void;
 }) {
-  const [commonName, setCommonName] = useState('');
-  const [scientificName, setScientificName] = useState('');
-  const [family, setFamily] = useState('');
-  const [water, setWater] = useState<WaterType[]>([defaultWater]);
-  const [group, setGroup] = useState<LivestockGroup>('fish');
-  const [adultSize, setAdultSize] = useState('');
-  const [tempMin, setTempMin] = useState('');
-  const [tempMax, setTempMax] = useState('');
-  const [careNotes, setCareNotes] = useState('');
-  const [stings, setStings] = useState(false);
-  const [reach, setReach] = useState('');
-  const [wanders, setWanders] = useState(false);
-  const [nipsCorals, setNipsCorals] = useState('false');
-  const [eatsSmallFish, setEatsSmallFish] = useState(false);
-  const [hazard, setHazard] = useState<HandlingHazard['hazard'] | ''>('');
-  const [caution, setCaution] = useState('');
   const create = useCreateSpecies();
-  const errors = create.error instanceof ApiError ? fieldErrors(create.error.issues) : {};
-
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    const min = parseUnsignedDecimal(tempMin);
-    const max = parseUnsignedDecimal(tempMax);
-    const input: SpeciesInput = {
-      commonName,
-      scientificName,
-      ...(family.trim() ? { family: family.trim() } : {}),
+  const form = useZodForm(speciesForm, {
+    defaultValues: {
+      commonName: '',
+      scientificName: '',
+      family: '',
       profile: {
-        waterTypes: water,
-        group,
-        ranges: min !== null && max !== null ? { temperature: { min, max } } : {},
-        ...(parseUnsignedDecimal(adultSize) !== null
-          ? { adultSizeCm: parseUnsignedDecimal(adultSize)! }
-          : {}),
+        waterTypes: [defaultWater],
+        group: 'fish',
+        adultSizeCm: '',
+        ranges: { temperature: { min: '', max: '' } },
         behaviour: {
-          stings,
-          ...(stings && parseUnsignedDecimal(reach) !== null
-            ? { stingReachCm: parseUnsignedDecimal(reach)! }
-            : {}),
-          wanders,
-          nipsCorals: asTendency(nipsCorals),
-          eatsSmallFish,
-          ...(hazard ? { toxic: { hazard, caution: caution.trim() } } : {}),
+          stings: false,
+          stingReachCm: '',
+          wanders: false,
+          nipsCorals: 'false',
+          eatsSmallFish: false,
+          toxic: { hazard: '', caution: '' },
         },
-        careNotes,
+        careNotes: '',
       },
-    };
-    create.mutate(input, { onSuccess: onCreated });
-  };
+    },
+  });
+  const stings = form.watch('profile.behaviour.stings');
+  const hazard = form.watch('profile.behaviour.toxic.hazard');
 
   return (
-    <form onSubmit={submit} noValidate className="space-y-4" aria-label="Add your own species">
-      {create.error instanceof ApiError && create.error.status === 409 && (
-        <p role="alert" className="font-bold text-alert-700">
-          {create.error.message}
-        </p>
-      )}
+    <Form
+      form={form}
+      className="space-y-4"
+      aria-label="Add your own species"
+      onSubmit={async (input) => {
+        await create.mutateAsync(input);
+        onCreated();
+      }}
+    >
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField
-          label="Common name"
-          value={commonName}
-          onChange={setCommonName}
-          error={errors.commonName}
-        />
-        <TextField
+        <TextField<SpeciesFormValues> name="commonName" label="Common name" />
+        <TextField<SpeciesFormValues>
+          name="scientificName"
           label="Scientific name"
           hint="“Genus species” or “Genus spp.”"
-          value={scientificName}
-          onChange={setScientificName}
-          error={errors.scientificName}
         />
-        <TextField
-          label="Family (optional)"
-          hint="e.g. Pomacentridae"
-          value={family}
-          onChange={setFamily}
-          error={errors.family}
-        />
-        <SelectField
+        <TextField<SpeciesFormValues> name="family" label="Family (optional)" hint="e.g. Pomacentridae" />
+        <SelectField<SpeciesFormValues>
+          name="profile.group"
           label="Kind"
-          value={group}
-          onChange={(value) => setGroup(value as LivestockGroup)}
-          options={livestockGroups.map((value) => ({ value, label: groupLabels[value] }))}
+          options={livestockGroups.map((value: LivestockGroup) => ({ value, label: groupLabels[value] }))}
         />
       </div>
-      <fieldset>
-        <legend className="font-bold text-ink-900">Water it lives in</legend>
-        <div className="mt-1 flex flex-wrap gap-x-6">
-          {waterTypes.map((type) => (
-            <CheckboxField
-              key={type}
-              label={waterLabels[type]}
-              checked={water.includes(type)}
-              onChange={(checked) =>
-                setWater(checked ? [...water, type] : water.filter((entry) => entry !== type))
-              }
-            />
-          ))}
-        </div>
-        {errors['profile.waterTypes'] && (
-          <FieldError className="mt-1">{errors['profile.waterTypes']}</FieldError>
-        )}
-      </fieldset>
+      <CheckboxGroupField<SpeciesFormValues>
+        name="profile.waterTypes"
+        label="Water it lives in"
+        columns="mt-1 flex flex-wrap gap-x-6"
+        options={waterTypes.map((type) => ({ value: type, label: waterLabels[type] }))}
+      />
       <div className="grid gap-4 sm:grid-cols-3">
-        <TextField
+        <DecimalField<SpeciesFormValues>
+          name="profile.adultSizeCm"
           label="Adult size (cm)"
           hint="Needed for fish"
-          inputMode="decimal"
-          value={adultSize}
-          onChange={setAdultSize}
-          error={errors['profile.adultSizeCm']}
         />
-        <TextField
+        <DecimalField<SpeciesFormValues>
+          name="profile.ranges.temperature.min"
           label="Lowest temperature (°C)"
-          inputMode="decimal"
-          value={tempMin}
-          onChange={setTempMin}
         />
-        <TextField
+        <DecimalField<SpeciesFormValues>
+          name="profile.ranges.temperature.max"
           label="Highest temperature (°C)"
-          inputMode="decimal"
-          value={tempMax}
-          onChange={setTempMax}
-          error={errors['profile.ranges.temperature.max']}
         />
       </div>
       <fieldset className="space-y-1">
         <legend className="font-bold text-ink-900">Behaviour</legend>
-        <CheckboxField label="Stings its neighbours" checked={stings} onChange={setStings} />
+        <CheckboxField<SpeciesFormValues> name="profile.behaviour.stings" label="Stings its neighbours" />
         {stings && (
-          <TextField
-            label="Sting reach (cm)"
-            inputMode="decimal"
-            value={reach}
-            onChange={setReach}
-            error={errors['profile.behaviour.stingReachCm']}
-          />
+          <DecimalField<SpeciesFormValues> name="profile.behaviour.stingReachCm" label="Sting reach (cm)" />
         )}
-        <CheckboxField label="Moves around the tank" checked={wanders} onChange={setWanders} />
-        <CheckboxField
+        <CheckboxField<SpeciesFormValues> name="profile.behaviour.wanders" label="Moves around the tank" />
+        <CheckboxField<SpeciesFormValues>
+          name="profile.behaviour.eatsSmallFish"
           label="Eats fish small enough to swallow"
-          checked={eatsSmallFish}
-          onChange={setEatsSmallFish}
         />
-        <SelectField label="Nips corals" value={nipsCorals} onChange={setNipsCorals} options={nipChoices} />
+        <SelectField<SpeciesFormValues>
+          name="profile.behaviour.nipsCorals"
+          label="Nips corals"
+          options={nipChoices}
+        />
       </fieldset>
       <div className="grid gap-4 sm:grid-cols-2">
-        <SelectField
+        <SelectField<SpeciesFormValues>
+          name="profile.behaviour.toxic.hazard"
           label="Handling hazard"
-          value={hazard}
-          onChange={(value) => setHazard(value as HandlingHazard['hazard'] | '')}
           options={(Object.keys(hazardLabels) as (HandlingHazard['hazard'] | '')[]).map((value) => ({
             value,
             label: hazardLabels[value],
           }))}
         />
         {hazard && (
-          <TextField
+          <TextField<SpeciesFormValues>
+            name="profile.behaviour.toxic.caution"
             label="Caution to show"
             hint="e.g. “Wear gloves and eye protection.”"
-            value={caution}
-            onChange={setCaution}
-            error={errors['profile.behaviour.toxic.caution']}
           />
         )}
       </div>
-      <TextAreaField
-        label="Care notes"
-        value={careNotes}
-        onChange={setCareNotes}
-        rows={3}
-        error={errors['profile.careNotes']}
-      />
-      <Button type="submit" tone="secondary" disabled={create.isPending}>
-        {create.isPending ? 'Adding…' : 'Add species'}
-      </Button>
-    </form>
+      <TextAreaField<SpeciesFormValues> name="profile.careNotes" label="Care notes" rows={3} />
+      <FormProblem />
+      <SubmitButton tone="secondary" pending="Adding…">
+        Add species
+      </SubmitButton>
+    </Form>
   );
 }

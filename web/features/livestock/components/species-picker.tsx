@@ -1,13 +1,22 @@
-import { useDeferredValue, useId, useState } from 'react';
-import type { SpeciesEntry } from '@shared/schemas/livestock';
-import type { WaterType } from '@shared/schemas/species';
+import { useDeferredValue } from 'react';
+import { FormProvider } from 'react-hook-form';
+import { z } from 'zod';
+import { speciesQuery, type SpeciesEntry } from '@shared/schemas/livestock';
+import type { WaterType } from '@shared/parameters/water-types';
+import { useZodForm } from '../../../components/form';
 import { CheckboxField, TextField } from '../../../components/form-fields';
-import { capitalise } from '../../tanks/utils/format';
+import { RadioGroup } from '../../../components/radio-group';
+import { capitalise } from '../../../lib/format';
 import { useSpeciesSearch } from '../api/search-species';
 
 const waterWords: Record<WaterType, string> = { marine: 'marine', fresh: 'freshwater', brackish: 'brackish' };
 
-/** Search the catalogue and the company's own species by name; the results are a list of choices. */
+const searchForm = z.object({ q: speciesQuery.shape.q.unwrap(), sameWater: z.boolean() });
+
+/**
+ * Search the catalogue and the company's own species by name; the results are a list of choices.
+ * It sits inside the add-livestock form, so its search fields have a form of their own (no element).
+ */
 export function SpeciesPicker({
   waterType,
   selected,
@@ -17,71 +26,60 @@ export function SpeciesPicker({
   selected: SpeciesEntry | null;
   onSelect: (species: SpeciesEntry) => void;
 }) {
-  const [text, setText] = useState('');
-  const [sameWater, setSameWater] = useState(true);
-  const q = useDeferredValue(text.trim());
+  const form = useZodForm(searchForm, { defaultValues: { q: '', sameWater: true } });
+  const q = useDeferredValue(form.watch('q').trim());
+  const sameWater = form.watch('sameWater');
   const search = useSpeciesSearch(
     { q, waterType: sameWater ? waterType : undefined, limit: 8 },
     q.length >= 2,
   );
-  const name = useId();
 
   return (
-    <div className="space-y-3">
-      <TextField
-        label="Find a species"
-        hint="Common or scientific name, e.g. “clownfish” or “Entacmaea”"
-        type="search"
-        value={text}
-        onChange={setText}
-        autoComplete="off"
-      />
-      <CheckboxField
-        label={`Only species for ${waterWords[waterType]} water`}
-        checked={sameWater}
-        onChange={setSameWater}
-      />
-      {q.length < 2 ? null : search.isPending ? (
-        <p role="status" className="text-sm text-ink-700">
-          Searching…
-        </p>
-      ) : search.isError ? (
-        <p role="alert" className="text-sm font-bold text-alert-700">
-          The catalogue could not be searched. Try again.
-        </p>
-      ) : search.data.length === 0 ? (
-        <p role="status" className="text-sm text-ink-700">
-          Nothing matches “{q}”. Add it as your company’s own species below.
-        </p>
-      ) : (
-        <fieldset>
-          <legend className="font-bold text-ink-900">Choose one</legend>
-          <ul className="mt-2 grid gap-2 sm:grid-cols-2">
-            {search.data.map((entry) => (
-              <li key={entry.id}>
-                <label className="flex min-h-14 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink-300 bg-white px-3 py-2 hover:border-ink-700 has-checked:border-ink-800 has-checked:bg-ink-50">
-                  <input
-                    type="radio"
-                    name={name}
-                    value={entry.id}
-                    checked={selected?.id === entry.id}
-                    onChange={() => onSelect(entry)}
-                    className="h-5 w-5 shrink-0 accent-brine-700"
-                  />
-                  <span className="min-w-0 font-bold text-ink-950">
-                    {capitalise(entry.commonName)}
-                    <br />
-                    <i className="text-sm font-normal text-ink-700">{entry.scientificName}</i>
-                    {entry.source === 'company' && (
-                      <span className="text-sm font-normal text-ink-700"> · your own</span>
-                    )}
-                  </span>
-                </label>
-              </li>
-            ))}
-          </ul>
-        </fieldset>
-      )}
-    </div>
+    <FormProvider {...form}>
+      <div className="space-y-3">
+        <TextField
+          name="q"
+          label="Find a species"
+          hint="Common or scientific name, e.g. “clownfish” or “Entacmaea”"
+          type="search"
+          autoComplete="off"
+        />
+        <CheckboxField name="sameWater" label={`Only species for ${waterWords[waterType]} water`} />
+        {q.length < 2 ? null : search.isPending ? (
+          <p role="status" className="text-sm text-ink-700">
+            Searching…
+          </p>
+        ) : search.isError ? (
+          <p role="alert" className="text-sm font-bold text-alert-700">
+            The catalogue could not be searched. Try again.
+          </p>
+        ) : search.data.length === 0 ? (
+          <p role="status" className="text-sm text-ink-700">
+            Nothing matches “{q}”. Add it as your company’s own species below.
+          </p>
+        ) : (
+          <RadioGroup
+            legend="Choose one"
+            look="rows"
+            className="[&>div]:sm:grid-cols-2"
+            value={selected?.id}
+            onChange={(id) => {
+              const entry = search.data.find((option) => option.id === id);
+              if (entry) onSelect(entry);
+            }}
+            options={search.data.map((entry) => ({
+              value: entry.id,
+              label: capitalise(entry.commonName),
+              hint: (
+                <>
+                  <i>{entry.scientificName}</i>
+                  {entry.source === 'company' && ' · your own'}
+                </>
+              ),
+            }))}
+          />
+        )}
+      </div>
+    </FormProvider>
   );
 }

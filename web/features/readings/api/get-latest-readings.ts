@@ -1,14 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TankHealthSummary } from '@shared/schemas/readings';
 import { api } from '../../../lib/api-client';
-import { tankReadingsKey } from './query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const getLatestReadings = (tankId: string, signal?: AbortSignal) =>
   api<TankHealthSummary>(`/tanks/${tankId}/readings/latest`, { signal });
 
 export const latestReadingsQueryOptions = (tankId: string) =>
   queryOptions({
-    queryKey: [...tankReadingsKey(tankId), 'latest'],
+    queryKey: tankKeys.latestReadings(tankId),
     queryFn: ({ signal }) => getLatestReadings(tankId, signal),
     // Devices report every few minutes; a minute keeps "latest" honest without hammering.
     refetchInterval: 60_000,

@@ -3,7 +3,7 @@ import type { ParameterKey } from '@shared/parameters/keys';
 import type { ReadingHistory } from '@shared/schemas/readings';
 import { api } from '../../../lib/api-client';
 import { chartRanges, type ChartRange } from '../utils/chart-ranges';
-import { tankReadingsKey } from './query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export interface HistoryRequest {
   tankId: string;
@@ -30,13 +30,11 @@ export function getReadingHistory(
 
 export const readingHistoryQueryOptions = (request: HistoryRequest) =>
   queryOptions({
-    queryKey: [
-      ...tankReadingsKey(request.tankId),
-      'history',
-      request.parameter,
-      request.range,
-      request.points ?? 500,
-    ],
+    queryKey: tankKeys.readingHistory(request.tankId, {
+      parameter: request.parameter,
+      range: request.range,
+      points: request.points ?? 500,
+    }),
     queryFn: ({ signal }) => getReadingHistory(request, signal),
     // Switching range keeps the old chart on screen until the new one arrives; another
     // parameter's chart is never shown under this one's name.

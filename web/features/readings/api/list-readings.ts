@@ -1,8 +1,9 @@
 import { infiniteQueryOptions, useInfiniteQuery } from '@tanstack/react-query';
 import type { ParameterKey } from '@shared/parameters/keys';
-import type { ReadingPage, ReadingSource } from '@shared/schemas/readings';
+import type { ReadingPage } from '@shared/schemas/readings';
+import type { ReadingSource } from '@shared/readings/sources';
 import { api } from '../../../lib/api-client';
-import { tankReadingsKey } from './query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export interface ReadingFilters {
   parameter?: ParameterKey;
@@ -27,7 +28,7 @@ export function listReadings(tankId: string, filters: ReadingFilters, before?: s
 
 export const listReadingsQueryOptions = (tankId: string, filters: ReadingFilters) =>
   infiniteQueryOptions({
-    queryKey: [...tankReadingsKey(tankId), 'list', filters],
+    queryKey: tankKeys.readingList(tankId, filters),
     queryFn: ({ pageParam, signal }) => listReadings(tankId, filters, pageParam, signal),
     initialPageParam: undefined as string | undefined,
     getNextPageParam: (page) => page.next ?? undefined,

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { TankLimitsView, UpdateLimitsInput } from '@shared/schemas/limits';
 import { api } from '../../../lib/api-client';
-import { limitsQueryKey } from './get-limits';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const updateLimits = (tankId: string, input: UpdateLimitsInput) =>
   api<TankLimitsView>(`/tanks/${tankId}/limits`, { method: 'PUT', body: input });
@@ -11,9 +11,9 @@ export function useUpdateLimits(tankId: string) {
   return useMutation({
     mutationFn: (input: UpdateLimitsInput) => updateLimits(tankId, input),
     onSuccess: (view) => {
-      queryClient.setQueryData(limitsQueryKey(tankId), view);
+      queryClient.setQueryData(tankKeys.limits(tankId), view);
       // Limits decide health and the chart's bands.
-      return queryClient.invalidateQueries({ queryKey: ['tanks'] });
+      return queryClient.invalidateQueries({ queryKey: tankKeys.all });
     },
   });
 }

@@ -7,7 +7,8 @@ import {
   requiredColumns,
   type CsvImport as ParsedCsv,
 } from '@shared/readings/csv';
-import { maxImportRows, type ManualSource } from '@shared/schemas/readings';
+import { maxImportRows } from '@shared/schemas/readings';
+import type { ManualSource } from '@shared/readings/sources';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
 import { useImportReadings } from '../api/import-readings';

@@ -1,11 +1,13 @@
-import { useId, useState, type FormEvent } from 'react';
-import type { CreatedDevice } from '@shared/schemas/readings';
+import { useId, useState } from 'react';
+import { createDeviceInput, type CreatedDevice } from '@shared/schemas/readings';
 import { Button } from '../../../components/button';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { TextField } from '../../../components/form-fields';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { useCreateDevice } from '../api/create-device';
 import { useDevices } from '../api/list-devices';
 import { useRevokeDevice } from '../api/revoke-device';
-import { formatDateTime, timeAgo } from '../utils/format-time';
+import { formatDateTime, relativeTime } from '../../../lib/format';
 
 /** Staff connect a tank's controller or probe: a token per device, shown once, revocable. */
 export function DevicesPanel({ tankId }: { tankId: string }) {
@@ -13,25 +15,10 @@ export function DevicesPanel({ tankId }: { tankId: string }) {
   const devices = useDevices(tankId);
   const create = useCreateDevice(tankId);
   const revoke = useRevokeDevice(tankId);
-  const [name, setName] = useState('');
   const [created, setCreated] = useState<CreatedDevice | null>(null);
   const [copied, setCopied] = useState(false);
   const [confirming, setConfirming] = useState<string | null>(null);
-
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    if (!name.trim()) return;
-    create.mutate(
-      { name: name.trim() },
-      {
-        onSuccess: (result) => {
-          setCreated(result);
-          setCopied(false);
-          setName('');
-        },
-      },
-    );
-  };
+  const form = useZodForm(createDeviceInput, { defaultValues: { name: '' } });
 
   const copy = async () => {
     if (!created) return;
@@ -81,7 +68,7 @@ export function DevicesPanel({ tankId }: { tankId: string }) {
                       <>
                         last seen{' '}
                         <time dateTime={device.lastSeenAt} title={formatDateTime(device.lastSeenAt)}>
-                          {timeAgo(device.lastSeenAt)}
+                          {relativeTime(device.lastSeenAt)}
                         </time>
                       </>
                     ) : (
@@ -144,29 +131,26 @@ export function DevicesPanel({ tankId }: { tankId: string }) {
         </div>
       )}
 
-      <form onSubmit={submit} className="mt-4 flex flex-wrap items-end gap-2">
-        <div className="min-w-48 flex-1">
-          <label htmlFor={`${id}-name`} className="mb-1 block font-bold text-ink-900">
-            New device name
-          </label>
-          <input
-            id={`${id}-name`}
-            value={name}
-            maxLength={80}
-            onChange={(event) => setName(event.target.value)}
-            placeholder="e.g. Sump controller"
-            className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base focus:border-ink-700"
-          />
-        </div>
-        <Button type="submit" disabled={!name.trim() || create.isPending}>
-          {create.isPending ? 'Adding…' : 'Add device'}
-        </Button>
-      </form>
-      {create.isError && (
-        <p role="alert" className="mt-2 font-bold text-alert-700">
-          The device could not be added: {create.error.message}
-        </p>
-      )}
+      <Form
+        form={form}
+        className="mt-4 flex flex-wrap items-end gap-2"
+        onSubmit={async (input) => {
+          const result = await create.mutateAsync(input);
+          setCreated(result);
+          setCopied(false);
+          form.reset();
+        }}
+      >
+        <TextField
+          name="name"
+          label="New device name"
+          maxLength={80}
+          placeholder="e.g. Sump controller"
+          className="min-w-48 flex-1"
+        />
+        <SubmitButton pending="Adding…">Add device</SubmitButton>
+        <FormProblem className="w-full" />
+      </Form>
     </section>
   );
 }

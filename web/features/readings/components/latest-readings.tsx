@@ -1,10 +1,11 @@
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
-import { readingSourceLabels, type ParameterHealthSummary } from '@shared/schemas/readings';
+import type { ParameterHealthSummary } from '@shared/schemas/readings';
+import { readingSourceLabels } from '@shared/readings/sources';
 import { formatIn } from '../utils/display-units';
-import { formatDateTime, timeAgo } from '../utils/format-time';
+import { formatDateTime, relativeTime } from '../../../lib/format';
 import { limitsSummary } from '../utils/limits-text';
-import { ParameterHealthBadge } from './parameter-health-badge';
+import { ParameterHealthBadge } from '../../../components/status-badges';
 
 interface LatestReadingsProps {
   parameters: ParameterHealthSummary[];
@@ -41,7 +42,7 @@ export function LatestReadings({ parameters, units, selected, onSelect }: Latest
                 {p.latest ? (
                   <>
                     <time dateTime={p.latest.measuredAt} title={formatDateTime(p.latest.measuredAt)}>
-                      {timeAgo(p.latest.measuredAt)}
+                      {relativeTime(p.latest.measuredAt)}
                     </time>{' '}
                     · {readingSourceLabels[p.latest.source]}
                   </>

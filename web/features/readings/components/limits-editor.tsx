@@ -3,13 +3,8 @@ import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { formatValue } from '@shared/parameters/units';
 import { limitsFromComfort } from '@shared/readings/comfort-limits';
-import {
-  parameterLimits,
-  tankRateRule,
-  type ParameterLimits,
-  type ParameterLimitsView,
-  type TankRateRule,
-} from '@shared/schemas/limits';
+import { tankRateRule, type ParameterLimitsView, type TankRateRule } from '@shared/schemas/limits';
+import { parameterLimits, type ParameterLimits } from '@shared/parameters/limits';
 import { Button } from '../../../components/button';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiError } from '../../../lib/api-client';

@@ -2,14 +2,15 @@ import { useId, useState, type FormEvent } from 'react';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { checkStoredValue, formatValue } from '@shared/parameters/units';
-import { manualReadingInput, type ManualReadingInput, type ManualSource } from '@shared/schemas/readings';
+import { manualReadingInput, type ManualReadingInput } from '@shared/schemas/readings';
+import type { ManualSource } from '@shared/readings/sources';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
 import { parseDecimal } from '../../../lib/decimal';
 import { useCreateReadings } from '../api/create-readings';
 import { preferredUnit, rememberUnit, unitOptions } from '../utils/display-units';
-import { instantFromLocalInput, localInputValue } from '../utils/format-time';
-import { SegmentedChoice } from './segmented-choice';
+import { instantFromLocalInput, localInputValue } from '../../../lib/format';
+import { RadioGroup } from '../../../components/radio-group';
 
 interface Row {
   key: number;
@@ -197,7 +198,8 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
           </div>
         </div>
         {canRecordVisits && (
-          <SegmentedChoice
+          <RadioGroup
+            look="compact"
             legend="Recorded as"
             value={source}
             onChange={setSource}

@@ -1,14 +1,14 @@
 import { lazy, Suspense, useState } from 'react';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
-import { readingSourceLabels } from '@shared/schemas/readings';
+import { readingSourceLabels } from '@shared/readings/sources';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { useReadingHistory } from '../api/get-reading-history';
 import { chartRangeKeys, chartRanges, type ChartRange } from '../utils/chart-ranges';
 import { unitOptions } from '../utils/display-units';
 import { limitsSummary } from '../utils/limits-text';
 import { ReadingsTable } from './readings-table';
-import { SegmentedChoice } from './segmented-choice';
+import { RadioGroup } from '../../../components/radio-group';
 import { WindowStats } from './window-stats';
 
 // chart.js and its date adapter load only when a chart is first shown.
@@ -39,7 +39,8 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
         <h3 id="history-title" className="text-xl font-bold text-ink-900">
           History
         </h3>
-        <SegmentedChoice
+        <RadioGroup
+          look="compact"
           legend="Show as"
           hideLegend
           value={view}
@@ -81,7 +82,8 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
                 ))}
               </select>
             </div>
-            <SegmentedChoice
+            <RadioGroup
+              look="compact"
               legend="Period"
               value={range}
               onChange={setRange}

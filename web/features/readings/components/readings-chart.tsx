@@ -24,8 +24,10 @@ import { Chart } from 'react-chartjs-2';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { unitDecimals, unitSymbol } from '@shared/parameters/units';
-import type { ParameterLimits } from '@shared/schemas/limits';
-import { readingSourceLabels, type Reading, type ReadingHistory } from '@shared/schemas/readings';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import type { ReadingHistory } from '@shared/schemas/readings';
+import type { Reading } from '@shared/readings/reading';
+import { readingSourceLabels } from '@shared/readings/sources';
 import { displayValue, formatIn, limitsIn } from '../utils/display-units';
 
 ChartJS.register(

@@ -2,13 +2,13 @@ import { useState } from 'react';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { unitSymbol } from '@shared/parameters/units';
-import { readingSourceLabels, readingSources, type ReadingSource } from '@shared/schemas/readings';
+import { readingSourceLabels, readingSources, type ReadingSource } from '@shared/readings/sources';
 import { Button } from '../../../components/button';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { exportReadingsUrl } from '../api/export-readings';
 import { useListReadings, type ReadingFilters } from '../api/list-readings';
 import { formatIn, storedUnit } from '../utils/display-units';
-import { formatDateTime } from '../utils/format-time';
+import { formatDateTime } from '../../../lib/format';
 import { CsvImport } from './csv-import';
 
 interface ReadingsTableProps {

@@ -6,13 +6,13 @@ import { useMe } from '../../../lib/auth';
 import { useLimits } from '../api/get-limits';
 import { useLatestReadings } from '../api/get-latest-readings';
 import { preferredUnit, rememberUnit } from '../utils/display-units';
-import { timeAgo } from '../utils/format-time';
+import { relativeTime } from '../../../lib/format';
 import { DevicesPanel } from './devices-panel';
 import { LatestReadings } from './latest-readings';
 import { LimitsEditor } from './limits-editor';
 import { ReadingEntryForm } from './reading-entry-form';
 import { ReadingsChartPanel } from './readings-chart-panel';
-import { TankStatusBadge } from './tank-status-badge';
+import { TankStatusBadge } from '../../../components/status-badges';
 
 /** The order parameters are usually talked about in, most watched first. */
 const byCatalogue = (a: ParameterKey, b: ParameterKey) => parameterKeys.indexOf(a) - parameterKeys.indexOf(b);
@@ -73,7 +73,7 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
         </h2>
         <TankStatusBadge status={health.status} size="lg" />
         {health.lastReadingAt && (
-          <p className="text-sm text-ink-700">Last reading {timeAgo(health.lastReadingAt)}</p>
+          <p className="text-sm text-ink-700">Last reading {relativeTime(health.lastReadingAt)}</p>
         )}
       </div>
 

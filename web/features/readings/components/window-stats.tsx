@@ -3,7 +3,7 @@ import { unitDecimals, unitSymbol } from '@shared/parameters/units';
 import { sampleOf, windowStats, type SeriesSample } from '@shared/readings/stats';
 import type { ReadingHistory } from '@shared/schemas/readings';
 import { displayValue, formatIn } from '../utils/display-units';
-import { formatDateTime } from '../utils/format-time';
+import { formatDateTime } from '../../../lib/format';
 
 /** The window's samples in the display unit: each bucket, or each reading. */
 export function samplesOf(history: ReadingHistory, parameter: ParameterKey, unit: string): SeriesSample[] {

@@ -1,7 +1,7 @@
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { allowedUnits, fromStored, unitDecimals, unitSymbol } from '@shared/parameters/units';
-import type { ParameterLimits } from '@shared/schemas/limits';
+import type { ParameterLimits } from '@shared/parameters/limits';
 
 /** Plain names for the unit pickers; the symbol alone ("SG", "meq/L") is not always clear. */
 const unitNames: Record<string, string> = {

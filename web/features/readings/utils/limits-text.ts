@@ -1,6 +1,6 @@
 import type { ParameterKey } from '@shared/parameters/keys';
 import { unitDecimals, unitSymbol } from '@shared/parameters/units';
-import type { ParameterLimits } from '@shared/schemas/limits';
+import type { ParameterLimits } from '@shared/parameters/limits';
 import { displayValue } from './display-units';
 
 /** "Warning outside 24.0–27.5 °C · critical outside 22.5–29.0 °C", with open sides said plainly. */

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateTankInput, TankDetail } from '@shared/schemas/tanks';
 import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { invalidatePeople } from '../../../lib/queries/people';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const createTank = (input: CreateTankInput) =>
   api<TankDetail>('/tanks', { method: 'POST', body: input });
@@ -13,7 +14,7 @@ export function useCreateTank() {
     onSuccess: (tank) => {
       queryClient.setQueryData(tankKeys.detail(tank.id), tank);
       void queryClient.invalidateQueries({ queryKey: tankKeys.all });
-      void queryClient.invalidateQueries({ queryKey: ['clients'] });
+      void invalidatePeople(queryClient);
     },
   });
 }

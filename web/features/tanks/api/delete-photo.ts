@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const deletePhoto = (photoId: string) => api<void>(`/photos/${photoId}`, { method: 'DELETE' });
 

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { PhotoItem } from '@shared/schemas/photos';
 import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const getTankPhotos = (tankId: string, signal?: AbortSignal) =>
   api<PhotoItem[]>(`/tanks/${tankId}/photos`, { signal });

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TankDetail } from '@shared/schemas/tanks';
 import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 export const getTank = (tankId: string, signal?: AbortSignal) =>
   api<TankDetail>(`/tanks/${tankId}`, { signal });

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AssignableStaff } from '@shared/schemas/tanks';
 import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { tankKeys } from '../../../lib/query-keys';
 
 /** Active staff a tank can be assigned to. */
 export const getTechnicians = (signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const getTechnicians = (signal?: AbortSignal) =>
 
 export const techniciansQueryOptions = () =>
   queryOptions({
-    queryKey: tankKeys.technicians,
+    queryKey: tankKeys.technicians(),
     queryFn: ({ signal }) => getTechnicians(signal),
     staleTime: 5 * 60_000,
   });

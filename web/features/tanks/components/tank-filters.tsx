@@ -1,10 +1,21 @@
-import { useEffect, useState } from 'react';
-import type { AssignableStaff, TankListQuery } from '@shared/schemas/tanks';
+import { useEffect } from 'react';
+import { z } from 'zod';
+import { tankListQuery, type AssignableStaff, type TankListQuery } from '@shared/schemas/tanks';
+import { Form, useZodForm } from '../../../components/form';
 import { SelectField, TextField } from '../../../components/form-fields';
+import { blankAsUndefined } from '../../../lib/form-values';
+
+const filterForm = z.object({
+  q: blankAsUndefined(tankListQuery.shape.q),
+  technicianId: blankAsUndefined(tankListQuery.shape.technicianId),
+});
+
+const sameQuery = (a: TankListQuery, b: TankListQuery) =>
+  (a.q ?? '') === (b.q ?? '') && (a.technicianId ?? '') === (b.technicianId ?? '');
 
 /**
  * Search and technician filter for the console's tank list. The search waits for a pause in
- * typing so each keystroke does not become a request.
+ * typing so each keystroke does not become a request; the technician applies at once.
  */
 export function TankFilters({
   query,
@@ -15,44 +26,40 @@ export function TankFilters({
   technicians: readonly AssignableStaff[];
   onChange: (query: TankListQuery) => void;
 }) {
-  const [text, setText] = useState(query.q ?? '');
+  const form = useZodForm(filterForm, {
+    mode: 'onChange',
+    defaultValues: { q: query.q ?? '', technicianId: query.technicianId ?? '' },
+  });
+  const q = form.watch('q') ?? '';
+  const technicianId = form.watch('technicianId') ?? '';
+
   useEffect(() => {
-    if (text.trim() === (query.q ?? '')) return;
-    const timer = setTimeout(() => onChange({ ...query, q: text.trim() || undefined }), 250);
+    const next = filterForm.safeParse({ q, technicianId });
+    if (!next.success || sameQuery(next.data, query)) return;
+    const typing = (next.data.q ?? '') !== (query.q ?? '');
+    const timer = setTimeout(() => onChange(next.data), typing ? 250 : 0);
     return () => clearTimeout(timer);
-  }, [text, query, onChange]);
+  }, [q, technicianId, query, onChange]);
 
   return (
-    <form
+    <Form
+      form={form}
       role="search"
       aria-label="Find tanks"
-      onSubmit={(event) => {
-        event.preventDefault();
-        onChange({ ...query, q: text.trim() || undefined });
-      }}
+      onSubmit={(values) => onChange(values)}
       className="grid gap-3 rounded-card bg-white p-4 shadow-card sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]"
     >
-      <TextField
-        label="Search"
-        hint="Tank, site or client name"
-        type="search"
-        value={text}
-        onChange={setText}
-        autoComplete="off"
-      />
+      <TextField name="q" label="Search" hint="Tank, site or client name" type="search" autoComplete="off" />
       <SelectField
+        name="technicianId"
         label="Technician"
         hint="Who looks after the tank"
-        value={query.technicianId ?? ''}
-        onChange={(technicianId) =>
-          onChange({ ...query, technicianId: (technicianId || undefined) as TankListQuery['technicianId'] })
-        }
         options={[
           { value: '', label: 'Everyone' },
           { value: 'none', label: 'Nobody assigned' },
           ...technicians.map((person) => ({ value: person.id, label: person.name })),
         ]}
       />
-    </form>
+    </Form>
   );
 }

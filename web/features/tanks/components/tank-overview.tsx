@@ -1,7 +1,7 @@
 import { tankStyleLabels } from '@shared/parameters/limit-templates';
 import type { TankDetail } from '@shared/schemas/tanks';
-import { TankStatusBadge } from '../../readings/components/tank-status-badge';
-import { formatDay, formatNumber, formatVolume } from '../utils/format';
+import { TankStatusBadge } from '../../../components/status-badges';
+import { formatDay, formatNumber, formatVolume } from '../../../lib/format';
 import { TankCover } from './tank-cover';
 
 const waterLabels = { marine: 'Marine', fresh: 'Freshwater', brackish: 'Brackish' } as const;

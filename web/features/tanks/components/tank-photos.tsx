@@ -4,7 +4,7 @@ import { ErrorState, LoadingState } from '../../../components/states';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useTankPhotos } from '../api/get-tank-photos';
 import { useUpdateTank } from '../api/update-tank';
-import { PhotoUploader } from './photo-uploader';
+import { PhotoUploader } from '../../../components/photo-uploader';
 
 /** The tank's photos for staff: add one, choose the cover, delete what should not be there. */
 export function TankPhotos({ tank }: { tank: TankDetail }) {

@@ -1,8 +1,8 @@
 import { Link } from 'react-router';
 import { tankStyleLabels } from '@shared/parameters/limit-templates';
 import type { TankSummary } from '@shared/schemas/tanks';
-import { TankStatusBadge } from '../../readings/components/tank-status-badge';
-import { formatVolume } from '../utils/format';
+import { TankStatusBadge } from '../../../components/status-badges';
+import { formatVolume } from '../../../lib/format';
 import { TankCover } from './tank-cover';
 
 const linkClass = 'inline-flex min-h-11 items-center font-bold text-brine-700';

@@ -1,7 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { PhotoItem } from '@shared/schemas/photos';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from './tank-query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
+
+/*
+ * Uploading a photo: the tank's own photos and each animal's gallery both send them, so the call
+ * lives here beside the shared uploader rather than in one feature.
+ */
 
 export interface PhotoUploadInput {
   file: File;
@@ -24,6 +29,6 @@ export function useUploadPhoto(tankId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: PhotoUploadInput) => uploadPhoto(tankId, input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: tankKeys.all }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: tankKeys.detail(tankId) }),
   });
 }

@@ -1,3 +1,0 @@
-export const equipmentKeys = {
-  list: (tankId: string) => ['tanks', 'detail', tankId, 'equipment'] as const,
-};
