@@ -45,6 +45,14 @@ export default tseslint.config(
               from: ['./api', './web'],
               message: 'shared/ is pure: it imports neither api/ nor web/.',
             },
+            {
+              // Every folder of shared/ but the schemas, so a new topic folder is covered from the start.
+              target: readdirSync(new URL('./shared', import.meta.url), { withFileTypes: true })
+                .filter((entry) => entry.isDirectory() && entry.name !== 'schemas')
+                .map((entry) => `./shared/${entry.name}`),
+              from: './shared/schemas',
+              message: 'shared/ is layered: domain types and rules sit below the request schemas.',
+            },
             { target: './web', from: './api', message: 'web/ talks to api/ over HTTP only.' },
             { target: './api', from: './web', message: 'api/ never imports web/.' },
             // Inside web/: shared pieces (lib, components) ← features ← app.

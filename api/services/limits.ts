@@ -6,12 +6,12 @@ import { limitTemplates, limitTemplatesSource } from '@shared/parameters/limit-t
 import { limitsInForce } from '@shared/parameters/limits-in-force';
 import {
   rateRuleInHours,
-  type ParameterLimits,
   type ParameterLimitsView,
   type TankLimitsView,
   type TankRateRule,
   type UpdateLimitsInput,
 } from '@shared/schemas/limits';
+import type { ParameterLimits } from '@shared/parameters/limits';
 import type { LimitsInForce } from '@shared/schemas/readings';
 import type { Db } from '../db/client';
 import { tankLimits, type tanks } from '../db/schema/index';

@@ -1,6 +1,10 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import { comfortRange, type ComfortRange } from '@shared/livestock/comfort-range';
-import { checkCompatibility, type Inhabitant } from '@shared/livestock/compatibility';
+import {
+  checkCompatibility,
+  type CompatibilityWarning,
+  type Inhabitant,
+} from '@shared/livestock/compatibility';
 import type {
   addLivestockInput,
   LivestockItem,
@@ -9,7 +13,6 @@ import type {
   updateLivestockInput,
 } from '@shared/schemas/livestock';
 import { presentStatuses } from '@shared/schemas/livestock-status';
-import type { CompatibilityWarning } from '@shared/schemas/species';
 import type { z } from 'zod';
 import type { Db } from '../db/client';
 import { livestock, livestockStatusEvents, photos, users, type tanks } from '../db/schema/index';

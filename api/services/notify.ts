@@ -7,7 +7,7 @@ import {
   notificationPreferences as preferencesSchema,
   type NotificationPreferences,
 } from '@shared/schemas/notifications';
-import type { LimitDirection } from '@shared/schemas/limits';
+import type { LimitDirection } from '@shared/parameters/limits';
 import type { AppDeps } from '../deps';
 import {
   alertEvents,

@@ -7,14 +7,13 @@ import {
   type CreateReadingsInput,
   type ImportReadingsInput,
   type ManualReadingInput,
-  type ManualSource,
-  type Reading,
   type ReadingExportQuery,
   type ReadingListQuery,
   type ReadingPage,
-  type ReadingSource,
   type TankHealthSummary,
 } from '@shared/schemas/readings';
+import type { Reading } from '@shared/readings/reading';
+import type { ManualSource, ReadingSource } from '@shared/readings/sources';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import { readings, type tanks } from '../db/schema/index';

@@ -1,7 +1,8 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { speciesCatalogue, findSpecies } from '@shared/livestock/catalogue';
 import { companySpeciesPrefix, type SpeciesEntry, type SpeciesQuery } from '@shared/schemas/livestock';
-import { careProfile, type Species, type speciesInput } from '@shared/schemas/species';
+import type { speciesInput } from '@shared/schemas/species';
+import { careProfile, type Species } from '@shared/livestock/species';
 import type { z } from 'zod';
 import type { Db } from '../db/client';
 import { companySpecies } from '../db/schema/index';

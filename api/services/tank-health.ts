@@ -3,12 +3,9 @@ import type { ParameterHealth, TankStatus } from '@shared/parameters/health';
 import { expectedIntervalsMs } from '@shared/parameters/health';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates } from '@shared/parameters/limit-templates';
-import type { ParameterLimits } from '@shared/schemas/limits';
-import type {
-  ParameterHealthSummary,
-  ReadingSource,
-  TankHealthSummary as TankHealth,
-} from '@shared/schemas/readings';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import type { ParameterHealthSummary, TankHealthSummary as TankHealth } from '@shared/schemas/readings';
+import type { ReadingSource } from '@shared/readings/sources';
 import type { Db } from '../db/client';
 
 export type TankHealthSummary = TankHealth;

@@ -11,8 +11,8 @@ import {
   unitSymbol,
   type UnitContext,
 } from '@shared/parameters/units';
-import type { LimitDirection, LimitSeverity, RateRule } from '@shared/schemas/limits';
-import type { ReadingSource } from '@shared/schemas/readings';
+import type { LimitDirection, LimitSeverity, RateRule } from '@shared/parameters/limits';
+import type { ReadingSource } from '@shared/readings/sources';
 import { deviceStaleFirstSteps, firstSteps, type FirstSteps } from './first-steps';
 import { freeAmmoniaThresholds } from './free-ammonia';
 import type { AlertKind, AlertSeverity } from './kinds';

@@ -4,7 +4,7 @@
  * Rates such as "about 1 °C an hour" are common practice, not a published standard.
  */
 import type { ParameterKey } from '@shared/parameters/keys';
-import type { LimitDirection, LimitSeverity } from '@shared/schemas/limits';
+import type { LimitDirection, LimitSeverity } from '@shared/parameters/limits';
 
 export const cautionKinds = ['electricity', 'chemicals', 'livestock', 'lifting', 'general'] as const;
 export type CautionKind = (typeof cautionKinds)[number];

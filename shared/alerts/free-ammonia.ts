@@ -1,5 +1,5 @@
 import { unionizedAmmonia, unionizedAmmoniaFraction } from '@shared/chemistry/index';
-import type { LimitSeverity } from '@shared/schemas/limits';
+import type { LimitSeverity } from '@shared/parameters/limits';
 
 /**
  * Free (un-ionised) ammonia, mg/L NH3, above which an alert opens. Common practice, from memory:

@@ -1,7 +1,7 @@
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { formatValue, type FormatOptions } from '@shared/parameters/units';
-import type { LimitDirection } from '@shared/schemas/limits';
+import type { LimitDirection } from '@shared/parameters/limits';
 
 export interface LivestockInhabitant {
   readonly speciesId: string;

@@ -1,4 +1,10 @@
-import type { NotificationPreferences } from '@shared/schemas/notifications';
+import { z } from 'zod';
+
+const clockTime = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use a 24-hour time such as 22:00.');
+
+/** A daily window of local clock times in which only critical alerts reach a person. */
+export const quietHours = z.object({ start: clockTime, end: clockTime });
+export type QuietHours = z.infer<typeof quietHours>;
 
 /** The local clock time (HH:MM, 24 h) at `at` in an IANA time zone. */
 export function localClockTime(at: Date, timeZone: string): string {
@@ -15,7 +21,7 @@ export function localClockTime(at: Date, timeZone: string): string {
  * past midnight (22:00–07:00); the start is inside it, the end is not.
  */
 export function inQuietHours(
-  preferences: Pick<NotificationPreferences, 'quietHours' | 'timeZone'>,
+  preferences: { readonly quietHours: QuietHours | null; readonly timeZone: string },
   at: Date,
 ): boolean {
   if (!preferences.quietHours) return false;

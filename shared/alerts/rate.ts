@@ -1,4 +1,4 @@
-import type { RateRule } from '@shared/schemas/limits';
+import type { RateRule } from '@shared/parameters/limits';
 
 export interface TimedValue {
   readonly value: number;

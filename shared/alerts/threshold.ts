@@ -20,8 +20,8 @@ import {
   type LimitDirection,
   type LimitSeverity,
   type ParameterLimits,
-} from '@shared/schemas/limits';
-import type { ReadingSource } from '@shared/schemas/readings';
+} from '@shared/parameters/limits';
+import type { ReadingSource } from '@shared/readings/sources';
 
 const breachRun = z.object({ since: z.coerce.date(), count: z.int().positive() });
 

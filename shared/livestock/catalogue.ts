@@ -6,7 +6,7 @@
  * from a study: individual animals, farmed versus wild stock and each tank differ, and a
  * company's technician has the last word. Companies can add their own species beside these.
  */
-import type { Behaviour, CareRanges, ParameterRange, Species } from '@shared/schemas/species';
+import type { Behaviour, CareRanges, ParameterRange, Species } from '@shared/livestock/species';
 
 export const catalogueSource =
   'Common aquarium-trade practice, from memory: general care guidance written by the Brinewatch team, ' +

@@ -1,6 +1,6 @@
 import { parameterKeys } from '@shared/parameters/keys';
 import type { ParameterKey } from '@shared/parameters/keys';
-import type { ParameterRange, Species } from '@shared/schemas/species';
+import type { ParameterRange, Species } from '@shared/livestock/species';
 
 export interface ComfortBand {
   min: number;

@@ -1,14 +1,37 @@
+import { z } from 'zod';
 import { formatRange, joinWithAnd, parameterLabel, rangesOverlap } from '@shared/livestock/comfort-range';
+import {
+  coralGroups,
+  sessileGroups,
+  speciesId,
+  type LivestockGroup,
+  type PreyGroup,
+  type Species,
+  type Territoriality,
+} from '@shared/livestock/species';
 import type { ParameterKey } from '@shared/parameters/keys';
-import { coralGroups, sessileGroups } from '@shared/schemas/species';
-import type {
-  CompatibilityWarning,
-  LivestockGroup,
-  PreyGroup,
-  Species,
-  Territoriality,
-  WaterType,
-} from '@shared/schemas/species';
+import type { WaterType } from '@shared/parameters/water-types';
+
+export const compatibilityWarningKinds = [
+  'water-type',
+  'stings-neighbours',
+  'wanders',
+  'nips-corals',
+  'nips-clams',
+  'eats-invertebrates',
+  'eats-fish',
+  'territorial',
+  'care-range',
+] as const;
+
+export const compatibilityWarning = z.object({
+  kind: z.enum(compatibilityWarningKinds),
+  severity: z.enum(['caution', 'serious']),
+  message: z.string(),
+  /** The candidate first, then the inhabitants the warning concerns. */
+  speciesIds: z.array(speciesId).min(1),
+});
+export type CompatibilityWarning = z.infer<typeof compatibilityWarning>;
 
 export interface Inhabitant {
   species: Species;

@@ -7,8 +7,8 @@
  * slips (a dropped decimal point, a reading in the wrong unit), never judge the water.
  */
 import { commonPracticeMaxDailyRise } from '@shared/chemistry/index';
-import type { RateRule } from '@shared/schemas/limits';
-import type { WaterType } from '@shared/schemas/species';
+import type { RateRule } from './limits';
+import type { WaterType } from './water-types';
 import type { ParameterKey } from './keys';
 
 export const minuteMs = 60_000;

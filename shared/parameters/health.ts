@@ -15,10 +15,10 @@
  *    tank is watched for; a parameter gone quiet is worth a look but is not an alarm.
  */
 import { z } from 'zod';
-import type { LimitDirection, LimitSeverity, ParameterLimits } from '@shared/schemas/limits';
-import type { ReadingSource } from '@shared/schemas/readings';
+import type { ReadingSource } from '@shared/readings/sources';
 import { parameterCatalogue } from './catalogue';
 import { parameterKeys, type ParameterKey } from './keys';
+import type { LimitDirection, LimitSeverity, ParameterLimits } from './limits';
 
 export const parameterHealthValues = ['in-range', 'warning', 'critical', 'stale'] as const;
 export const parameterHealthSchema = z.enum(parameterHealthValues);

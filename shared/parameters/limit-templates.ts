@@ -6,8 +6,9 @@
  * default.
  */
 import { z } from 'zod';
-import type { ParameterLimits, TankLimits } from '@shared/schemas/limits';
-import type { WaterType } from '@shared/schemas/species';
+import type { ParameterLimits } from './limits';
+import type { TankLimits } from './tank-limits';
+import type { WaterType } from './water-types';
 
 export const tankStyles = [
   'sps-reef',

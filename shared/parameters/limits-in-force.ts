@@ -1,4 +1,4 @@
-import type { ParameterLimits } from '@shared/schemas/limits';
+import type { ParameterLimits } from './limits';
 import type { ParameterKey } from './keys';
 import { limitTemplates, type TankStyle } from './limit-templates';
 

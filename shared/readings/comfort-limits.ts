@@ -1,4 +1,4 @@
-import type { ParameterLimits } from '@shared/schemas/limits';
+import type { ParameterLimits } from '@shared/parameters/limits';
 
 /**
  * "Use comfort range": the warning band becomes the range every inhabitant tolerates. Critical

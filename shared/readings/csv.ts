@@ -4,7 +4,9 @@
  * An export can be imported again: the columns an import does not use are reported and ignored.
  */
 import type { z } from 'zod';
-import { importedReadingInput, type ManualSource, type Reading } from '@shared/schemas/readings';
+import { importedReadingInput } from './entry';
+import type { Reading } from './reading';
+import type { ManualSource } from './sources';
 
 export const importColumns = [
   'measured_at',

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { livestockStatus, presentStatuses, type LivestockStatus } from '@shared/schemas/livestock-status';
-import { compatibilityWarning, species, speciesId, waterType, livestockGroup } from '@shared/schemas/species';
+import { compatibilityWarning } from '@shared/livestock/compatibility';
+import { livestockGroup, species, speciesId } from '@shared/livestock/species';
+import { waterType } from '@shared/parameters/water-types';
 import { personRef, photoRef } from '@shared/schemas/tanks';
 
 export const livestockIdParams = z.object({ tankId: z.uuid(), livestockId: z.uuid() });

@@ -1,18 +1,17 @@
 import { z } from 'zod';
 import { alertSeverity } from '@shared/alerts/kinds';
+import { quietHours } from '@shared/alerts/quiet-hours';
 
 export const notificationChannels = ['push', 'email', 'in-app'] as const;
 export const notificationChannel = z.enum(notificationChannels);
 export type NotificationChannel = z.infer<typeof notificationChannel>;
-
-const clockTime = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use a 24-hour time such as 22:00.');
 
 /** Which severities reach a person on each channel, and when to stay quiet (critical always passes). */
 export const notificationPreferences = z.object({
   push: z.array(alertSeverity),
   email: z.array(alertSeverity),
   inApp: z.array(alertSeverity),
-  quietHours: z.object({ start: clockTime, end: clockTime }).nullable(),
+  quietHours: quietHours.nullable(),
   timeZone: z.string().min(1).max(64),
 });
 export type NotificationPreferences = z.infer<typeof notificationPreferences>;

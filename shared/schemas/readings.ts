@@ -1,49 +1,11 @@
 import { z } from 'zod';
 import { parameterKey } from '@shared/parameters/keys';
-import {
-  allowedUnits,
-  checkStoredValue,
-  isEntryUnit,
-  UnitNotAllowedError,
-  type UnitContext,
-} from '@shared/parameters/units';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import { allowedUnits, isEntryUnit, UnitNotAllowedError } from '@shared/parameters/units';
 import type { ParameterHealth, TankStatus } from '@shared/parameters/health';
-import type { ParameterLimits } from './limits';
-
-export const readingSources = ['visit', 'home-test', 'device'] as const;
-export const readingSource = z.enum(readingSources);
-export type ReadingSource = z.infer<typeof readingSource>;
-
-const measuredAt = z.iso.datetime({ offset: true });
-// EOS-80 validity, the range the specific-gravity conversion accepts.
-const instrumentTempC = z.number().min(-2).max(40);
-
-interface EnteredReading extends UnitContext {
-  readonly parameter: z.infer<typeof parameterKey>;
-  readonly value: number;
-  readonly unit: string;
-}
-
-/**
- * Checks that the unit suits the parameter and that the value converts to something a tank can
- * plausibly read, so a slip is reported against the field the person can fix.
- */
-function checkEntered(reading: EnteredReading, ctx: z.RefinementCtx): void {
-  if (reading.unit === 'specific gravity') {
-    for (const field of ['sampleTempC', 'referenceTempC'] as const) {
-      if (reading[field] === undefined) {
-        ctx.addIssue({
-          code: 'custom',
-          path: [field],
-          message: 'a specific-gravity reading needs its sample and reference temperatures',
-        });
-      }
-    }
-    if (reading.sampleTempC === undefined || reading.referenceTempC === undefined) return;
-  }
-  const check = checkStoredValue(reading.parameter, reading.value, reading.unit, reading);
-  if (!check.ok) ctx.addIssue({ code: 'custom', path: [check.field], message: check.message });
-}
+import { checkEntered, importedReadingInput, instrumentTempC, measuredAt } from '@shared/readings/entry';
+import type { Reading } from '@shared/readings/reading';
+import { manualSource, readingSource, type ReadingSource } from '@shared/readings/sources';
 
 /** A reading entered by a person, at a visit or as a home test; the route decides which. */
 export const manualReadingInput = z
@@ -100,19 +62,6 @@ export const deviceReadingBatch = z.object({
 });
 export type DeviceReadingBatch = z.infer<typeof deviceReadingBatch>;
 
-/** Readings a person records: staff at a visit or as a home test, owners as home tests only. */
-export const manualSources = ['visit', 'home-test'] as const;
-export const manualSource = z.enum(manualSources, {
-  error: 'use visit or home-test (device readings come only from a device)',
-});
-export type ManualSource = z.infer<typeof manualSource>;
-
-export const readingSourceLabels: Readonly<Record<ReadingSource, string>> = {
-  visit: 'Visit',
-  'home-test': 'Home test',
-  device: 'Device',
-};
-
 /** The earliest and latest a person's reading may be dated, relative to the server's clock. */
 export const futureToleranceMs = 5 * 60_000;
 
@@ -121,22 +70,6 @@ export const createReadingsInput = manualReadingBatch.extend({
   source: manualSource.optional(),
 });
 export type CreateReadingsInput = z.infer<typeof createReadingsInput>;
-
-/** One imported CSV row: a manual reading that names its own source. */
-export const importedReadingInput = z
-  .object({
-    parameter: parameterKey,
-    value: z.number(),
-    unit: z.string().max(40),
-    measuredAt,
-    source: manualSource,
-    method: z.string().trim().min(1).max(80).optional(),
-    note: z.string().trim().max(1000).optional(),
-    sampleTempC: instrumentTempC.optional(),
-    referenceTempC: instrumentTempC.optional(),
-  })
-  .superRefine(checkEntered);
-export type ImportedReadingInput = z.infer<typeof importedReadingInput>;
 
 /** A CSV import is one batch, all or nothing, so it is bounded like one. */
 export const maxImportRows = 5000;
@@ -203,24 +136,6 @@ export type ReadingListQuery = z.infer<typeof readingListQuery>;
 
 export const readingExportQuery = readingListQuery.omit({ before: true, limit: true });
 export type ReadingExportQuery = z.infer<typeof readingExportQuery>;
-
-/** A stored reading as the API shows it. */
-export interface Reading {
-  id: number;
-  parameter: z.infer<typeof parameterKey>;
-  /** In the parameter's stored unit. */
-  value: number;
-  enteredValue: number;
-  enteredUnit: string;
-  measuredAt: string;
-  source: ReadingSource;
-  /** The person who recorded it, or the device that sent it. */
-  recordedBy: string | null;
-  method: string | null;
-  note: string | null;
-  sampleTempC: number | null;
-  referenceTempC: number | null;
-}
 
 export interface ReadingPage {
   readings: Reading[];

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { litresFromImperialGallons, litresFromUsGallons, usGallonsFromLitres } from '@shared/chemistry/index';
 import { tankStatusSchema } from '@shared/parameters/health';
 import { tankStyle, tankStyleWaterType } from '@shared/parameters/limit-templates';
-import { waterType } from '@shared/schemas/species';
+import { waterType } from '@shared/parameters/water-types';
 
 export const tankIdParams = z.object({ tankId: z.uuid() });
 

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { CompatibilityCheck, LivestockItem, SpeciesEntry } from '@shared/schemas/livestock';
-import type { CompatibilityWarning } from '@shared/schemas/species';
+import type { CompatibilityWarning } from '@shared/livestock/compatibility';
 import { livestock, livestockStatusEvents } from '../../api/db/schema/index';
 import { issuePaths, signedIn, type ApiSession } from '../helpers/api-session';
 import {

@@ -13,8 +13,8 @@ import {
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates, tankStyles, type TankStyle } from '@shared/parameters/limit-templates';
 import { limitsInForce, type OwnLimits } from '@shared/parameters/limits-in-force';
-import type { ParameterLimits } from '@shared/schemas/limits';
-import { readingSources, type ReadingSource } from '@shared/schemas/readings';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import { readingSources, type ReadingSource } from '@shared/readings/sources';
 import { days, hours, minutes } from '../helpers/clock';
 import { createTestDatabase, type TestDatabase } from '../helpers/db';
 import { createCompany, createTank } from '../helpers/factories';

@@ -30,7 +30,7 @@ export const companySpecies = pgTable(
     scientificName: text('scientific_name').notNull(),
     /** Scientific family when known; rivalry between related fish is judged by it. */
     family: text('family'),
-    /** The same care-profile shape as the catalogue, validated by shared/schemas/species.ts. */
+    /** The same care-profile shape as the catalogue, validated by shared/livestock/species.ts. */
     profile: jsonb('profile').notNull(),
     ...timestamps,
   },

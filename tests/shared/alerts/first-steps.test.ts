@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { cautions, deviceStaleFirstSteps, firstSteps } from '@shared/alerts/first-steps';
 import { parameterKeys } from '@shared/parameters/keys';
-import { limitDirections, limitSeverities } from '@shared/schemas/limits';
+import { limitDirections, limitSeverities } from '@shared/parameters/limits';
 
 describe('firstSteps', () => {
   it('tells the owner to switch the heater off at the wall with dry hands when temperature is critically high', () => {

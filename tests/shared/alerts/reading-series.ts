@@ -6,8 +6,8 @@ import {
   type ThresholdOutcome,
   type ThresholdReading,
 } from '@shared/alerts/threshold';
-import type { ParameterLimits } from '@shared/schemas/limits';
-import type { ReadingSource } from '@shared/schemas/readings';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import type { ReadingSource } from '@shared/readings/sources';
 import { createTestClock, minutes } from '../../helpers/clock';
 
 export const seriesStart = '2026-12-01T08:00:00Z';

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { catalogueSource, findSpecies, speciesCatalogue } from '@shared/livestock/catalogue';
 import { parameterKeys } from '@shared/parameters/keys';
-import { species, speciesInput } from '@shared/schemas/species';
-import type { LivestockGroup } from '@shared/schemas/species';
+import { speciesInput } from '@shared/schemas/species';
+import { species } from '@shared/livestock/species';
+import type { LivestockGroup } from '@shared/livestock/species';
 
 describe('speciesCatalogue', () => {
   it('ships at least 45 species', () => {

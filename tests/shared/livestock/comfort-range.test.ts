@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { comfortRange } from '@shared/livestock/comfort-range';
-import type { ParameterRange } from '@shared/schemas/species';
+import type { ParameterRange } from '@shared/livestock/species';
 import { buildSpecies, catalogued } from './species-factory';
 
 const withTemperature = (id: string, min: number, max: number) =>

@@ -3,8 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { speciesCatalogue } from '@shared/livestock/catalogue';
 import { comfortRange } from '@shared/livestock/comfort-range';
 import { checkCompatibility } from '@shared/livestock/compatibility';
-import type { Inhabitant } from '@shared/livestock/compatibility';
-import type { CompatibilityWarning, Species } from '@shared/schemas/species';
+import type { CompatibilityWarning, Inhabitant } from '@shared/livestock/compatibility';
+import type { Species } from '@shared/livestock/species';
 import { buildSpecies, catalogued } from './species-factory';
 
 const marine = { waterType: 'marine' } as const;

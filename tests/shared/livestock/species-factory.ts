@@ -1,5 +1,5 @@
 import { findSpecies } from '@shared/livestock/catalogue';
-import type { Behaviour, CareProfile, Species } from '@shared/schemas/species';
+import type { Behaviour, CareProfile, Species } from '@shared/livestock/species';
 
 type SpeciesOverrides = Partial<Omit<Species, 'profile'>> & {
   profile?: Partial<Omit<CareProfile, 'behaviour'>> & { behaviour?: Partial<Behaviour> };

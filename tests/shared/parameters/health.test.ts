@@ -8,8 +8,8 @@ import {
   type LatestReading,
 } from '@shared/parameters/health';
 import { parameterKeys } from '@shared/parameters/keys';
-import type { ParameterLimits } from '@shared/schemas/limits';
-import type { ReadingSource } from '@shared/schemas/readings';
+import type { ParameterLimits } from '@shared/parameters/limits';
+import type { ReadingSource } from '@shared/readings/sources';
 import { createTestClock, days, minutes } from '../../helpers/clock';
 import { seriesStart } from '../alerts/reading-series';
 

@@ -8,7 +8,8 @@ import {
   tankStyles,
   tankStyleWaterType,
 } from '@shared/parameters/limit-templates';
-import { parameterLimits, tankLimits, type ParameterLimits } from '@shared/schemas/limits';
+import { parameterLimits, type ParameterLimits } from '@shared/parameters/limits';
+import { tankLimits } from '@shared/parameters/tank-limits';
 
 const bounds = (overrides: Partial<ParameterLimits> = {}): ParameterLimits => ({
   warnLow: 24,

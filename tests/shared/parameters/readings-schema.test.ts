@@ -4,9 +4,9 @@ import {
   deviceReadingInput,
   manualReadingBatch,
   manualReadingInput,
-  readingSource,
   type ManualReadingInput,
 } from '@shared/schemas/readings';
+import { readingSource } from '@shared/readings/sources';
 
 function manualReading(overrides: Partial<ManualReadingInput> = {}): ManualReadingInput {
   return {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { limitsFromComfort } from '@shared/readings/comfort-limits';
-import { parameterLimits } from '@shared/schemas/limits';
+import { parameterLimits } from '@shared/parameters/limits';
 
 describe('limitsFromComfort', () => {
   it('makes the comfort range the warning band and keeps the critical bounds outside it', () => {

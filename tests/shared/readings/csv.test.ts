@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { csvHeaderLine, parseCsv, readingCsvLine, readingsFromCsv } from '@shared/readings/csv';
-import type { Reading } from '@shared/schemas/readings';
+import type { Reading } from '@shared/readings/reading';
 
 const reading: Reading = {
   id: 1,
