@@ -7,7 +7,7 @@ import { appOrigin, type Env } from './env';
 import { systemClock, type Clock } from './lib/clock';
 import type { Logger } from './lib/logger';
 import { createMailer, type Mailer } from './lib/mailer';
-import { createObjectStorage, type ObjectStorage } from './lib/object-storage';
+import { objectStorageFromEnv, type ObjectStorage } from './lib/object-storage';
 import { createOidcClient, type OidcClient } from './lib/oidc-client';
 import type { EventListener } from './lib/event-bus';
 import { createPushSender, type PushSender } from './lib/web-push-sender';
@@ -63,14 +63,7 @@ export function createDeps(options: {
       clock,
     }),
     mailer: createMailer({ host: env.SMTP_HOST, port: env.SMTP_PORT, from: env.MAIL_FROM }),
-    storage: createObjectStorage({
-      endpoint: env.S3_ENDPOINT,
-      region: env.S3_REGION,
-      bucket: env.S3_BUCKET,
-      accessKeyId: env.S3_ACCESS_KEY_ID,
-      secretAccessKey: env.S3_SECRET_ACCESS_KEY,
-      forcePathStyle: true,
-    }),
+    storage: objectStorageFromEnv(env),
     jobs: options.jobs ?? null,
     events: options.events ?? null,
     push:

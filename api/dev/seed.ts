@@ -5,7 +5,7 @@ import { loadEnvOrExit } from '../env';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
 import { seedDemo } from './seed/index';
-import { objectStorageFor } from './seed/photos';
+import { objectStorageFromEnv } from '../lib/object-storage';
 
 /** `npm run db:seed` (and `npm run db:migrate` with --migrate-only). */
 async function main() {
@@ -26,7 +26,7 @@ async function main() {
             dir: path.join(env.DATA_DIR, 's3'),
             bucket: env.S3_BUCKET,
           });
-      const storage = objectStorageFor(env);
+      const storage = objectStorageFromEnv(env);
       try {
         await seedDemo(db, { issuer: env.OIDC_ISSUER, storage });
       } finally {

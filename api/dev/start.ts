@@ -4,7 +4,7 @@ import { loadOrCreateVapidKeys } from '../lib/vapid-keys';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
 import { seedDemo } from './seed/index';
-import { objectStorageFor } from './seed/photos';
+import { objectStorageFromEnv } from '../lib/object-storage';
 import { createLogger } from '../lib/logger';
 import { onShutdown, startServer } from '../server';
 import { openLocalDatabase } from './local-database';
@@ -40,7 +40,7 @@ async function main() {
   // After the stand-ins: the demo's photos are stored in the object-storage stand-in.
   const seeding = connectDatabase(database.url, { max: 1 });
   await applyMigrations(seeding.db);
-  const seedStorage = objectStorageFor(env);
+  const seedStorage = objectStorageFromEnv(env);
   await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage });
   seedStorage.close();
   await seeding.pool.end();

@@ -7,6 +7,7 @@ import {
   S3Client,
   S3ServiceException,
 } from '@aws-sdk/client-s3';
+import type { Env } from '../env';
 import { photoFormat } from './images';
 
 /** One client for the hosted bucket and the local stand-in; only the configuration differs. */
@@ -102,4 +103,16 @@ export function createObjectStorage(config: ObjectStorageConfig): ObjectStorage 
       client.destroy();
     },
   };
+}
+
+/** The app's bucket as the environment names it (the app's deps, `npm start`'s seeding, the e2e set-up). */
+export function objectStorageFromEnv(env: Env): ObjectStorage {
+  return createObjectStorage({
+    endpoint: env.S3_ENDPOINT,
+    region: env.S3_REGION,
+    bucket: env.S3_BUCKET,
+    accessKeyId: env.S3_ACCESS_KEY_ID,
+    secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+    forcePathStyle: true,
+  });
 }

@@ -27,6 +27,28 @@ export function photoItemOf(row: PhotoRow): PhotoItem {
   };
 }
 
+/**
+ * Re-encodes an image (dropping everything the camera wrote) and stores both sizes under new keys;
+ * returns the columns a photo row needs about them. Uploads and the demo scenario both use it.
+ */
+export async function storePhotoObjects(storage: ObjectStorage, bytes: Buffer, at: Date) {
+  const { main, thumbnail } = await processUpload(bytes);
+  const objectKey = newPhotoKey('main', at);
+  const thumbnailKey = newPhotoKey('thumbnail', at);
+  await Promise.all([
+    storage.put(objectKey, main.buffer, main.contentType),
+    storage.put(thumbnailKey, thumbnail.buffer, thumbnail.contentType),
+  ]);
+  return {
+    objectKey,
+    thumbnailKey,
+    contentType: main.contentType,
+    width: main.width,
+    height: main.height,
+    bytes: main.buffer.length,
+  };
+}
+
 export interface PhotoUpload {
   bytes: Buffer;
   livestockId?: string;
@@ -34,10 +56,7 @@ export interface PhotoUpload {
   cover: boolean;
 }
 
-/**
- * Re-encodes the upload (dropping everything the camera wrote), stores both sizes under keys
- * made here, then records it. The objects are written first so a row never points at nothing.
- */
+/** Stores the upload's objects, then records it: the objects come first so a row never points at nothing. */
 export async function uploadPhoto(
   deps: Pick<AppDeps, 'db' | 'storage' | 'clock'>,
   actor: Actor,
@@ -54,14 +73,7 @@ export async function uploadPhoto(
     if (!animal)
       throw invalidFields([{ path: 'body.livestockId', message: 'choose livestock in this tank' }]);
   }
-  const { main, thumbnail } = await processUpload(upload.bytes);
-  const now = clock();
-  const objectKey = newPhotoKey('main', now);
-  const thumbnailKey = newPhotoKey('thumbnail', now);
-  await Promise.all([
-    storage.put(objectKey, main.buffer, main.contentType),
-    storage.put(thumbnailKey, thumbnail.buffer, thumbnail.contentType),
-  ]);
+  const stored = await storePhotoObjects(storage, upload.bytes, clock());
   try {
     const row = await db.transaction(async (tx) => {
       const [created] = await tx
@@ -71,12 +83,7 @@ export async function uploadPhoto(
           tankId: tank.id,
           livestockId: upload.livestockId ?? null,
           subject: upload.livestockId ? 'livestock' : 'tank',
-          objectKey,
-          thumbnailKey,
-          contentType: main.contentType,
-          width: main.width,
-          height: main.height,
-          bytes: main.buffer.length,
+          ...stored,
           caption: upload.caption || null,
           uploadedBy: actor.id,
         })
@@ -88,7 +95,7 @@ export async function uploadPhoto(
     return photoItemOf(row);
   } catch (error) {
     // Nothing refers to the objects yet; leaving them would only fill the bucket.
-    await Promise.allSettled([storage.delete(objectKey), storage.delete(thumbnailKey)]);
+    await Promise.allSettled([storage.delete(stored.objectKey), storage.delete(stored.thumbnailKey)]);
     throw error;
   }
 }

@@ -18,6 +18,7 @@ import { freeAmmoniaThresholds } from './free-ammonia';
 import type { AlertKind, AlertSeverity } from './kinds';
 import type { LivestockConcern } from './livestock';
 import type { RateBreach } from './rate';
+import { formatDateTime } from '@shared/text/dates';
 
 export interface DescribeContext {
   readonly tankName: string;
@@ -91,18 +92,6 @@ const sourceWords: Readonly<Record<ReadingSource, string>> = {
   visit: 'at a visit',
 };
 
-export function formatTime(at: Date, timeZone = 'UTC'): string {
-  return new Intl.DateTimeFormat('en-GB', {
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-    hour: '2-digit',
-    minute: '2-digit',
-    hourCycle: 'h23',
-    timeZone,
-  }).format(at);
-}
-
 const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;
 
 /** "45 minutes", "3 hours", "9 days": rounded to the unit a person would use. */
@@ -119,7 +108,7 @@ function formatPer(ms: number): string {
 }
 
 export function describeAlert(facts: AlertFacts, context: DescribeContext): AlertDescription {
-  const { tankName, timeZone } = context;
+  const { tankName, timeZone = 'UTC' } = context;
   const show = (parameter: ParameterKey, value: number, trim = false): string =>
     formatValue(parameter, value, {
       ...(context.units?.[parameter] === undefined ? {} : { unit: context.units[parameter] }),
@@ -144,7 +133,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
       const { parameter, value, direction, severity, limit, action } = facts;
       const { label } = parameterCatalogue[parameter];
       const side = direction === 'high' ? 'above' : 'below';
-      const when = `Measured ${sourceWords[facts.source]} at ${formatTime(facts.measuredAt, timeZone)}.`;
+      const when = `Measured ${sourceWords[facts.source]} at ${formatDateTime(facts.measuredAt, timeZone)}.`;
       const reading = `${label} ${show(parameter, value)}`;
       const bound = `the ${severity} limit of ${show(parameter, limit, true)}`;
       if (action === 'resolve') {
@@ -192,7 +181,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         body:
           `${label} ${verb} by ${moved} in ${formatDuration(breach.elapsedMs)}, faster than the tank’s limit of ` +
           `${allowed} ${formatPer(rule.perMs)}. Now ${show(parameter, breach.to.value)} at ` +
-          `${formatTime(breach.to.measuredAt, timeZone)}.`,
+          `${formatDateTime(breach.to.measuredAt, timeZone)}.`,
         firstSteps: firstSteps(parameter, breach.direction === 'rising' ? 'high' : 'low', 'warning'),
       };
     }
@@ -203,7 +192,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         title: `No recent readings from ${facts.deviceName} in ${tankName}`,
         body:
           (facts.lastSeen
-            ? `${facts.deviceName} last sent a reading at ${formatTime(facts.lastSeen, timeZone)}, ` +
+            ? `${facts.deviceName} last sent a reading at ${formatDateTime(facts.lastSeen, timeZone)}, ` +
               `${formatDuration(facts.silentForMs)} ago.`
             : `${facts.deviceName} has sent no reading since it was added ${formatDuration(facts.silentForMs)} ago.`) +
           ' The tank may be fine, but nobody can see it until the device reports again.',
@@ -217,7 +206,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         facts.lastMeasuredAt === null
           ? `${label}: no test recorded yet; ${usual}.`
           : `${label} was last tested ${formatDuration(facts.now.getTime() - facts.lastMeasuredAt.getTime())} ago, ` +
-            `at ${formatTime(facts.lastMeasuredAt, timeZone)}; ${usual}.`;
+            `at ${formatDateTime(facts.lastMeasuredAt, timeZone)}; ${usual}.`;
       return {
         kind: 'test-overdue',
         severity: 'notice',
@@ -233,7 +222,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         kind: 'livestock',
         severity: 'warning',
         title: `${label} outside what some livestock tolerate in ${tankName}`,
-        body: `${lines} Measured at ${formatTime(facts.measuredAt, timeZone)}.`,
+        body: `${lines} Measured at ${formatDateTime(facts.measuredAt, timeZone)}.`,
         firstSteps: null,
       };
     }
@@ -247,7 +236,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
           `Total ammonia ${show('ammonia', facts.totalAmmonia)} at pH ${show('ph', facts.pH)} and ` +
           `${show('temperature', facts.tempC)} means about ${facts.freeAmmonia.toFixed(3)} mg/L of free ammonia (NH3), ` +
           `above the ${facts.severity} level of ${limit} mg/L (common practice). ` +
-          `Measured at ${formatTime(facts.measuredAt, timeZone)}.`,
+          `Measured at ${formatDateTime(facts.measuredAt, timeZone)}.`,
         firstSteps: firstSteps('ammonia', 'high', facts.severity),
       };
     }

@@ -6,7 +6,7 @@ import type { TestProject } from 'vitest/node';
 import webpush from 'web-push';
 import { connectDatabase } from '../../api/db/client';
 import { seedDemo } from '../../api/dev/seed/index';
-import { objectStorageFor } from '../../api/dev/seed/photos';
+import { objectStorageFromEnv } from '../../api/lib/object-storage';
 import { startStandIns } from '../../api/dev/stand-ins';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
@@ -53,7 +53,7 @@ export default async function setup(project: TestProject) {
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
-  const seedStorage = objectStorageFor(env);
+  const seedStorage = objectStorageFromEnv(env);
   await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage, raiseAlerts: false });
   seedStorage.close();
   await seeding.pool.end();

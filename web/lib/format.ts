@@ -1,10 +1,10 @@
 import { useEffect, useState } from 'react';
 import { volumeIn, volumeUnitLabels, type VolumeUnit } from '@shared/schemas/tanks';
+import { formatDate, formatDateTime } from '@shared/text/dates';
 
 /*
- * The one place that turns dates, times and numbers into text. Dates read the same everywhere in
- * the product ("1 Dec 2026", "1 Dec 2026, 18:27" on a 24-hour clock) whatever the browser's locale,
- * so a technician and an owner reading the same screen see the same words.
+ * The one place in the client that turns dates, times and numbers into text. Moments are written
+ * by shared/text/dates.ts, the same words the alerts and e-mails use.
  */
 
 const minute = 60_000;
@@ -13,16 +13,6 @@ const day = 24 * hour;
 
 const locale = 'en-GB';
 const relative = new Intl.RelativeTimeFormat(locale, { numeric: 'auto' });
-const dayFormat = new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric' });
-const dateTimeOptions: Intl.DateTimeFormatOptions = {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-  hourCycle: 'h23',
-};
-const dateTimeFormat = new Intl.DateTimeFormat(locale, dateTimeOptions);
 const numberFormats = new Map<number, Intl.NumberFormat>();
 
 /** "just now", "5 minutes ago", "yesterday", "3 days ago": what a person says, not a timestamp. */
@@ -34,21 +24,7 @@ export function relativeTime(iso: string | number, now = Date.now()): string {
   return relative.format(-Math.floor(elapsed / day), 'day');
 }
 
-/** "1 Dec 2026, 18:27" in the reader's time zone, or in `timeZone` (a tank's) when given. */
-export function formatDateTime(iso: string | number, timeZone?: string): string {
-  const format = timeZone
-    ? new Intl.DateTimeFormat(locale, { ...dateTimeOptions, timeZone })
-    : dateTimeFormat;
-  return format.format(new Date(iso));
-}
-
-/** "1 Dec 2026" for a moment, in the reader's time zone or `timeZone` (a tank's) when given. */
-export function formatDate(iso: string | number, timeZone?: string): string {
-  const format = timeZone
-    ? new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone })
-    : dayFormat;
-  return format.format(new Date(iso));
-}
+export { formatDate, formatDateTime };
 
 /** A calendar day ("2025-04-12") as people read it; no time zone can move a calendar day. */
 export function formatDay(isoDay: string | null): string {

@@ -1,24 +1,11 @@
 import { eq } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { Env } from '../../env';
-import { processUpload } from '../../lib/images';
-import { createObjectStorage, newPhotoKey, type ObjectStorage } from '../../lib/object-storage';
+import type { ObjectStorage } from '../../lib/object-storage';
 import type { Db } from '../../db/client';
 import { photos, tanks } from '../../db/schema/index';
+import { storePhotoObjects } from '../../services/photos';
 import { livestockPortraitSvg, tankSceneSvg } from './pictures';
 import { demoLivestock, demoTanks } from './scenario';
-
-/** The bucket the app uses, for seeding from outside the app (npm start, the e2e set-up). */
-export function objectStorageFor(env: Env): ObjectStorage {
-  return createObjectStorage({
-    endpoint: env.S3_ENDPOINT,
-    region: env.S3_REGION,
-    bucket: env.S3_BUCKET,
-    accessKeyId: env.S3_ACCESS_KEY_ID,
-    secretAccessKey: env.S3_SECRET_ACCESS_KEY,
-    forcePathStyle: true,
-  });
-}
 
 interface DemoPhoto {
   id: string;
@@ -30,15 +17,14 @@ interface DemoPhoto {
   cover: boolean;
 }
 
-async function stored(storage: ObjectStorage, key: string): Promise<boolean> {
+async function isStored(storage: ObjectStorage, key: string): Promise<boolean> {
   const object = await storage.get(key);
   object?.body.destroy();
   return object !== null;
 }
 
 /**
- * Draws each demo photo and stores it the way an upload is stored (re-encoded, keys made by
- * `newPhotoKey`). A photo already in the database and in storage is left alone, so a second
+ * Draws each demo photo and stores it the way an upload is stored (`storePhotoObjects`). A photo already in the database and in storage is left alone, so a second
  * seed renders nothing.
  */
 export async function seedDemoPhotos(
@@ -79,29 +65,20 @@ export async function seedDemoPhotos(
     const [existing] = await db.select().from(photos).where(eq(photos.id, photo.id));
     if (
       existing &&
-      (await stored(storage, existing.objectKey)) &&
-      (await stored(storage, existing.thumbnailKey))
+      (await isStored(storage, existing.objectKey)) &&
+      (await isStored(storage, existing.thumbnailKey))
     ) {
       continue;
     }
     const png = await sharp(Buffer.from(photo.svg())).png().toBuffer();
-    const { main, thumbnail } = await processUpload(png);
-    const objectKey = newPhotoKey('main');
-    const thumbnailKey = newPhotoKey('thumbnail');
-    await storage.put(objectKey, main.buffer, main.contentType);
-    await storage.put(thumbnailKey, thumbnail.buffer, thumbnail.contentType);
+    const stored = await storePhotoObjects(storage, png, new Date());
     const row = {
       id: photo.id,
       companyId: photo.companyId,
       tankId: photo.tankId,
       livestockId: photo.livestockId,
       subject: photo.livestockId ? ('livestock' as const) : ('tank' as const),
-      objectKey,
-      thumbnailKey,
-      contentType: main.contentType,
-      width: main.width,
-      height: main.height,
-      bytes: main.buffer.length,
+      ...stored,
       caption: photo.caption,
       uploadedBy: ids.uploadedBy,
     };

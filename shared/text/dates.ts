@@ -1,0 +1,38 @@
+/*
+ * How Brinewatch writes a moment, in the browser and in alerts and e-mails alike: "1 Dec 2026,
+ * 18:27" on a 24-hour clock, whatever the reader's locale, so an owner and a technician reading
+ * about the same reading see the same words.
+ */
+
+const locale = 'en-GB';
+const dateOptions: Intl.DateTimeFormatOptions = { day: 'numeric', month: 'short', year: 'numeric' };
+const dateTimeOptions: Intl.DateTimeFormatOptions = {
+  ...dateOptions,
+  hour: '2-digit',
+  minute: '2-digit',
+  hourCycle: 'h23',
+};
+const formats = new Map<string, Intl.DateTimeFormat>();
+
+function formatFor(kind: 'date' | 'date-time', timeZone: string | undefined): Intl.DateTimeFormat {
+  const key = `${kind}:${timeZone ?? ''}`;
+  let format = formats.get(key);
+  if (!format) {
+    format = new Intl.DateTimeFormat(locale, {
+      ...(kind === 'date' ? dateOptions : dateTimeOptions),
+      ...(timeZone ? { timeZone } : {}),
+    });
+    formats.set(key, format);
+  }
+  return format;
+}
+
+/** "1 Dec 2026, 18:27" in `timeZone` (a tank's, a person's), or the runtime's own zone. */
+export function formatDateTime(at: Date | string | number, timeZone?: string): string {
+  return formatFor('date-time', timeZone).format(new Date(at));
+}
+
+/** "1 Dec 2026" in `timeZone`, or the runtime's own zone. */
+export function formatDate(at: Date | string | number, timeZone?: string): string {
+  return formatFor('date', timeZone).format(new Date(at));
+}
