@@ -2,8 +2,6 @@ export * from './alerts';
 export * from './companies';
 export * from './equipment';
 export * from './invitations';
-export * from './livestock';
-export * from './photos';
 export * from './rate-limits';
 export * from './readings';
 export * from './sessions';
