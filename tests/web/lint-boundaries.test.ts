@@ -1,3 +1,5 @@
+import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
 import { ESLint } from 'eslint';
 import { describe, expect, it } from 'vitest';
 
@@ -61,5 +63,23 @@ describe('web feature boundaries', () => {
       'web/app/routes/boundary-probe.tsx',
     );
     expect(problems).toEqual([]);
+  });
+});
+
+describe('import cycles', () => {
+  it('refuses two modules that import each other', async () => {
+    // Cycles need real files on both sides, so two are written for the length of the test.
+    const folder = path.resolve('tests/cycle-probe');
+    mkdirSync(folder, { recursive: true });
+    try {
+      writeFileSync(path.join(folder, 'a.ts'), "import { b } from './b';\nexport const a = () => b;\n");
+      writeFileSync(path.join(folder, 'b.ts'), "import { a } from './a';\nexport const b = () => a;\n");
+      const [result] = await eslint.lintFiles([path.join(folder, 'a.ts')]);
+      const cycles = (result?.messages ?? []).filter((message) => message.ruleId === 'import-x/no-cycle');
+      expect(cycles).toHaveLength(1);
+      expect(cycles[0]?.severity).toBe(2);
+    } finally {
+      rmSync(folder, { recursive: true, force: true });
+    }
   });
 });
