@@ -1,3 +1,4 @@
+import type { Role } from '@shared/people/permissions';
 /**
  * The invented demo scenario's people. The identity-provider stand-in keeps them as its own
  * accounts (it knows nothing of the app's database); the seed links them to companies and tanks.
@@ -5,13 +6,11 @@
  */
 export const demoPassword = 'brine-demo-2026';
 
-export type DemoRole = 'owner' | 'technician' | 'admin';
-
 export interface DemoPerson {
   sub: string;
   email: string;
   name: string;
-  role: DemoRole;
+  role: Role;
   company: 'driftglass' | 'northpool';
 }
 

@@ -4,6 +4,7 @@ import { tankMembers, tanks, users } from '../db/schema/index';
 import { conflict, notFound } from '../lib/http-error';
 import type { ClientSummary, StaffMember } from '@shared/schemas/users';
 import type { Actor } from './actors';
+import type { StaffRole } from '@shared/people/permissions';
 
 export async function findUserByIdentity(db: Db, issuer: string, subject: string) {
   const [user] = await db
@@ -38,7 +39,7 @@ async function findCompanyUser(db: Db, actor: Actor, userId: string) {
   return user;
 }
 
-export async function changeStaffRole(db: Db, actor: Actor, userId: string, role: 'technician' | 'admin') {
+export async function changeStaffRole(db: Db, actor: Actor, userId: string, role: StaffRole) {
   const user = await findCompanyUser(db, actor, userId);
   if (user.role === 'owner') throw conflict('not_staff', 'Clients do not have a staff role.');
   if (user.id === actor.id) throw conflict('own_role', 'Ask another admin to change your own role.');

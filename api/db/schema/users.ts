@@ -1,8 +1,9 @@
 import { index, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { id, timestamps } from './columns';
 import { companies } from './companies';
+import { roles } from '@shared/people/permissions';
 
-export const userRole = pgEnum('user_role', ['owner', 'technician', 'admin']);
+export const userRole = pgEnum('user_role', roles);
 export const userStatus = pgEnum('user_status', ['active', 'deactivated']);
 
 export const users = pgTable(
