@@ -1,4 +1,5 @@
 import type { Role } from '@shared/people/permissions';
+
 /**
  * The invented demo scenario's people. The identity-provider stand-in keeps them as its own
  * accounts (it knows nothing of the app's database); the seed links them to companies and tanks.
