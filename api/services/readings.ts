@@ -18,7 +18,8 @@ import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import { readings, type tanks } from '../db/schema/index';
 import { badRequest, forbidden, type ErrorIssue } from '../lib/http-error';
-import { findTankFor, isStaff } from '../policy/index';
+import { roleCan } from '@shared/people/permissions';
+import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
 import { raiseAlertsFor } from './alerts';
 import { healthForTanks } from './tank-health';
@@ -148,8 +149,9 @@ export async function recordReadings(
   input: CreateReadingsInput,
 ): Promise<Reading[]> {
   const tank = await findTankFor(deps.db, actor, tankId, 'read');
-  const source: ManualSource = input.source ?? (isStaff(actor) ? 'visit' : 'home-test');
-  if (!isStaff(actor) && source !== 'home-test') {
+  const source: ManualSource =
+    input.source ?? (roleCan(actor.role, 'readings:record-visit') ? 'visit' : 'home-test');
+  if (!roleCan(actor.role, 'readings:record-visit') && source !== 'home-test') {
     throw forbidden('Owners record home tests; visit readings come from the company.');
   }
   return insertManual(
@@ -168,7 +170,7 @@ export async function importReadings(
   input: ImportReadingsInput,
 ): Promise<Reading[]> {
   const tank = await findTankFor(deps.db, actor, tankId, 'read');
-  const sourceIssues: ErrorIssue[] = isStaff(actor)
+  const sourceIssues: ErrorIssue[] = roleCan(actor.role, 'readings:record-visit')
     ? []
     : input.readings.flatMap((reading, index) =>
         reading.source === 'home-test'

@@ -24,6 +24,8 @@ export const permissions = {
   'readings:read': everyone,
   // Owners record home tests on their own tanks; the readings service checks the source.
   'readings:write': everyone,
+  // Readings taken at a service visit; owners record home tests only.
+  'readings:record-visit': staff,
   'limits:read': everyone,
   'limits:write': staff,
   'devices:manage': staff,

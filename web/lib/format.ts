@@ -13,7 +13,7 @@ const day = 24 * hour;
 
 const locale = 'en-GB';
 const relative = new Intl.RelativeTimeFormat(locale, { numeric: 'auto' });
-const numberFormats = new Map<number, Intl.NumberFormat>();
+const numberFormats = new Map<string, Intl.NumberFormat>();
 
 /** "just now", "5 minutes ago", "yesterday", "3 days ago": what a person says, not a timestamp. */
 export function relativeTime(iso: string | number, now = Date.now()): string {
@@ -55,15 +55,36 @@ export function instantFromLocalInput(value: string): string | null {
   return Number.isNaN(date.getTime()) ? null : date.toISOString();
 }
 
+/** The number formatter for `minimum`…`maximum` decimals, made once. */
+function numberFormat(minimum: number, maximum: number): Intl.NumberFormat {
+  const key = `${minimum}:${maximum}`;
+  let format = numberFormats.get(key);
+  if (!format) {
+    format = new Intl.NumberFormat(locale, {
+      minimumFractionDigits: minimum,
+      maximumFractionDigits: maximum,
+    });
+    numberFormats.set(key, format);
+  }
+  return format;
+}
+
+// Rounding can leave "-0" or "-0.00"; nothing is shown without a sign.
+const unsigned = (text: string) => (/^-[0.,]+$/.test(text) ? text.slice(1) : text);
+
 /** A number with up to `digits` decimals, trailing zeros dropped: 7.5, 1,200. */
 export function formatNumber(value: number, digits = 1): string {
-  let format = numberFormats.get(digits);
-  if (!format) {
-    format = new Intl.NumberFormat(locale, { maximumFractionDigits: digits });
-    numberFormats.set(digits, format);
-  }
-  const text = format.format(value);
-  return /^-[0.,]+$/.test(text) ? text.slice(1) : text;
+  return unsigned(numberFormat(0, digits).format(value));
+}
+
+/** A number with exactly `decimals` decimals, as a result is read: 1.0260, 1,023.34. */
+export function formatFixed(value: number, decimals: number): string {
+  return unsigned(numberFormat(decimals, decimals).format(value));
+}
+
+/** How many of something, grouped by thousands: 12,480. */
+export function formatCount(count: number): string {
+  return formatNumber(count, 0);
 }
 
 /** "300 L (79.3 US gal)": litres first, the way the company stores it, with gallons alongside. */

@@ -1,14 +1,14 @@
-import { useState } from 'react';
+import { z } from 'zod';
 import { convertAlkalinity, type AlkalinityUnit } from '@shared/chemistry/index';
-import { formatFixed } from '../utils/format-number';
+import { Form } from '../../../components/form';
+import { DecimalField, RadioGroupField } from '../../../components/form-fields';
+import { entry, problemsAt, resultIsLive, useCalculatorForm, type Outcome } from '../utils/calculator-form';
+import { formatFixed } from '../../../lib/format';
 import { attempt } from '../utils/range-message';
-import { readFields } from '../utils/read-fields';
-import { notReady, type ResultStatus } from '../utils/result-status';
 import { CalculatorCard } from './calculator-card';
-import { RadioGroup } from '../../../components/radio-group';
-import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
+import { UnitLabel, UnitSuffix } from './unit-label';
 
 const unitChoices = [
   { value: 'dKH', label: 'dKH' },
@@ -30,27 +30,23 @@ const shownAs: Record<AlkalinityUnit, { label: string; unit: string; decimals: n
 const dkhPerMeq = convertAlkalinity(1, 'meq/L', 'dKH');
 const caco3PerMeq = convertAlkalinity(1, 'meq/L', 'mg/L CaCO3');
 
-export function AlkalinityCalculator() {
-  const [value, setValue] = useState('8');
-  const [unit, setUnit] = useState<AlkalinityUnit>('dKH');
-
-  const read = readFields({ value: { raw: value, label: 'Alkalinity' } });
-  let status: ResultStatus = { kind: 'ready' };
-  let error: string | undefined;
-  let meq: number | undefined;
-  if (!read.ok) {
-    status = notReady(read.errors, read.missing);
-    error = read.errors.value;
-  } else {
-    const converted = attempt(() => convertAlkalinity(read.values.value, unit, 'meq/L'), {
+/** The reading in milliequivalents per litre, the unit every other one is worked out from. */
+const alkalinityForm = z
+  .object({ unit: z.enum(['dKH', 'meq/L', 'mg/L CaCO3'] satisfies AlkalinityUnit[]), value: entry })
+  .transform(({ unit, value }, context): Outcome<number> => {
+    if (value === undefined) return { status: { kind: 'missing', labels: ['Alkalinity'] } };
+    const converted = attempt(() => convertAlkalinity(value, unit, 'meq/L'), {
       value: { field: 'value', label: 'Alkalinity', unit: shownAs[unit].unit },
     });
-    if (converted.ok) meq = converted.value;
-    else {
-      error = converted.message;
-      status = notReady({ value: error }, []);
-    }
-  }
+    if (!converted.ok) return problemsAt(context, { value: converted.message });
+    return { status: { kind: 'ready' }, result: converted.value };
+  });
+type AlkalinityValues = z.input<typeof alkalinityForm>;
+
+export function AlkalinityCalculator() {
+  const { form, values, outcome } = useCalculatorForm(alkalinityForm, { unit: 'dKH', value: '8' });
+  const meq = outcome.result;
+  const unit = shownAs[values.unit].unit;
 
   return (
     <CalculatorCard
@@ -58,16 +54,16 @@ export function AlkalinityCalculator() {
       title="Alkalinity units"
       intro="Test kits and labs report alkalinity in different units. Enter one to see all three."
     >
-      <RadioGroup legend="Your reading is in" value={unit} onChange={setUnit} options={unitChoices} />
-      <NumberField
-        label="Alkalinity"
-        unit={shownAs[unit].unit}
-        value={value}
-        onChange={setValue}
-        error={error}
-      />
+      <Form form={form} onSubmit={resultIsLive} className="space-y-5">
+        <RadioGroupField<AlkalinityValues> name="unit" label="Your reading is in" options={unitChoices} />
+        <DecimalField<AlkalinityValues>
+          name="value"
+          label={<UnitLabel unit={unit}>Alkalinity</UnitLabel>}
+          suffix={<UnitSuffix unit={unit} />}
+        />
+      </Form>
       <ResultPanel
-        status={status}
+        status={outcome.status}
         source={
           <SourceNote>
             <p>German degree: 1 dKH = 10 mg/L of calcium oxide (CaO).</p>

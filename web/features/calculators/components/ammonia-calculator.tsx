@@ -1,16 +1,30 @@
-import { useState } from 'react';
+import { useEffect } from 'react';
+import { z } from 'zod';
 import { unionizedAmmonia, unionizedAmmoniaFraction } from '@shared/chemistry/index';
-import { formatFixed } from '../utils/format-number';
+import { Form } from '../../../components/form';
+import { DecimalField, RadioGroupField } from '../../../components/form-fields';
+import {
+  entry,
+  filledIn,
+  problemsAt,
+  resultIsLive,
+  useCalculatorForm,
+  type Outcome,
+} from '../utils/calculator-form';
+import { formatFixed } from '../../../lib/format';
 import { attempt, type ArgumentMap } from '../utils/range-message';
-import { readFields } from '../utils/read-fields';
-import { notReady, type ResultStatus } from '../utils/result-status';
-import { convertTemperatureText, fromCelsius, toCelsius, type TemperatureUnit } from '../utils/temperature';
-import { RadioGroup } from '../../../components/radio-group';
-import { temperatureUnits } from '../utils/temperature';
+import {
+  convertTemperatureText,
+  fromCelsius,
+  otherTemperatureUnit,
+  temperatureUnit,
+  temperatureUnits,
+  toCelsius,
+} from '../utils/temperature';
 import { CalculatorCard } from './calculator-card';
-import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
+import { UnitLabel, UnitSuffix } from './unit-label';
 
 type Field = 'total' | 'pH' | 'temperature' | 'salinity';
 type Danger = 'low' | 'watch' | 'harmful';
@@ -60,27 +74,24 @@ function DangerLevel({ nh3 }: { nh3: number }) {
   );
 }
 
-export function AmmoniaCalculator() {
-  const [total, setTotal] = useState('0.25');
-  const [pH, setPH] = useState('8.1');
-  const [unit, setUnit] = useState<TemperatureUnit>('°C');
-  const [temperature, setTemperature] = useState('25');
-  const [salinity, setSalinity] = useState('35');
+const labels: Record<Field, string> = {
+  total: 'Total ammonia',
+  pH: 'pH',
+  temperature: 'Water temperature',
+  salinity: 'Salinity',
+};
 
-  const read = readFields<Field>({
-    total: { raw: total, label: 'Total ammonia' },
-    pH: { raw: pH, label: 'pH' },
-    temperature: { raw: temperature, label: 'Water temperature' },
-    salinity: { raw: salinity, label: 'Salinity' },
-  });
+interface Toxicity {
+  nh3: number;
+  fraction: number;
+  seawater: boolean;
+}
 
-  let status: ResultStatus = { kind: 'ready' };
-  let errors: Partial<Record<Field, string>> = {};
-  let result: { nh3: number; fraction: number; seawater: boolean } | undefined;
-  if (!read.ok) {
-    errors = read.errors;
-    status = notReady(read.errors, read.missing);
-  } else {
+const ammoniaForm = z
+  .object({ total: entry, pH: entry, unit: temperatureUnit, temperature: entry, salinity: entry })
+  .transform(({ unit, ...entries }, context): Outcome<Toxicity> => {
+    const read = filledIn(entries, labels);
+    if (!read.ok) return { status: { kind: 'missing', labels: read.missing } };
     const { values } = read;
     const temperatureArg = {
       field: 'temperature',
@@ -103,17 +114,32 @@ export function AmmoniaCalculator() {
         seawater: values.salinity > 0,
       };
     }, args);
-    if (worked.ok) result = worked.value;
-    else if (worked.field) {
-      errors = { [worked.field]: worked.message };
-      status = notReady(errors, []);
-    } else status = { kind: 'problem', message: worked.message };
-  }
+    if (worked.ok) return { status: { kind: 'ready' }, result: worked.value };
+    if (worked.field) return problemsAt(context, { [worked.field]: worked.message });
+    return { status: { kind: 'problem', message: worked.message } };
+  });
+type AmmoniaValues = z.input<typeof ammoniaForm>;
 
-  const changeUnit = (next: TemperatureUnit) => {
-    setTemperature(convertTemperatureText(temperature, unit, next));
-    setUnit(next);
-  };
+export function AmmoniaCalculator() {
+  const { form, values, outcome } = useCalculatorForm(ammoniaForm, {
+    total: '0.25',
+    pH: '8.1',
+    unit: '°C',
+    temperature: '25',
+    salinity: '35',
+  });
+  const result = outcome.result;
+  const { unit } = values;
+
+  // The typed temperature stays the same physical value when the unit changes: 25 °C ↔ 77 °F.
+  useEffect(() => {
+    const { unsubscribe } = form.watch((changed, { name }) => {
+      if (name !== 'unit' || !changed.unit) return;
+      const from = otherTemperatureUnit(changed.unit);
+      form.setValue('temperature', convertTemperatureText(changed.temperature ?? '', from, changed.unit));
+    });
+    return unsubscribe;
+  }, [form]);
 
   return (
     <CalculatorCard
@@ -121,39 +147,36 @@ export function AmmoniaCalculator() {
       title="Toxic ammonia"
       intro="Test kits measure total ammonia. How much of it is the toxic, un-ionised form (NH₃) depends on pH, temperature and salinity."
     >
-      <NumberField
-        label="Total ammonia"
-        unit="mg/L"
-        unitSpoken="milligrams per litre"
-        value={total}
-        onChange={setTotal}
-        hint="As your test kit reports it (NH₃ + NH₄⁺). The result is on the same basis: if the kit reports ammonia as nitrogen, so is the result."
-        error={errors.total}
-      />
-      <NumberField
-        label="pH"
-        value={pH}
-        onChange={setPH}
-        hint="In seawater, use pH on the total scale — the scale the seawater equation was fitted on. A meter calibrated with ordinary buffers reads on a different scale."
-        error={errors.pH}
-      />
-      <RadioGroup legend="Temperatures in" value={unit} onChange={changeUnit} options={temperatureUnits} />
-      <NumberField
-        label="Water temperature"
-        unit={unit}
-        value={temperature}
-        onChange={setTemperature}
-        error={errors.temperature}
-      />
-      <NumberField
-        label="Salinity"
-        value={salinity}
-        onChange={setSalinity}
-        hint="Practical salinity; enter 0 for fresh water."
-        error={errors.salinity}
-      />
+      <Form form={form} onSubmit={resultIsLive} className="space-y-5">
+        <DecimalField<AmmoniaValues>
+          name="total"
+          label={
+            <UnitLabel unit="mg/L" spoken="milligrams per litre">
+              Total ammonia
+            </UnitLabel>
+          }
+          suffix={<UnitSuffix unit="mg/L" />}
+          hint="As your test kit reports it (NH₃ + NH₄⁺). The result is on the same basis: if the kit reports ammonia as nitrogen, so is the result."
+        />
+        <DecimalField<AmmoniaValues>
+          name="pH"
+          label="pH"
+          hint="In seawater, use pH on the total scale — the scale the seawater equation was fitted on. A meter calibrated with ordinary buffers reads on a different scale."
+        />
+        <RadioGroupField<AmmoniaValues> name="unit" label="Temperatures in" options={temperatureUnits} />
+        <DecimalField<AmmoniaValues>
+          name="temperature"
+          label={<UnitLabel unit={unit}>Water temperature</UnitLabel>}
+          suffix={<UnitSuffix unit={unit} />}
+        />
+        <DecimalField<AmmoniaValues>
+          name="salinity"
+          label="Salinity"
+          hint="Practical salinity; enter 0 for fresh water."
+        />
+      </Form>
       <ResultPanel
-        status={status}
+        status={outcome.status}
         source={
           <SourceNote>
             {result?.seawater !== true && <p>Fresh water: Emerson, Russo, Lund &amp; Thurston (1975).</p>}

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { z } from 'zod';
 import {
   commonPracticeMaxDailyRise,
   doseGrams,
@@ -8,20 +8,29 @@ import {
   type DoseRiseUnit,
   type DosingCompound,
 } from '@shared/chemistry/index';
-import { formatFixed, formatGrams, formatPlain } from '../utils/format-number';
+import { Form } from '../../../components/form';
+import { DecimalField, RadioGroupField, SelectField } from '../../../components/form-fields';
+import {
+  entry,
+  filledIn,
+  problemsAt,
+  resultIsLive,
+  useCalculatorForm,
+  type Outcome,
+} from '../utils/calculator-form';
+import { formatFixed } from '../../../lib/format';
+import { formatGrams, formatPlain } from '../utils/format-number';
 import { attempt } from '../utils/range-message';
-import { readFields } from '../utils/read-fields';
-import { notReady, type ResultStatus } from '../utils/result-status';
+import type { FieldErrors } from '../utils/result-status';
 import { CalculatorCard } from './calculator-card';
 import { ChemicalCaution } from './chemical-caution';
-import { RadioGroup } from '../../../components/radio-group';
-import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
-import { SelectField } from './select-field';
 import { SourceNote } from './source-note';
+import { UnitLabel, UnitSuffix } from './unit-label';
 
 type Field = 'display' | 'sump' | 'rise';
-type VolumeUnit = 'L' | 'US gal' | 'imp gal';
+const volumeUnit = z.enum(['L', 'US gal', 'imp gal']);
+type VolumeUnit = z.infer<typeof volumeUnit>;
 
 const compounds: Record<DosingCompound, { name: string; formula: string }> = {
   'sodium bicarbonate': { name: 'Sodium bicarbonate', formula: 'NaHCO₃' },
@@ -67,44 +76,56 @@ interface Dose {
   days: number;
 }
 
-export function DosingCalculator() {
-  const [compound, setCompound] = useState<DosingCompound>('sodium bicarbonate');
-  const [volumeUnit, setVolumeUnit] = useState<VolumeUnit>('L');
-  const [display, setDisplay] = useState('100');
-  const [sump, setSump] = useState('');
-  const [rise, setRise] = useState('1');
-
-  const dailyStep = commonPracticeMaxDailyRise[compound];
-  const raised = raises[dailyStep.unit];
-
-  const read = readFields<Field>({
-    display: { raw: display, label: 'Display tank volume' },
-    sump: { raw: sump, label: 'Sump volume', whenBlank: 0 },
-    rise: { raw: rise, label: 'Rise wanted' },
-  });
-  let status: ResultStatus = { kind: 'ready' };
-  let errors: Partial<Record<Field, string>> = {};
-  let dose: Dose | undefined;
-  if (!read.ok) {
-    errors = read.errors;
-    status = notReady(read.errors, read.missing);
-  } else {
+const dosingForm = z
+  .object({
+    compound: z.enum(dosingCompounds),
+    volumeUnit,
+    display: entry,
+    sump: entry,
+    rise: entry,
+  })
+  .transform(({ compound, volumeUnit: unit, display, sump = 0, rise }, context): Outcome<Dose> => {
+    const dailyStep = commonPracticeMaxDailyRise[compound];
+    const raised = raises[dailyStep.unit];
+    const read = filledIn<Field>(
+      { display, sump, rise },
+      { display: 'Display tank volume', sump: 'Sump volume', rise: 'Rise wanted' },
+    );
+    if (!read.ok) return { status: { kind: 'missing', labels: read.missing } };
     const { values } = read;
+    const errors: FieldErrors<Field> = {};
     for (const field of ['display', 'sump'] as const) {
       if (values[field] < 0) errors[field] = 'A volume can’t be below 0.';
     }
     const worked = attempt(
       () => {
-        const litres = toLitres(values.display, volumeUnit) + toLitres(values.sump, volumeUnit);
+        const litres = toLitres(values.display, unit) + toLitres(values.sump, unit);
         return { litres, grams: doseGrams(compound, litres, values.rise) };
       },
       { rise: { field: 'rise', label: 'Rise wanted', unit: raised.unit } },
     );
     if (!worked.ok && worked.field) errors[worked.field] = worked.message;
-    if (Object.keys(errors).length > 0) status = notReady(errors, []);
-    else if (!worked.ok) status = { kind: 'problem', message: worked.message };
-    else dose = { ...worked.value, days: Math.ceil(values.rise / dailyStep.rise) };
-  }
+    if (Object.keys(errors).length > 0) return problemsAt(context, errors);
+    if (!worked.ok) return { status: { kind: 'problem', message: worked.message } };
+    return {
+      status: { kind: 'ready' },
+      result: { ...worked.value, days: Math.ceil(values.rise / dailyStep.rise) },
+    };
+  });
+type DosingValues = z.input<typeof dosingForm>;
+
+export function DosingCalculator() {
+  const { form, values, outcome } = useCalculatorForm(dosingForm, {
+    compound: 'sodium bicarbonate',
+    volumeUnit: 'L',
+    display: '100',
+    sump: '',
+    rise: '1',
+  });
+  const { compound, volumeUnit } = values;
+  const dailyStep = commonPracticeMaxDailyRise[compound];
+  const raised = raises[dailyStep.unit];
+  const dose = outcome.result;
 
   return (
     <CalculatorCard
@@ -112,44 +133,48 @@ export function DosingCalculator() {
       title="Dosing"
       intro="How many grams of a dry compound raise the whole system’s water by the amount you want."
     >
-      <SelectField
-        label="Compound"
-        value={compound}
-        onChange={setCompound}
-        options={compoundOptions}
-        hint={`${compounds[compound].formula}, dry — raises ${raised.parameter}.`}
-      />
-      <RadioGroup legend="Volumes in" value={volumeUnit} onChange={setVolumeUnit} options={volumeChoices} />
-      <div className="grid gap-5 sm:grid-cols-2">
-        <NumberField
-          label="Display tank volume"
-          unit={volumeUnit}
-          unitSpoken={volumeSpoken[volumeUnit]}
-          value={display}
-          onChange={setDisplay}
-          hint="The water, not the glass size: less rock and sand."
-          error={errors.display}
+      <Form form={form} onSubmit={resultIsLive} className="space-y-5">
+        <SelectField<DosingValues>
+          name="compound"
+          label="Compound"
+          options={compoundOptions}
+          hint={`${compounds[compound].formula}, dry — raises ${raised.parameter}.`}
         />
-        <NumberField
-          label="Sump volume"
-          unit={volumeUnit}
-          unitSpoken={volumeSpoken[volumeUnit]}
-          value={sump}
-          onChange={setSump}
-          hint="Water in the sump when running. Leave blank if there is none."
-          error={errors.sump}
+        <RadioGroupField<DosingValues> name="volumeUnit" label="Volumes in" options={volumeChoices} />
+        <div className="grid gap-5 sm:grid-cols-2">
+          <DecimalField<DosingValues>
+            name="display"
+            label={
+              <UnitLabel unit={volumeUnit} spoken={volumeSpoken[volumeUnit]}>
+                Display tank volume
+              </UnitLabel>
+            }
+            suffix={<UnitSuffix unit={volumeUnit} />}
+            hint="The water, not the glass size: less rock and sand."
+          />
+          <DecimalField<DosingValues>
+            name="sump"
+            label={
+              <UnitLabel unit={volumeUnit} spoken={volumeSpoken[volumeUnit]}>
+                Sump volume
+              </UnitLabel>
+            }
+            suffix={<UnitSuffix unit={volumeUnit} />}
+            hint="Water in the sump when running. Leave blank if there is none."
+          />
+        </div>
+        <DecimalField<DosingValues>
+          name="rise"
+          label={
+            <UnitLabel unit={raised.unit} spoken={raised.unitSpoken}>
+              Rise in {raised.parameter} wanted
+            </UnitLabel>
+          }
+          suffix={<UnitSuffix unit={raised.unit} />}
         />
-      </div>
-      <NumberField
-        label={`Rise in ${raised.parameter} wanted`}
-        unit={raised.unit}
-        unitSpoken={raised.unitSpoken}
-        value={rise}
-        onChange={setRise}
-        error={errors.rise}
-      />
+      </Form>
       <ResultPanel
-        status={status}
+        status={outcome.status}
         source={
           <SourceNote>
             <p>

@@ -1,4 +1,5 @@
-import { useState } from 'react';
+import { useEffect } from 'react';
+import { z } from 'zod';
 import {
   celsiusFromFahrenheit,
   conductivityFromSalinity,
@@ -7,20 +8,38 @@ import {
   seawaterDensity,
   specificGravity,
 } from '@shared/chemistry/index';
-import { formatFixed, formatPlain } from '../utils/format-number';
+import { Form } from '../../../components/form';
+import { DecimalField, RadioGroupField } from '../../../components/form-fields';
+import {
+  entry,
+  filledIn,
+  problemsAt,
+  resultIsLive,
+  useCalculatorForm,
+  type Outcome,
+} from '../utils/calculator-form';
+import { formatFixed } from '../../../lib/format';
+import { formatPlain } from '../utils/format-number';
 import { attempt, type ArgumentMap, type Attempt } from '../utils/range-message';
-import { readFields, type FieldErrors, type FieldSpec } from '../utils/read-fields';
-import { hasErrors, notReady, type ResultStatus } from '../utils/result-status';
-import { convertTemperatureText, fromCelsius, toCelsius, type TemperatureUnit } from '../utils/temperature';
-import { temperatureUnits } from '../utils/temperature';
+import { hasErrors, type FieldErrors } from '../utils/result-status';
+import {
+  convertTemperatureText,
+  fromCelsius,
+  otherTemperatureUnit,
+  temperatureUnit,
+  temperatureUnits,
+  toCelsius,
+  type TemperatureUnit,
+} from '../utils/temperature';
 import { CalculatorCard } from './calculator-card';
-import { RadioGroup } from '../../../components/radio-group';
-import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultUnavailable, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
+import { UnitLabel, UnitSuffix } from './unit-label';
 
-type Measured = 'salinity' | 'specificGravity' | 'conductivity';
-type Reference = '25' | '20' | '60F' | '4' | 'other';
+const measured = z.enum(['salinity', 'specificGravity', 'conductivity']);
+type Measured = z.infer<typeof measured>;
+const reference = z.enum(['25', '20', '60F', '4', 'other']);
+type Reference = z.infer<typeof reference>;
 type Field = 'temperature' | 'otherReference' | Measured;
 
 const measuredChoices = [
@@ -53,10 +72,10 @@ const measuredLabels: Record<Measured, string> = {
 interface SalinityInputs {
   measured: Measured;
   unit: TemperatureUnit;
-  temperature: string;
   reference: Reference;
-  otherReference: string;
-  reading: string;
+  temperature: number | undefined;
+  otherReference: number | undefined;
+  reading: number | undefined;
 }
 
 interface SalinityResult {
@@ -69,22 +88,27 @@ interface SalinityResult {
   density: Attempt<number, Field>;
 }
 
-interface SalinityOutcome {
-  status: ResultStatus;
+/** Works out salinity from what was measured, with every other figure it gives, or the problems found. */
+function workOutSalinity(inputs: SalinityInputs): {
+  status: Outcome<SalinityResult>['status'];
   errors: FieldErrors<Field>;
   result?: SalinityResult;
-}
-
-function workOutSalinity(inputs: SalinityInputs): SalinityOutcome {
+} {
   const { measured, unit, reference } = inputs;
-  const spec: Partial<Record<Field, FieldSpec>> = {
-    [measured]: { raw: inputs.reading, label: measuredLabels[measured] },
-    temperature: { raw: inputs.temperature, label: 'Water temperature' },
+  const entries: Partial<Record<Field, number | undefined>> = {
+    [measured]: inputs.reading,
+    temperature: inputs.temperature,
   };
-  if (reference === 'other')
-    spec.otherReference = { raw: inputs.otherReference, label: 'Reference temperature' };
-  const read = readFields(spec as Record<Field, FieldSpec>);
-  if (!read.ok) return { status: notReady(read.errors, read.missing), errors: read.errors };
+  const labels: Partial<Record<Field, string>> = {
+    [measured]: measuredLabels[measured],
+    temperature: 'Water temperature',
+  };
+  if (reference === 'other') {
+    entries.otherReference = inputs.otherReference;
+    labels.otherReference = 'Reference temperature';
+  }
+  const read = filledIn(entries as Record<Field, number | undefined>, labels as Record<Field, string>);
+  if (!read.ok) return { status: { kind: 'missing', labels: read.missing }, errors: {} };
   const values = read.values;
 
   const inUnit = { unit, fromModule: (celsius: number) => fromCelsius(celsius, unit) };
@@ -111,7 +135,7 @@ function workOutSalinity(inputs: SalinityInputs): SalinityOutcome {
         })
       : ({ ok: true, value: referenceCelsius[reference] } as const);
   if (!referenceFromField.ok) errors.otherReference = referenceFromField.message;
-  if (!sample.ok || !referenceFromField.ok) return { status: notReady(errors, []), errors };
+  if (!sample.ok || !referenceFromField.ok) return { status: marked, errors };
   const sampleC = sample.value;
   const referenceC = referenceFromField.value;
 
@@ -136,7 +160,7 @@ function workOutSalinity(inputs: SalinityInputs): SalinityOutcome {
   if (!salinity.ok) {
     if (salinity.field) errors[salinity.field] = salinity.message;
     return {
-      status: salinity.field ? notReady(errors, []) : { kind: 'problem', message: salinity.message },
+      status: salinity.field ? marked : { kind: 'problem', message: salinity.message },
       errors,
     };
   }
@@ -158,37 +182,73 @@ function workOutSalinity(inputs: SalinityInputs): SalinityOutcome {
     density: attempt(() => seawaterDensity(s, sampleC), outputArgs),
   };
   if (!result.gravity.ok && result.gravity.field) errors[result.gravity.field] = result.gravity.message;
-  return { status: hasErrors(errors) ? notReady(errors, []) : { kind: 'ready' }, errors, result };
+  return { status: hasErrors(errors) ? marked : { kind: 'ready' }, errors, result };
 }
 
+const marked = { kind: 'problem', message: 'Check the entries marked above.' } as const;
+
+const salinityFields = z.object({
+  measured,
+  unit: temperatureUnit,
+  temperature: entry,
+  reference,
+  otherReference: entry,
+  salinity: entry,
+  specificGravity: entry,
+  conductivity: entry,
+});
+type SalinityValues = z.input<typeof salinityFields>;
+
+/** Only the entries on screen count: the readings of the other instruments and an unused reference are kept, not read. */
+const salinityForm = z
+  .preprocess(
+    (values: SalinityValues): SalinityValues => ({
+      ...values,
+      ...Object.fromEntries(
+        measured.options.filter((kind) => kind !== values.measured).map((kind) => [kind, '']),
+      ),
+      otherReference: values.reference === 'other' ? values.otherReference : '',
+    }),
+    salinityFields,
+  )
+  .transform((values, context): Outcome<SalinityResult> => {
+    const { status, errors, result } = workOutSalinity({
+      measured: values.measured,
+      unit: values.unit,
+      reference: values.reference,
+      temperature: values.temperature,
+      otherReference: values.otherReference,
+      reading: values[values.measured],
+    });
+    if (hasErrors(errors)) return problemsAt(context, errors);
+    return { status, result };
+  });
+
 export function SalinityCalculator() {
-  const [measured, setMeasured] = useState<Measured>('salinity');
-  const [unit, setUnit] = useState<TemperatureUnit>('°C');
-  const [temperature, setTemperature] = useState('25');
-  const [reference, setReference] = useState<Reference>('25');
-  const [otherReference, setOtherReference] = useState('');
-  const [readings, setReadings] = useState<Record<Measured, string>>({
+  const { form, values, outcome } = useCalculatorForm(salinityForm, {
+    measured: 'salinity',
+    unit: '°C',
+    temperature: '25',
+    reference: '25',
+    otherReference: '',
     salinity: '35',
     specificGravity: '1.026',
     conductivity: '53',
   });
+  const { measured: shown, unit, reference: chosenReference } = values;
+  const result = outcome.result;
 
-  const reading = readings[measured];
-  const { status, errors, result } = workOutSalinity({
-    measured,
-    unit,
-    temperature,
-    reference,
-    otherReference,
-    reading,
-  });
-
-  const changeUnit = (next: TemperatureUnit) => {
-    setTemperature(convertTemperatureText(temperature, unit, next));
-    setOtherReference(convertTemperatureText(otherReference, unit, next));
-    setUnit(next);
-  };
-  const setReading = (value: string) => setReadings({ ...readings, [measured]: value });
+  // Typed temperatures stay the same physical values when the unit changes: 25 °C ↔ 77 °F.
+  useEffect(() => {
+    const { unsubscribe } = form.watch((changed, { name }) => {
+      if (name !== 'unit' || !changed.unit) return;
+      const from = otherTemperatureUnit(changed.unit);
+      for (const field of ['temperature', 'otherReference'] as const) {
+        form.setValue(field, convertTemperatureText(changed[field] ?? '', from, changed.unit));
+      }
+    });
+    return unsubscribe;
+  }, [form]);
   const temperatureText = (celsius: number) => `${formatPlain(fromCelsius(celsius, unit), 2)} ${unit}`;
 
   return (
@@ -197,72 +257,65 @@ export function SalinityCalculator() {
       title="Salinity"
       intro="Enter what your instrument shows — salinity, specific gravity or conductivity — and see the others, with the water’s density."
     >
-      <RadioGroup
-        legend="What did you measure?"
-        value={measured}
-        onChange={setMeasured}
-        options={measuredChoices}
-      />
-      {measured === 'salinity' && (
-        <NumberField
-          label="Practical salinity"
-          value={reading}
-          onChange={setReading}
-          hint="Practical salinity has no unit; it is close to parts per thousand (ppt). Natural seawater is about 35."
-          error={errors.salinity}
+      <Form form={form} onSubmit={resultIsLive} className="space-y-5">
+        <RadioGroupField<SalinityValues>
+          name="measured"
+          label="What did you measure?"
+          options={measuredChoices}
         />
-      )}
-      {measured === 'specificGravity' && (
-        <NumberField
-          label="Specific gravity"
-          value={reading}
-          onChange={setReading}
-          hint="As the hydrometer or refractometer reads, e.g. 1.025."
-          error={errors.specificGravity}
+        {shown === 'salinity' && (
+          <DecimalField<SalinityValues>
+            name="salinity"
+            label="Practical salinity"
+            hint="Practical salinity has no unit; it is close to parts per thousand (ppt). Natural seawater is about 35."
+          />
+        )}
+        {shown === 'specificGravity' && (
+          <DecimalField<SalinityValues>
+            name="specificGravity"
+            label="Specific gravity"
+            hint="As the hydrometer or refractometer reads, e.g. 1.025."
+          />
+        )}
+        {shown === 'conductivity' && (
+          <DecimalField<SalinityValues>
+            name="conductivity"
+            label={
+              <UnitLabel unit="mS/cm" spoken="millisiemens per centimetre">
+                Conductivity
+              </UnitLabel>
+            }
+            suffix={<UnitSuffix unit="mS/cm" />}
+            hint="As the meter shows it. If the meter already corrects to 25 °C, enter 25 °C as the water temperature."
+          />
+        )}
+        <RadioGroupField<SalinityValues> name="unit" label="Temperatures in" options={temperatureUnits} />
+        <DecimalField<SalinityValues>
+          name="temperature"
+          label={<UnitLabel unit={unit}>Water temperature</UnitLabel>}
+          suffix={<UnitSuffix unit={unit} />}
+          hint={
+            shown === 'specificGravity'
+              ? 'The sample’s temperature when read. A refractometer that corrects for temperature itself usually reads as if at its reference temperature — check its manual and enter that.'
+              : 'The temperature of the water when you took the reading.'
+          }
         />
-      )}
-      {measured === 'conductivity' && (
-        <NumberField
-          label="Conductivity"
-          unit="mS/cm"
-          unitSpoken="millisiemens per centimetre"
-          value={reading}
-          onChange={setReading}
-          hint="As the meter shows it. If the meter already corrects to 25 °C, enter 25 °C as the water temperature."
-          error={errors.conductivity}
+        <RadioGroupField<SalinityValues>
+          name="reference"
+          label="Specific gravity reference temperature"
+          hint="Hydrometers and refractometers compare the sample with pure water at a stated temperature, printed on the instrument or in its manual."
+          options={referenceChoices}
         />
-      )}
-      <RadioGroup legend="Temperatures in" value={unit} onChange={changeUnit} options={temperatureUnits} />
-      <NumberField
-        label="Water temperature"
-        unit={unit}
-        value={temperature}
-        onChange={setTemperature}
-        hint={
-          measured === 'specificGravity'
-            ? 'The sample’s temperature when read. A refractometer that corrects for temperature itself usually reads as if at its reference temperature — check its manual and enter that.'
-            : 'The temperature of the water when you took the reading.'
-        }
-        error={errors.temperature}
-      />
-      <RadioGroup
-        legend="Specific gravity reference temperature"
-        hint="Hydrometers and refractometers compare the sample with pure water at a stated temperature, printed on the instrument or in its manual."
-        value={reference}
-        onChange={setReference}
-        options={referenceChoices}
-      />
-      {reference === 'other' && (
-        <NumberField
-          label="Reference temperature"
-          unit={unit}
-          value={otherReference}
-          onChange={setOtherReference}
-          error={errors.otherReference}
-        />
-      )}
+        {chosenReference === 'other' && (
+          <DecimalField<SalinityValues>
+            name="otherReference"
+            label={<UnitLabel unit={unit}>Reference temperature</UnitLabel>}
+            suffix={<UnitSuffix unit={unit} />}
+          />
+        )}
+      </Form>
       <ResultPanel
-        status={status}
+        status={outcome.status}
         source={
           <SourceNote>
             <p>

@@ -1,17 +1,26 @@
-import { useState } from 'react';
+import { z } from 'zod';
 import {
   concentrationAfterWaterChanges,
   waterChangeFractionFor,
   waterChangesNeeded,
 } from '@shared/chemistry/index';
-import { formatFixed, formatPlain } from '../utils/format-number';
+import { Form } from '../../../components/form';
+import { DecimalField } from '../../../components/form-fields';
+import {
+  entry,
+  filledIn,
+  problemsAt,
+  resultIsLive,
+  useCalculatorForm,
+  type Outcome,
+} from '../utils/calculator-form';
+import { formatFixed } from '../../../lib/format';
+import { formatPlain } from '../utils/format-number';
 import { attempt, type ArgumentMap } from '../utils/range-message';
-import { readFields } from '../utils/read-fields';
-import { notReady, type ResultStatus } from '../utils/result-status';
 import { CalculatorCard } from './calculator-card';
-import { NumberField } from './number-field';
 import { ResultList, ResultPanel, ResultValue } from './result-panel';
 import { SourceNote } from './source-note';
+import { UnitLabel, UnitSuffix } from './unit-label';
 
 type Field = 'current' | 'target' | 'replacement' | 'percent';
 
@@ -67,33 +76,32 @@ function planChanges(current: number, target: number, replacement: number, perce
   return { ok: true as const, value: plan };
 }
 
-export function WaterChangeCalculator() {
-  const [current, setCurrent] = useState('40');
-  const [target, setTarget] = useState('20');
-  const [replacement, setReplacement] = useState('0');
-  const [percent, setPercent] = useState('20');
-
-  const read = readFields<Field>({
-    current: { raw: current, label: 'Current reading' },
-    target: { raw: target, label: 'Target' },
-    replacement: { raw: replacement, label: 'New water’s reading' },
-    percent: { raw: percent, label: 'Change size' },
-  });
-  let status: ResultStatus = { kind: 'ready' };
-  let errors: Partial<Record<Field, string>> = {};
-  let plan: Plan | undefined;
-  if (!read.ok) {
-    errors = read.errors;
-    status = notReady(read.errors, read.missing);
-  } else {
+const waterChangeForm = z
+  .object({ current: entry, target: entry, replacement: entry, percent: entry })
+  .transform((entries, context): Outcome<Plan> => {
+    const read = filledIn<Field>(entries, {
+      current: 'Current reading',
+      target: 'Target',
+      replacement: 'New water’s reading',
+      percent: 'Change size',
+    });
+    if (!read.ok) return { status: { kind: 'missing', labels: read.missing } };
     const { values } = read;
     const worked = planChanges(values.current, values.target, values.replacement, values.percent);
-    if (worked.ok) plan = worked.value;
-    else if (worked.field) {
-      errors = { [worked.field]: worked.message };
-      status = notReady(errors, []);
-    } else status = { kind: 'problem', message: worked.message };
-  }
+    if (worked.ok) return { status: { kind: 'ready' }, result: worked.value };
+    if (worked.field) return problemsAt(context, { [worked.field]: worked.message });
+    return { status: { kind: 'problem', message: worked.message } };
+  });
+type WaterChangeValues = z.input<typeof waterChangeForm>;
+
+export function WaterChangeCalculator() {
+  const { form, outcome } = useCalculatorForm(waterChangeForm, {
+    current: '40',
+    target: '20',
+    replacement: '0',
+    percent: '20',
+  });
+  const plan = outcome.result;
 
   return (
     <CalculatorCard
@@ -101,28 +109,27 @@ export function WaterChangeCalculator() {
       title="Water change planner"
       intro="How many water changes bring a reading to your target — nitrate, phosphate, salinity or anything else a change dilutes. Use one unit for all three readings."
     >
-      <div className="grid gap-5 sm:grid-cols-2">
-        <NumberField label="Current reading" value={current} onChange={setCurrent} error={errors.current} />
-        <NumberField label="Target" value={target} onChange={setTarget} error={errors.target} />
-        <NumberField
+      <Form form={form} onSubmit={resultIsLive} className="grid gap-5 sm:grid-cols-2">
+        <DecimalField<WaterChangeValues> name="current" label="Current reading" />
+        <DecimalField<WaterChangeValues> name="target" label="Target" />
+        <DecimalField<WaterChangeValues>
+          name="replacement"
           label="New water’s reading"
-          value={replacement}
-          onChange={setReplacement}
           hint="The same reading in the water you add; 0 for most nutrients in purified water."
-          error={errors.replacement}
         />
-        <NumberField
-          label="Change size"
-          unit="%"
-          unitSpoken="percent of the tank"
-          value={percent}
-          onChange={setPercent}
+        <DecimalField<WaterChangeValues>
+          name="percent"
+          label={
+            <UnitLabel unit="%" spoken="percent of the tank">
+              Change size
+            </UnitLabel>
+          }
+          suffix={<UnitSuffix unit="%" />}
           hint="Share of the system’s water replaced each time."
-          error={errors.percent}
         />
-      </div>
+      </Form>
       <ResultPanel
-        status={status}
+        status={outcome.status}
         source={
           <SourceNote>
             <p>

@@ -1,25 +1,8 @@
-const formats = new Map<string, Intl.NumberFormat>();
-
-function format(minimumFractionDigits: number, maximumFractionDigits: number): Intl.NumberFormat {
-  const key = `${minimumFractionDigits}:${maximumFractionDigits}`;
-  let numberFormat = formats.get(key);
-  if (!numberFormat) {
-    numberFormat = new Intl.NumberFormat('en', { minimumFractionDigits, maximumFractionDigits });
-    formats.set(key, numberFormat);
-  }
-  return numberFormat;
-}
-
-/** A result with a fixed number of decimals, e.g. 1.0260; never "-0.00". */
-export function formatFixed(value: number, decimals: number): string {
-  const text = format(decimals, decimals).format(value);
-  return /^-[0.,]+$/.test(text) ? text.slice(1) : text;
-}
+import { formatFixed, formatNumber } from '../../../lib/format';
 
 /** A number inside a sentence: up to `decimals` decimals, trailing zeros dropped. */
 export function formatPlain(value: number, decimals = 4): string {
-  const text = format(0, decimals).format(value);
-  return /^-[0.,]+$/.test(text) ? text.slice(1) : text;
+  return formatNumber(value, decimals);
 }
 
 /** Grams read best with fewer decimals as they grow: 2.99 g, 29.9 g, 299 g. */

@@ -1,7 +1,13 @@
+import { z } from 'zod';
 import { celsiusFromFahrenheit, fahrenheitFromCelsius } from '@shared/chemistry/index';
 import { parseDecimal } from '../../../lib/decimal';
 
-export type TemperatureUnit = '°C' | '°F';
+/** The calculators' "Temperatures in" switch. */
+export const temperatureUnit = z.enum(['°C', '°F']);
+export type TemperatureUnit = z.infer<typeof temperatureUnit>;
+
+/** The unit the switch has just left, as it holds only two. */
+export const otherTemperatureUnit = (unit: TemperatureUnit): TemperatureUnit => (unit === '°C' ? '°F' : '°C');
 
 export function toCelsius(value: number, unit: TemperatureUnit): number {
   return unit === '°C' ? value : celsiusFromFahrenheit(value);

@@ -1,14 +1,23 @@
-import { useId, useState } from 'react';
+import { useEffect } from 'react';
+import { useFormContext, useWatch } from 'react-hook-form';
+import { z } from 'zod';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
+import { parameterLimits, type ParameterLimits } from '@shared/parameters/limits';
 import { formatValue } from '@shared/parameters/units';
 import { limitsFromComfort } from '@shared/readings/comfort-limits';
-import { tankRateRule, type ParameterLimitsView, type TankRateRule } from '@shared/schemas/limits';
-import { parameterLimits, type ParameterLimits } from '@shared/parameters/limits';
+import {
+  tankRateRule,
+  type ParameterLimitsView,
+  type TankLimitsView,
+  type TankRateRule,
+  type UpdateLimitsInput,
+} from '@shared/schemas/limits';
 import { Button } from '../../../components/button';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { DecimalField } from '../../../components/form-fields';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { ApiError } from '../../../lib/api-client';
-import { parseDecimal } from '../../../lib/decimal';
+import { decimalText } from '../../../lib/form-values';
 import { useLimits } from '../api/get-limits';
 import { useUpdateLimits } from '../api/update-limits';
 
@@ -21,72 +30,87 @@ const boundLabels: Record<Bound, string> = {
   critHigh: 'Critical above',
 };
 
-/** What is being edited for one parameter: four typed bounds, or "back to the template". */
-type Draft = { kind: 'bounds'; text: Record<Bound, string> } | { kind: 'template' };
-
 const rateFields = ['maxChange', 'perHours'] as const;
 type RateField = (typeof rateFields)[number];
 
-/** The fast-change rule being edited for one parameter: two typed numbers, or "back to the default". */
-type RateDraft = { kind: 'rule'; text: Record<RateField, string> } | { kind: 'default' };
-type RateResult = { rate: TankRateRule | null } | { errors: Partial<Record<RateField, string>> };
+const bound = decimalText(z.number().optional());
 
-const textOf = (limits: ParameterLimits | null): Record<Bound, string> => ({
-  critLow: limits?.critLow == null ? '' : String(limits.critLow),
-  warnLow: limits?.warnLow == null ? '' : String(limits.warnLow),
-  warnHigh: limits?.warnHigh == null ? '' : String(limits.warnHigh),
-  critHigh: limits?.critHigh == null ? '' : String(limits.critHigh),
+/** One parameter's four typed bounds, or "back to the template" (null), checked by the shared rule. */
+const limitsRow = z
+  .object({ useTemplate: z.boolean(), critLow: bound, warnLow: bound, warnHigh: bound, critHigh: bound })
+  .transform(({ useTemplate, critLow, warnLow, warnHigh, critHigh }) =>
+    useTemplate
+      ? null
+      : {
+          critLow: critLow ?? null,
+          warnLow: warnLow ?? null,
+          warnHigh: warnHigh ?? null,
+          critHigh: critHigh ?? null,
+        },
+  )
+  .pipe(parameterLimits.nullable());
+
+/** One parameter's fast-change rule: both numbers, or neither (the default, null). */
+const rateRow = z
+  .object({ useDefault: z.boolean(), maxChange: bound, perHours: bound })
+  .transform(({ useDefault, maxChange, perHours }, context) => {
+    if (useDefault || (maxChange === undefined && perHours === undefined)) return null;
+    if (maxChange === undefined || perHours === undefined) {
+      for (const [field, value] of [
+        ['maxChange', maxChange],
+        ['perHours', perHours],
+      ] as const) {
+        if (value === undefined) {
+          context.addIssue({
+            code: 'custom',
+            path: [field],
+            message: 'Enter both numbers, or use the default.',
+          });
+        }
+      }
+      return z.NEVER;
+    }
+    return { maxChange, perHours };
+  })
+  .pipe(tankRateRule.nullable());
+
+const limitsForm = z.object({
+  limits: z.partialRecord(z.string(), limitsRow),
+  rates: z.partialRecord(z.string(), rateRow),
+});
+type LimitsFormValues = z.input<typeof limitsForm>;
+type LimitsText = z.input<typeof limitsRow>;
+type RateText = z.input<typeof rateRow>;
+
+const text = (value: number | null | undefined) => (value == null ? '' : String(value));
+
+const limitsTextOf = (limits: ParameterLimits | null, useTemplate = false): LimitsText => ({
+  useTemplate,
+  critLow: text(limits?.critLow),
+  warnLow: text(limits?.warnLow),
+  warnHigh: text(limits?.warnHigh),
+  critHigh: text(limits?.critHigh),
 });
 
-function limitsFromText(
-  text: Record<Bound, string>,
-): { limits: ParameterLimits } | { errors: Partial<Record<Bound, string>> } {
-  const errors: Partial<Record<Bound, string>> = {};
-  const limits = { warnLow: null, warnHigh: null, critLow: null, critHigh: null } as ParameterLimits;
-  for (const bound of bounds) {
-    const parsed = parseDecimal(text[bound]);
-    if (parsed.state === 'invalid') errors[bound] = parsed.reason;
-    else limits[bound] = parsed.state === 'number' ? parsed.value : null;
-  }
-  if (Object.keys(errors).length > 0) return { errors };
-  const checked = parameterLimits.safeParse(limits);
-  if (!checked.success) {
-    for (const issue of checked.error.issues) errors[issue.path[0] as Bound] = issue.message;
-    return { errors };
-  }
-  return { limits };
-}
-
-const rateTextOf = (rule: TankRateRule | null): Record<RateField, string> => ({
-  maxChange: rule ? String(rule.maxChange) : '',
-  perHours: rule ? String(rule.perHours) : '',
+const rateTextOf = (rule: TankRateRule | null, useDefault = false): RateText => ({
+  useDefault,
+  maxChange: text(rule?.maxChange),
+  perHours: text(rule?.perHours),
 });
 
-/** Both numbers empty means the default rule; one alone is a rule half typed. */
-function rateFromText(text: Record<RateField, string>): RateResult {
-  const errors: Partial<Record<RateField, string>> = {};
-  const values: Partial<Record<RateField, number>> = {};
-  for (const field of rateFields) {
-    const parsed = parseDecimal(text[field]);
-    if (parsed.state === 'invalid') errors[field] = parsed.reason;
-    else if (parsed.state === 'number') values[field] = parsed.value;
-  }
-  if (Object.keys(errors).length > 0) return { errors };
-  if (values.maxChange === undefined && values.perHours === undefined) return { rate: null };
-  for (const field of rateFields) {
-    if (values[field] === undefined) errors[field] = 'Enter both numbers, or use the default.';
-  }
-  if (Object.keys(errors).length > 0) return { errors };
-  const checked = tankRateRule.safeParse(values);
-  if (!checked.success) {
-    for (const issue of checked.error.issues) errors[issue.path[0] as RateField] = issue.message;
-    return { errors };
-  }
-  return { rate: checked.data };
+/** The form as the saved limits stand: each parameter's own bounds and rule, or the defaults. */
+function savedValues(view: TankLimitsView): LimitsFormValues {
+  return {
+    limits: Object.fromEntries(view.parameters.map((p) => [p.parameter, limitsTextOf(p.limits)])),
+    rates: Object.fromEntries(view.parameters.map((p) => [p.parameter, rateTextOf(p.rate ?? p.defaultRate)])),
+  };
 }
+
+const sameText = <T extends object>(a: T | undefined, b: T | undefined) =>
+  a !== undefined && b !== undefined && (Object.keys(a) as (keyof T)[]).every((key) => a[key] === b[key]);
 
 const sameLimits = (a: ParameterLimits | null, b: ParameterLimits | null): boolean =>
-  a !== null && b !== null && bounds.every((bound) => a[bound] === b[bound]);
+  a !== null && b !== null && bounds.every((key) => a[key] === b[key]);
 
 function amountOf(parameter: ParameterKey, amount: number): string {
   const { symbol } = parameterCatalogue[parameter];
@@ -106,94 +130,42 @@ function range(parameter: ParameterKey, low: number | null, high: number | null)
 /** Staff set each parameter's warning and critical bands, with the template and the livestock's comfort range beside them. */
 export function LimitsEditor({ tankId }: { tankId: string }) {
   const limits = useLimits(tankId);
-  const update = useUpdateLimits(tankId);
-  const [drafts, setDrafts] = useState<Partial<Record<ParameterKey, Draft>>>({});
-  const [rateDrafts, setRateDrafts] = useState<Partial<Record<ParameterKey, RateDraft>>>({});
-  const [serverIssues, setServerIssues] = useState<Record<string, string>>({});
-  const [saved, setSaved] = useState(false);
-
   if (limits.isPending) return <LoadingState label="Loading limits…" />;
   if (limits.isError)
     return <ErrorState error={limits.error} what="the limits" onRetry={() => void limits.refetch()} />;
-  const view = limits.data;
+  return <LimitsForm tankId={tankId} view={limits.data} />;
+}
 
-  const changed = Object.entries(drafts) as [ParameterKey, Draft][];
-  const results = new Map(
-    changed.map(([parameter, draft]) => [
-      parameter,
-      draft.kind === 'bounds' ? limitsFromText(draft.text) : null,
-    ]),
-  );
-  const changedRates = Object.entries(rateDrafts) as [ParameterKey, RateDraft][];
-  const rateResults = new Map(
-    changedRates.map(([parameter, draft]) => [
-      parameter,
-      draft.kind === 'rule' ? rateFromText(draft.text) : { rate: null },
-    ]),
-  );
-  const invalid =
-    [...results.values()].some((result) => result !== null && 'errors' in result) ||
-    [...rateResults.values()].some((result) => 'errors' in result);
-  const changes = new Set([...changed, ...changedRates].map(([parameter]) => parameter)).size;
+function LimitsForm({ tankId, view }: { tankId: string; view: TankLimitsView }) {
+  const update = useUpdateLimits(tankId);
+  const saved = savedValues(view);
+  // The saved limits come back from the API after a save; the form then starts again from them.
+  const form = useZodForm(limitsForm, { mode: 'onChange', values: saved });
+  const values = useWatch({ control: form.control }) as LimitsFormValues;
+  const { errors } = form.formState;
 
-  const setDraft = (parameter: ParameterKey, draft: Draft | undefined) => {
-    setSaved(false);
-    setServerIssues({});
-    setDrafts((current) => {
-      const next = { ...current };
-      if (draft) next[parameter] = draft;
-      else delete next[parameter];
-      return next;
+  // Typing a bound after "Use template" edits the bounds instead; likewise for the default rule.
+  useEffect(() => {
+    const { unsubscribe } = form.watch((_, { name, type }) => {
+      const match = /^(limits|rates)\.(\w+)\.(\w+)$/.exec(name ?? '');
+      if (type !== 'change' || !match) return;
+      const [, group, parameter] = match;
+      if (group === 'limits') form.setValue(`limits.${parameter}.useTemplate`, false);
+      else form.setValue(`rates.${parameter}.useDefault`, false);
+      // A bound's problem may lie in another bound of the row (warning above critical), so all are checked.
+      void form.trigger(`${group === 'limits' ? 'limits' : 'rates'}.${parameter}`);
     });
-  };
+    return unsubscribe;
+  }, [form]);
 
-  const setRateDraft = (parameter: ParameterKey, draft: RateDraft | undefined) => {
-    setSaved(false);
-    setServerIssues({});
-    setRateDrafts((current) => {
-      const next = { ...current };
-      if (draft) next[parameter] = draft;
-      else delete next[parameter];
-      return next;
-    });
-  };
-
-  const undoAll = () => {
-    setDrafts({});
-    setRateDrafts({});
-  };
-
-  const save = () => {
-    if (invalid || changes === 0) return;
-    const limitsBody: Partial<Record<ParameterKey, ParameterLimits | null>> = {};
-    for (const [parameter, draft] of changed) {
-      const result = results.get(parameter);
-      limitsBody[parameter] =
-        draft.kind === 'template' ? null : result && 'limits' in result ? result.limits : null;
-    }
-    const ratesBody: Partial<Record<ParameterKey, TankRateRule | null>> = {};
-    for (const [parameter] of changedRates) {
-      const result = rateResults.get(parameter);
-      ratesBody[parameter] = result && 'rate' in result ? result.rate : null;
-    }
-    update.mutate(
-      { limits: limitsBody, rates: ratesBody },
-      {
-        onSuccess: () => {
-          undoAll();
-          setSaved(true);
-        },
-        onError: (error) => {
-          if (!(error instanceof ApiError)) return;
-          setServerIssues(
-            Object.fromEntries(
-              error.issues.map((issue) => [issue.path.replace(/^body\./, ''), issue.message]),
-            ),
-          );
-        },
-      },
-    );
-  };
+  const changedLimits = view.parameters
+    .map((p) => p.parameter)
+    .filter((parameter) => !sameText(values.limits?.[parameter], saved.limits[parameter]));
+  const changedRates = view.parameters
+    .map((p) => p.parameter)
+    .filter((parameter) => !sameText(values.rates?.[parameter], saved.rates[parameter]));
+  const changes = new Set([...changedLimits, ...changedRates]).size;
+  const invalid = errors.limits !== undefined || errors.rates !== undefined;
 
   return (
     <section aria-labelledby="limits-title" className="rounded-card bg-white p-4 shadow-card sm:p-6">
@@ -220,97 +192,83 @@ export function LimitsEditor({ tankId }: { tankId: string }) {
         </p>
       )}
 
-      <ul className="mt-4 space-y-3">
-        {view.parameters.map((p) => (
-          <LimitRow
-            key={p.parameter}
-            view={p}
-            draft={drafts[p.parameter]}
-            result={results.get(p.parameter)}
-            rateDraft={rateDrafts[p.parameter]}
-            rateResult={rateResults.get(p.parameter)}
-            serverIssues={serverIssues}
-            onDraft={(draft) => setDraft(p.parameter, draft)}
-            onRateDraft={(draft) => setRateDraft(p.parameter, draft)}
-          />
-        ))}
-      </ul>
+      <Form
+        form={form}
+        onSubmit={async (parsed) => {
+          const body: UpdateLimitsInput = {
+            limits: Object.fromEntries(changedLimits.map((p) => [p, parsed.limits[p] ?? null])),
+            rates: Object.fromEntries(changedRates.map((p) => [p, parsed.rates[p] ?? null])),
+          };
+          await update.mutateAsync(body);
+        }}
+      >
+        <ul className="mt-4 space-y-3">
+          {view.parameters.map((p) => (
+            <LimitRow
+              key={p.parameter}
+              view={p}
+              changed={changedLimits.includes(p.parameter)}
+              rateChanged={changedRates.includes(p.parameter)}
+              saved={saved}
+            />
+          ))}
+        </ul>
 
-      <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-ink-100 pt-4">
-        <Button onClick={save} disabled={changes === 0 || invalid || update.isPending}>
-          {update.isPending
-            ? 'Saving…'
-            : changes > 0
-              ? `Save ${changes} change${changes === 1 ? '' : 's'}`
-              : 'No changes'}
-        </Button>
-        {changes > 0 && (
-          <Button tone="secondary" onClick={undoAll}>
-            Undo changes
-          </Button>
-        )}
-        {invalid && <p className="font-bold text-alert-700">Fix the marked limits first.</p>}
-        {saved && (
-          <p role="status" className="font-bold text-healthy-700">
-            ✓ Limits saved.
-          </p>
-        )}
-        {update.isError && !(update.error instanceof ApiError && update.error.issues.length > 0) && (
-          <p role="alert" className="font-bold text-alert-700">
-            The limits could not be saved: {update.error.message}
-          </p>
-        )}
-      </div>
+        <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-ink-100 pt-4">
+          <SubmitButton pending="Saving…" disabled={changes === 0 || invalid}>
+            {changes > 0 ? `Save ${changes} change${changes === 1 ? '' : 's'}` : 'No changes'}
+          </SubmitButton>
+          {changes > 0 && (
+            <Button tone="secondary" onClick={() => form.reset(saved)}>
+              Undo changes
+            </Button>
+          )}
+          {invalid && <p className="font-bold text-alert-700">Fix the marked limits first.</p>}
+          {update.isSuccess && changes === 0 && (
+            <p role="status" className="font-bold text-healthy-700">
+              ✓ Limits saved.
+            </p>
+          )}
+          <FormProblem className="font-bold" />
+        </div>
+      </Form>
     </section>
   );
 }
 
 interface LimitRowProps {
   view: ParameterLimitsView;
-  draft: Draft | undefined;
-  result: ReturnType<typeof limitsFromText> | null | undefined;
-  rateDraft: RateDraft | undefined;
-  rateResult: RateResult | undefined;
-  serverIssues: Record<string, string>;
-  onDraft: (draft: Draft | undefined) => void;
-  onRateDraft: (draft: RateDraft | undefined) => void;
+  changed: boolean;
+  rateChanged: boolean;
+  saved: LimitsFormValues;
 }
 
-function LimitRow({
-  view,
-  draft,
-  result,
-  rateDraft,
-  rateResult,
-  serverIssues,
-  onDraft,
-  onRateDraft,
-}: LimitRowProps) {
-  const id = useId();
+function LimitRow({ view, changed, rateChanged, saved }: LimitRowProps) {
   const { parameter } = view;
   const info = parameterCatalogue[parameter];
-  const text =
-    draft?.kind === 'bounds' ? draft.text : textOf(draft?.kind === 'template' ? view.template : view.limits);
-  const errors = result && 'errors' in result ? result.errors : {};
+  const { setValue } = useFormContext<LimitsFormValues>();
+  const typed = useWatch<LimitsFormValues>({ name: `limits.${parameter}` }) as LimitsText | undefined;
+  const useTemplate = typed?.useTemplate === true;
   // A rate rule keeps the template's values on the tank, so "Use template" would change nothing.
   const likeTemplate = view.source === 'tank' && sameLimits(view.limits, view.template);
-  const source =
-    draft?.kind === 'template'
-      ? 'Back to the template when saved'
-      : draft
-        ? 'Changed, not saved yet'
-        : view.source === 'tank'
-          ? Object.values(view.limits ?? {}).every((v) => v === null)
-            ? 'Not watched on this tank'
-            : likeTemplate
-              ? "This tank's own limits, the same as the template"
-              : "This tank's own limits"
-          : view.source === 'template'
-            ? 'Template default (common practice)'
-            : 'No limits: not watched';
+  const source = useTemplate
+    ? 'Back to the template when saved'
+    : changed
+      ? 'Changed, not saved yet'
+      : view.source === 'tank'
+        ? Object.values(view.limits ?? {}).every((v) => v === null)
+          ? 'Not watched on this tank'
+          : likeTemplate
+            ? "This tank's own limits, the same as the template"
+            : "This tank's own limits"
+        : view.source === 'template'
+          ? 'Template default (common practice)'
+          : 'No limits: not watched';
+  const set = (next: LimitsText) =>
+    setValue(`limits.${parameter}`, next, { shouldDirty: true, shouldValidate: true });
   const current = (): ParameterLimits | null => {
-    if (result && 'limits' in result) return result.limits;
-    return view.limits;
+    const read = limitsRow.safeParse(typed);
+    return read.success && read.data ? read.data : view.limits;
   };
 
   return (
@@ -323,38 +281,14 @@ function LimitRow({
         <span className="text-sm text-ink-700">{source}</span>
       </div>
       <div className="mt-2 grid grid-cols-2 gap-2 sm:grid-cols-4">
-        {bounds.map((bound) => {
-          const inputId = `${id}-${bound}`;
-          const error = errors[bound] ?? serverIssues[`limits.${parameter}.${bound}`];
-          return (
-            <div key={bound}>
-              <label htmlFor={inputId} className="block text-xs font-bold text-ink-800">
-                {boundLabels[bound]}
-              </label>
-              <input
-                id={inputId}
-                type="text"
-                inputMode="decimal"
-                autoComplete="off"
-                value={text[bound]}
-                placeholder="none"
-                onChange={(event) =>
-                  onDraft({ kind: 'bounds', text: { ...text, [bound]: event.target.value } })
-                }
-                aria-invalid={error ? true : undefined}
-                aria-describedby={error ? `${inputId}-error` : undefined}
-                className={`mt-1 min-h-11 w-full rounded-lg border-2 bg-white px-2 text-base ${
-                  error ? 'border-alert-700' : 'border-ink-300 focus:border-ink-700'
-                }`}
-              />
-              {error && (
-                <p id={`${inputId}-error`} className="mt-1 text-xs font-bold text-alert-700">
-                  ! {error}
-                </p>
-              )}
-            </div>
-          );
-        })}
+        {bounds.map((key) => (
+          <DecimalField<LimitsFormValues>
+            key={key}
+            name={`limits.${parameter}.${key}`}
+            label={boundLabels[key]}
+            placeholder="none"
+          />
+        ))}
       </div>
       <div className="mt-2 grid gap-1 text-sm text-ink-700 sm:grid-cols-2">
         <p>
@@ -380,32 +314,24 @@ function LimitRow({
           <p>No comfort range from the livestock.</p>
         )}
       </div>
-      <RateRuleFields
-        view={view}
-        draft={rateDraft}
-        result={rateResult}
-        serverIssues={serverIssues}
-        onDraft={onRateDraft}
-      />
+      <RateRuleFields view={view} changed={rateChanged} saved={saved} />
       <div className="mt-2 flex flex-wrap gap-2">
         {view.comfort && (
           <Button
             tone="secondary"
             className="text-sm"
-            onClick={() =>
-              onDraft({ kind: 'bounds', text: textOf(limitsFromComfort(current(), view.comfort!)) })
-            }
+            onClick={() => set(limitsTextOf(limitsFromComfort(current(), view.comfort!)))}
           >
             Use comfort range<span className="sr-only"> for {info.label}</span>
           </Button>
         )}
-        {view.template && view.source === 'tank' && !likeTemplate && draft?.kind !== 'template' && (
-          <Button tone="secondary" className="text-sm" onClick={() => onDraft({ kind: 'template' })}>
+        {view.template && view.source === 'tank' && !likeTemplate && !useTemplate && (
+          <Button tone="secondary" className="text-sm" onClick={() => set(limitsTextOf(view.template, true))}>
             Use template<span className="sr-only"> for {info.label}</span>
           </Button>
         )}
-        {draft && (
-          <Button tone="secondary" className="text-sm" onClick={() => onDraft(undefined)}>
+        {changed && (
+          <Button tone="secondary" className="text-sm" onClick={() => set(saved.limits[parameter]!)}>
             Undo<span className="sr-only"> {info.label}</span>
           </Button>
         )}
@@ -414,40 +340,37 @@ function LimitRow({
   );
 }
 
-interface RateRuleFieldsProps {
-  view: ParameterLimitsView;
-  draft: RateDraft | undefined;
-  result: RateResult | undefined;
-  serverIssues: Record<string, string>;
-  onDraft: (draft: RateDraft | undefined) => void;
-}
-
 /** "Alert on fast change: more than [x] [unit] within [y] hours", with the default beside it. */
-function RateRuleFields({ view, draft, result, serverIssues, onDraft }: RateRuleFieldsProps) {
-  const id = useId();
+function RateRuleFields({
+  view,
+  changed,
+  saved,
+}: {
+  view: ParameterLimitsView;
+  changed: boolean;
+  saved: LimitsFormValues;
+}) {
   const { parameter, rate, defaultRate } = view;
   const info = parameterCatalogue[parameter];
-  const text =
-    draft?.kind === 'rule'
-      ? draft.text
-      : rateTextOf(draft?.kind === 'default' ? defaultRate : (rate ?? defaultRate));
-  const errors = result && 'errors' in result ? result.errors : {};
-  const status =
-    draft?.kind === 'default'
-      ? 'Back to the default when saved'
-      : draft
-        ? 'Changed, not saved yet'
-        : rate
-          ? "This tank's own rule"
-          : defaultRate
-            ? 'Default (common practice)'
-            : 'No rule: not checked';
+  const { setValue } = useFormContext<LimitsFormValues>();
+  const typed = useWatch<LimitsFormValues>({ name: `rates.${parameter}` }) as RateText | undefined;
+  const useDefault = typed?.useDefault === true;
+  const status = useDefault
+    ? 'Back to the default when saved'
+    : changed
+      ? 'Changed, not saved yet'
+      : rate
+        ? "This tank's own rule"
+        : defaultRate
+          ? 'Default (common practice)'
+          : 'No rule: not checked';
   const defaultText = defaultRate
     ? `more than ${amountOf(parameter, defaultRate.maxChange)} within ${hours(defaultRate.perHours)}`
     : 'none for this parameter';
   const labels: Record<RateField, string> = { maxChange: 'more than', perHours: 'within' };
   const after: Record<RateField, string> = { maxChange: info.symbol, perHours: 'hours' };
-  const issueFor = (field: RateField) => errors[field] ?? serverIssues[`rates.${parameter}.${field}`];
+  const set = (next: RateText) =>
+    setValue(`rates.${parameter}`, next, { shouldDirty: true, shouldValidate: true });
 
   return (
     <fieldset className="mt-3 border-t border-ink-100 pt-2">
@@ -457,57 +380,30 @@ function RateRuleFields({ view, draft, result, serverIssues, onDraft }: RateRule
         </span>
         <span className="text-ink-700">{status}</span>
       </legend>
-      <div className="mt-1 flex flex-wrap items-center gap-x-2 gap-y-1 text-sm text-ink-800">
-        {rateFields.map((field) => {
-          const inputId = `${id}-${field}`;
-          const error = issueFor(field);
-          return (
-            <span key={field} className="inline-flex items-center gap-2">
-              <label htmlFor={inputId}>{labels[field]}</label>
-              <input
-                id={inputId}
-                type="text"
-                inputMode="decimal"
-                autoComplete="off"
-                value={text[field]}
-                placeholder="none"
-                onChange={(event) =>
-                  onDraft({ kind: 'rule', text: { ...text, [field]: event.target.value } })
-                }
-                aria-invalid={error ? true : undefined}
-                aria-describedby={error ? `${inputId}-error` : undefined}
-                className={`min-h-11 w-20 rounded-lg border-2 bg-white px-2 text-base ${
-                  error ? 'border-alert-700' : 'border-ink-300 focus:border-ink-700'
-                }`}
-              />
-              {after[field] && <span>{after[field]}</span>}
-            </span>
-          );
-        })}
+      <div className="mt-1 grid grid-cols-2 gap-2 text-sm text-ink-800 sm:max-w-md">
+        {rateFields.map((field) => (
+          <DecimalField<LimitsFormValues>
+            key={field}
+            name={`rates.${parameter}.${field}`}
+            label={labels[field]}
+            placeholder="none"
+            suffix={after[field] || undefined}
+          />
+        ))}
       </div>
-      {rateFields.map((field) => {
-        const error = issueFor(field);
-        return (
-          error && (
-            <p key={field} id={`${id}-${field}-error`} className="mt-1 text-xs font-bold text-alert-700">
-              ! {error}
-            </p>
-          )
-        );
-      })}
       <div className="mt-1 flex flex-wrap items-center gap-2 text-sm text-ink-700">
         <p>Default (common practice): {defaultText}.</p>
-        {(rate !== null || draft?.kind === 'rule') && draft?.kind !== 'default' && (
+        {(rate !== null || changed) && !useDefault && (
           <Button
             tone="secondary"
             className="text-sm"
-            onClick={() => onDraft(rate ? { kind: 'default' } : undefined)}
+            onClick={() => set(rate ? rateTextOf(defaultRate, true) : saved.rates[parameter]!)}
           >
             Use default<span className="sr-only"> fast-change rule for {info.label}</span>
           </Button>
         )}
-        {draft && rate !== null && (
-          <Button tone="secondary" className="text-sm" onClick={() => onDraft(undefined)}>
+        {changed && rate !== null && (
+          <Button tone="secondary" className="text-sm" onClick={() => set(saved.rates[parameter]!)}>
             Undo<span className="sr-only"> fast-change rule for {info.label}</span>
           </Button>
         )}

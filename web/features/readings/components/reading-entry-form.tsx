@@ -1,62 +1,98 @@
-import { useId, useState, type FormEvent } from 'react';
+import { useEffect, useId, useState } from 'react';
+import { useFieldArray, useWatch } from 'react-hook-form';
+import { z } from 'zod';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
-import type { ParameterKey } from '@shared/parameters/keys';
+import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { checkStoredValue, formatValue } from '@shared/parameters/units';
+import { instrumentTempC } from '@shared/readings/entry';
+import { manualSource, type ManualSource } from '@shared/readings/sources';
 import { manualReadingInput, type ManualReadingInput } from '@shared/schemas/readings';
-import type { ManualSource } from '@shared/readings/sources';
 import { Button } from '../../../components/button';
-import { ApiError } from '../../../lib/api-client';
-import { parseDecimal } from '../../../lib/decimal';
+import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { DecimalField, RadioGroupField, SelectField, TextField } from '../../../components/form-fields';
+import { blankAsUndefined, decimalText } from '../../../lib/form-values';
+import { instantFromLocalInput, localInputValue } from '../../../lib/format';
 import { useCreateReadings } from '../api/create-readings';
 import { preferredUnit, rememberUnit, unitOptions } from '../utils/display-units';
-import { instantFromLocalInput, localInputValue } from '../../../lib/format';
-import { RadioGroup } from '../../../components/radio-group';
 
-interface Row {
-  key: number;
-  parameter: ParameterKey;
-  value: string;
-  unit: string;
-  sampleTempC: string;
-  referenceTempC: string;
-  /** Rows added by hand can be taken away again; the suggested ones stay. */
-  added: boolean;
-}
+const temperature = decimalText(instrumentTempC.optional());
 
-type RowCheck =
-  | { state: 'empty' }
-  | { state: 'error'; message: string; field: string }
-  | { state: 'ok'; reading: Omit<ManualReadingInput, 'measuredAt'>; shown: string };
-
-const fieldClass =
-  'min-h-12 w-full min-w-0 rounded-lg border-2 bg-white px-3 text-lg text-ink-950 focus:border-ink-700';
-
-/** Reads one row as it stands: nothing yet, a problem to show beside it, or a reading ready to send. */
-function checkRow(row: Row): RowCheck {
-  const value = parseDecimal(row.value);
-  if (value.state === 'empty') return { state: 'empty' };
-  if (value.state === 'invalid') return { state: 'error', message: value.reason, field: 'value' };
-  const reading: Omit<ManualReadingInput, 'measuredAt'> = {
-    parameter: row.parameter,
-    value: value.value,
-    unit: row.unit,
-  };
-  if (row.unit === 'specific gravity') {
-    for (const [field, text] of [
-      ['sampleTempC', row.sampleTempC],
-      ['referenceTempC', row.referenceTempC],
-    ] as const) {
-      const temperature = parseDecimal(text);
-      if (temperature.state !== 'number') {
-        return { state: 'error', message: 'enter the sample and reference temperatures in °C', field };
+/**
+ * One row as it stands: `null` when nothing was typed (not tested this time), else the reading to
+ * send with the value Brinewatch will store, or problems under the row's fields.
+ */
+const entryRow = z
+  .object({
+    parameter: parameterKey,
+    value: decimalText(z.number().optional()),
+    unit: z.string(),
+    sampleTempC: temperature,
+    referenceTempC: temperature,
+    /** Rows added by hand can be taken away again; the suggested ones stay. */
+    added: z.boolean(),
+  })
+  .transform(({ parameter, value, unit, sampleTempC, referenceTempC }, context) => {
+    if (value === undefined) return null;
+    const specificGravity = unit === 'specific gravity';
+    if (specificGravity && (sampleTempC === undefined || referenceTempC === undefined)) {
+      for (const [field, given] of [
+        ['sampleTempC', sampleTempC],
+        ['referenceTempC', referenceTempC],
+      ] as const) {
+        if (given === undefined) {
+          context.addIssue({
+            code: 'custom',
+            path: [field],
+            message: 'enter the sample and reference temperatures in °C',
+          });
+        }
       }
-      reading[field] = temperature.value;
+      return z.NEVER;
     }
-  }
-  const stored = checkStoredValue(row.parameter, value.value, row.unit, reading);
-  if (!stored.ok) return { state: 'error', message: stored.message, field: stored.field };
-  return { state: 'ok', reading, shown: formatValue(row.parameter, stored.value) };
-}
+    const reading: Omit<ManualReadingInput, 'measuredAt'> = specificGravity
+      ? { parameter, value, unit, sampleTempC, referenceTempC }
+      : { parameter, value, unit };
+    const stored = checkStoredValue(parameter, value, unit, reading);
+    if (!stored.ok) {
+      context.addIssue({ code: 'custom', path: [stored.field], message: stored.message });
+      return z.NEVER;
+    }
+    return { reading, shown: formatValue(parameter, stored.value) };
+  });
+type EntryRow = z.input<typeof entryRow>;
+
+const readingEntryForm = z
+  .object({
+    when: z.string().transform((text, context) => {
+      const instant = instantFromLocalInput(text);
+      if (instant) return instant;
+      context.addIssue({ code: 'custom', message: 'Enter the date and time the water was tested.' });
+      return z.NEVER;
+    }),
+    source: manualSource,
+    rows: z.array(entryRow),
+    /** The parameter chosen to add as another row; not part of the readings. */
+    adding: z.union([z.literal(''), parameterKey]),
+    method: blankAsUndefined(manualReadingInput.shape.method),
+    note: blankAsUndefined(manualReadingInput.shape.note),
+  })
+  .transform(({ when, source, rows, method, note }) => ({
+    source,
+    readings: rows.flatMap((row) => (row ? [{ ...row.reading, measuredAt: when, method, note }] : [])),
+  }));
+type ReadingEntryValues = z.input<typeof readingEntryForm>;
+
+const rowFields = ['value', 'unit', 'sampleTempC', 'referenceTempC'] as const;
+
+/** A row as the form starts it: the unit as the kit last read it, instruments at 25 °C. */
+const newRow = (parameter: ParameterKey, added = false): EntryRow => ({
+  parameter,
+  value: '',
+  unit: preferredUnit(parameter),
+  sampleTempC: '25',
+  referenceTempC: '25',
+  added,
+});
 
 interface ReadingEntryFormProps {
   tankId: string;
@@ -66,105 +102,80 @@ interface ReadingEntryFormProps {
   available: ParameterKey[];
 }
 
-let nextKey = 1;
-const newRow = (parameter: ParameterKey, added = false): Row => ({
-  key: nextKey++,
-  parameter,
-  value: '',
-  unit: preferredUnit(parameter),
-  sampleTempC: '25',
-  referenceTempC: '25',
-  added,
-});
-
 /**
  * A set of readings at once, as taken at the tank: big fields, the decimal keypad, the unit as
  * the kit reads it, and the value Brinewatch will store shown as you type.
  */
 export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available }: ReadingEntryFormProps) {
   const formId = useId();
-  const [rows, setRows] = useState<Row[]>(() => suggested.map((parameter) => newRow(parameter)));
-  const [when, setWhen] = useState(() => localInputValue(new Date()));
   // The picker offers nothing later than a few minutes from when the form opened (the server refuses later).
   const [latest] = useState(() => localInputValue(new Date(Date.now() + 5 * 60_000)));
-  const [source, setSource] = useState<ManualSource>(canRecordVisits ? 'visit' : 'home-test');
-  const [method, setMethod] = useState('');
-  const [note, setNote] = useState('');
-  const [adding, setAdding] = useState<ParameterKey | ''>('');
-  const [serverIssues, setServerIssues] = useState<Map<number, string>>(new Map());
-  const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState<number | null>(null);
   const create = useCreateReadings(tankId);
+  const form = useZodForm(readingEntryForm, {
+    mode: 'onChange',
+    defaultValues: {
+      when: localInputValue(new Date()),
+      source: canRecordVisits ? 'visit' : 'home-test',
+      rows: suggested.map((parameter) => newRow(parameter)),
+      adding: '',
+      method: '',
+      note: '',
+    },
+  });
+  const { fields, append, remove } = useFieldArray({ control: form.control, name: 'rows' });
+  const rows = useWatch({ control: form.control, name: 'rows' });
+  const adding = useWatch({ control: form.control, name: 'adding' });
+  const { errors, isDirty, submitCount } = form.formState;
 
-  const update = (key: number, change: Partial<Row>) => {
-    setSaved(null);
-    setServerIssues((issues) => {
-      if (!issues.has(key)) return issues;
-      const next = new Map(issues);
-      next.delete(key);
-      return next;
+  // The unit a kit reads in is remembered for next time; a new unit re-checks the row's other fields.
+  useEffect(() => {
+    const { unsubscribe } = form.watch((values, { name, type }) => {
+      const match = /^rows\.(\d+)\.unit$/.exec(name ?? '');
+      const row = match ? values.rows?.[Number(match[1])] : undefined;
+      if (type !== 'change' || !match || !row?.parameter || !row.unit) return;
+      rememberUnit(row.parameter, row.unit);
+      void form.trigger(`rows.${Number(match[1])}`);
     });
-    setRows((current) => current.map((row) => (row.key === key ? { ...row, ...change } : row)));
-  };
+    return unsubscribe;
+  }, [form]);
 
-  const checks = new Map(rows.map((row) => [row.key, checkRow(row)]));
-  const ready = rows.filter((row) => checks.get(row.key)?.state === 'ok');
-  const withErrors = rows.filter((row) => checks.get(row.key)?.state === 'error');
+  const checks = rows.map((row) => entryRow.safeParse(row));
+  const ready = checks.filter((check) => check.success && check.data !== null).length;
   const unused = available.filter((parameter) => !rows.some((row) => row.parameter === parameter));
 
-  const submit = (event: FormEvent) => {
-    event.preventDefault();
-    setFormError(null);
-    setSaved(null);
-    const measuredAt = instantFromLocalInput(when);
-    if (!measuredAt) return setFormError('Enter the date and time the water was tested.');
-    if (withErrors.length > 0) return setFormError('Some readings need attention before saving.');
-    if (ready.length === 0) return setFormError('Enter at least one reading.');
-    const readings = ready.map((row) => {
-      const check = checks.get(row.key) as Extract<RowCheck, { state: 'ok' }>;
-      return manualReadingInput.parse({
-        ...check.reading,
-        measuredAt,
-        ...(method.trim() ? { method: method.trim() } : {}),
-        ...(note.trim() ? { note: note.trim() } : {}),
-      });
-    });
-    create.mutate(
-      { readings, ...(canRecordVisits ? { source } : {}) },
-      {
-        onSuccess: (result) => {
-          setSaved(result.readings.length);
-          setRows((current) => current.filter((row) => !row.added).map((row) => ({ ...row, value: '' })));
-          setNote('');
-        },
-        onError: (error) => {
-          if (!(error instanceof ApiError))
-            return setFormError('The readings could not be saved. Please try again.');
-          const byRow = new Map<number, string>();
-          const general: string[] = [];
-          for (const issue of error.issues) {
-            const match = /^body\.readings\.(\d+)\.(\w+)/.exec(issue.path);
-            const row = match ? ready[Number(match[1])] : undefined;
-            if (row) byRow.set(row.key, issue.message);
-            else general.push(issue.message);
-          }
-          setServerIssues(byRow);
-          setFormError(
-            byRow.size > 0
-              ? 'Nothing was saved: fix the readings marked below.'
-              : `Nothing was saved: ${general.join('; ') || error.message}`,
-          );
-        },
-      },
-    );
+  /** The API numbers only the readings sent, the rows with a value; its issues go to those rows. */
+  const fieldFor = (path: string): string | null => {
+    const match = /^readings\.(\d+)\.?(\w*)/.exec(path);
+    if (!match) return path;
+    const sent = form.getValues('rows').flatMap((row, index) => (row.value.trim() === '' ? [] : [index]));
+    const index = sent[Number(match[1])];
+    const field = match[2] ?? '';
+    if (field === 'measuredAt') return 'when';
+    if (field === 'method' || field === 'note') return field;
+    if (index === undefined) return null;
+    return `rows.${index}.${(rowFields as readonly string[]).includes(field) ? field : 'value'}`;
   };
 
   return (
-    <form
-      onSubmit={submit}
-      noValidate
+    <Form
+      form={form}
+      fieldFor={fieldFor}
       aria-labelledby={`${formId}-title`}
       className="rounded-card bg-white p-4 shadow-card sm:p-6"
+      onSubmit={async ({ source, readings }) => {
+        if (readings.length === 0) {
+          form.setError('root', { message: 'Enter at least one reading.' });
+          return;
+        }
+        await create.mutateAsync({ readings, ...(canRecordVisits ? { source } : {}) });
+        const values = form.getValues();
+        form.reset({
+          ...values,
+          rows: values.rows.filter((row) => !row.added).map((row) => ({ ...row, value: '' })),
+          adding: '',
+          note: '',
+        });
+      }}
     >
       <h3 id={`${formId}-title`} className="text-xl font-bold text-ink-900">
         Add readings
@@ -175,34 +186,21 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
       </p>
 
       <div className="mt-4 grid gap-4 sm:grid-cols-2">
-        <div>
-          <label htmlFor={`${formId}-when`} className="mb-1 block font-bold text-ink-900">
-            Tested at
-          </label>
-          <div className="flex gap-2">
-            <input
-              id={`${formId}-when`}
-              type="datetime-local"
-              value={when}
-              max={latest}
-              onChange={(event) => setWhen(event.target.value)}
-              className={`${fieldClass} border-ink-300`}
-            />
-            <Button
-              tone="secondary"
-              onClick={() => setWhen(localInputValue(new Date()))}
-              className="min-h-12 shrink-0"
-            >
-              Now
-            </Button>
-          </div>
+        <div className="grid grid-cols-[minmax(0,1fr)_auto] items-start gap-2">
+          <TextField<ReadingEntryValues> name="when" label="Tested at" type="datetime-local" max={latest} />
+          <Button
+            tone="secondary"
+            onClick={() => form.setValue('when', localInputValue(new Date()), { shouldValidate: true })}
+            className="mt-7 min-h-12 shrink-0"
+          >
+            Now
+          </Button>
         </div>
         {canRecordVisits && (
-          <RadioGroup
+          <RadioGroupField<ReadingEntryValues, ManualSource>
+            name="source"
             look="compact"
-            legend="Recorded as"
-            value={source}
-            onChange={setSource}
+            label="Recorded as"
             options={[
               { value: 'visit', label: 'Visit' },
               { value: 'home-test', label: 'Home test' },
@@ -212,97 +210,43 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
       </div>
 
       <ul className="mt-5 grid gap-3 md:grid-cols-2 xl:grid-cols-3">
-        {rows.map((row) => {
-          const check = checks.get(row.key)!;
-          const label = parameterCatalogue[row.parameter].label;
-          const valueId = `${formId}-${row.key}-value`;
-          const unitId = `${formId}-${row.key}-unit`;
-          const messageId = `${formId}-${row.key}-message`;
-          const problem = serverIssues.get(row.key) ?? (check.state === 'error' ? check.message : null);
-          const units = unitOptions(row.parameter, true);
+        {fields.map((field, index) => {
+          const row = rows[index] ?? field;
+          const check = checks[index];
+          const label = parameterCatalogue[field.parameter].label;
+          const units = unitOptions(field.parameter, true);
+          const marked = errors.rows?.[index] !== undefined;
           return (
             <li
-              key={row.key}
+              key={field.id}
               className="rounded-lg border border-ink-100 bg-sand-50 p-3"
-              data-testid={`entry-${row.parameter}`}
+              data-testid={`entry-${field.parameter}`}
             >
-              <div className="flex items-center justify-between gap-2">
-                <label htmlFor={valueId} className="font-bold text-ink-900">
-                  {label}
-                </label>
-                {row.added && (
-                  <button
-                    type="button"
-                    onClick={() => setRows((current) => current.filter((r) => r.key !== row.key))}
-                    className="min-h-11 rounded-lg px-3 text-sm font-bold text-ink-700 underline hover:text-ink-950"
-                  >
-                    Remove<span className="sr-only"> {label}</span>
-                  </button>
-                )}
-              </div>
-              <div className="mt-2 grid grid-cols-[minmax(0,1fr)_auto] gap-2">
-                <input
-                  id={valueId}
-                  type="text"
-                  inputMode="decimal"
-                  autoComplete="off"
-                  spellCheck={false}
-                  value={row.value}
-                  onChange={(event) => update(row.key, { value: event.target.value })}
-                  aria-invalid={problem ? true : undefined}
-                  aria-describedby={messageId}
-                  className={`${fieldClass} ${problem ? 'border-alert-700' : 'border-ink-300'}`}
-                />
+              <div className="grid grid-cols-[minmax(0,1fr)_auto] items-start gap-2">
+                <DecimalField<ReadingEntryValues> name={`rows.${index}.value`} label={label} />
                 {units.length > 1 ? (
-                  <>
-                    <label htmlFor={unitId} className="sr-only">
-                      Unit for {label}
-                    </label>
-                    <select
-                      id={unitId}
-                      value={row.unit}
-                      onChange={(event) => {
-                        rememberUnit(row.parameter, event.target.value);
-                        update(row.key, { unit: event.target.value });
-                      }}
-                      className="min-h-12 w-32 rounded-lg border-2 border-ink-300 bg-white px-2 text-base font-bold text-ink-900 focus:border-ink-700"
-                    >
-                      {units.map((option) => (
-                        <option key={option.value} value={option.value}>
-                          {option.label}
-                        </option>
-                      ))}
-                    </select>
-                  </>
+                  <SelectField<ReadingEntryValues>
+                    name={`rows.${index}.unit`}
+                    label={<span className="sr-only">Unit for {label}</span>}
+                    options={units}
+                    className="mt-6 w-32"
+                  />
                 ) : (
-                  <span className="flex min-h-12 w-32 items-center justify-center rounded-lg border-2 border-ink-300 bg-ink-50 px-3 font-bold text-ink-700">
+                  <span className="mt-7 flex min-h-12 w-32 items-center justify-center rounded-lg border-2 border-ink-300 bg-ink-50 px-3 font-bold text-ink-700">
                     {units[0]?.label}
                   </span>
                 )}
               </div>
               {row.unit === 'specific gravity' && (
                 <div className="mt-2 grid grid-cols-2 gap-2">
-                  {(
-                    [
-                      ['sampleTempC', 'Water temperature when read, °C'],
-                      ['referenceTempC', 'Instrument reference, °C'],
-                    ] as const
-                  ).map(([field, text]) => (
-                    <div key={field}>
-                      <label htmlFor={`${valueId}-${field}`} className="block text-sm font-bold text-ink-900">
-                        {text}
-                      </label>
-                      <input
-                        id={`${valueId}-${field}`}
-                        type="text"
-                        inputMode="decimal"
-                        autoComplete="off"
-                        value={row[field]}
-                        onChange={(event) => update(row.key, { [field]: event.target.value })}
-                        className={`${fieldClass} mt-1 border-ink-300`}
-                      />
-                    </div>
-                  ))}
+                  <DecimalField<ReadingEntryValues>
+                    name={`rows.${index}.sampleTempC`}
+                    label="Water temperature when read, °C"
+                  />
+                  <DecimalField<ReadingEntryValues>
+                    name={`rows.${index}.referenceTempC`}
+                    label="Instrument reference, °C"
+                  />
                   <p className="col-span-2 text-xs text-ink-700">
                     The reference is printed on the hydrometer or in the refractometer&apos;s manual (often 25
                     °C, some 20 °C or 4 °C). Converted with EOS-80 seawater density (UNESCO Technical Paper
@@ -310,20 +254,24 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
                   </p>
                 </div>
               )}
-              <p id={messageId} className="mt-2 min-h-5 text-sm" aria-live="polite">
-                {problem ? (
-                  <span className="flex items-start gap-1.5 font-bold text-alert-700">
-                    <span aria-hidden="true">!</span>
-                    {problem}
-                  </span>
-                ) : check.state === 'ok' ? (
+              <p className="mt-2 min-h-5 text-sm" aria-live="polite">
+                {marked || !check?.success ? null : check.data ? (
                   <span className="text-ink-800">
-                    Saved as <strong>{check.shown}</strong>
+                    Saved as <strong>{check.data.shown}</strong>
                   </span>
                 ) : (
                   <span className="text-ink-600">Not tested this time</span>
                 )}
               </p>
+              {field.added && (
+                <button
+                  type="button"
+                  onClick={() => remove(index)}
+                  className="min-h-11 rounded-lg px-3 text-sm font-bold text-ink-700 underline hover:text-ink-950"
+                >
+                  Remove<span className="sr-only"> {label}</span>
+                </button>
+              )}
             </li>
           );
         })}
@@ -331,31 +279,26 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
 
       {unused.length > 0 && (
         <div className="mt-3 flex flex-wrap items-end gap-2">
-          <div className="min-w-48 flex-1">
-            <label htmlFor={`${formId}-add`} className="mb-1 block text-sm font-bold text-ink-900">
-              Another parameter
-            </label>
-            <select
-              id={`${formId}-add`}
-              value={adding}
-              onChange={(event) => setAdding(event.target.value as ParameterKey | '')}
-              className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base focus:border-ink-700"
-            >
-              <option value="">Choose…</option>
-              {unused.map((parameter) => (
-                <option key={parameter} value={parameter}>
-                  {parameterCatalogue[parameter].label}
-                </option>
-              ))}
-            </select>
-          </div>
+          <SelectField<ReadingEntryValues>
+            name="adding"
+            label="Another parameter"
+            className="min-w-48 flex-1"
+            options={[
+              { value: '', label: 'Choose…' },
+              ...unused.map((parameter) => ({
+                value: parameter,
+                label: parameterCatalogue[parameter].label,
+              })),
+            ]}
+          />
           <Button
             tone="secondary"
             disabled={!adding}
+            className="min-h-12"
             onClick={() => {
               if (!adding) return;
-              setRows((current) => [...current, newRow(adding, true)]);
-              setAdding('');
+              append(newRow(adding, true));
+              form.setValue('adding', '');
             }}
           >
             Add
@@ -364,48 +307,43 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
       )}
 
       <div className="mt-5 grid gap-4 sm:grid-cols-2">
-        <div>
-          <label htmlFor={`${formId}-method`} className="mb-1 block font-bold text-ink-900">
-            Method <span className="font-normal text-ink-700">(optional)</span>
-          </label>
-          <input
-            id={`${formId}-method`}
-            value={method}
-            maxLength={80}
-            onChange={(event) => setMethod(event.target.value)}
-            placeholder="e.g. test kit, refractometer"
-            className={`${fieldClass} border-ink-300 text-base`}
-          />
-        </div>
-        <div>
-          <label htmlFor={`${formId}-note`} className="mb-1 block font-bold text-ink-900">
-            Note <span className="font-normal text-ink-700">(optional)</span>
-          </label>
-          <input
-            id={`${formId}-note`}
-            value={note}
-            maxLength={1000}
-            onChange={(event) => setNote(event.target.value)}
-            className={`${fieldClass} border-ink-300 text-base`}
-          />
-        </div>
+        <TextField<ReadingEntryValues>
+          name="method"
+          label={
+            <>
+              Method <span className="font-normal text-ink-700">(optional)</span>
+            </>
+          }
+          maxLength={80}
+          placeholder="e.g. test kit, refractometer"
+        />
+        <TextField<ReadingEntryValues>
+          name="note"
+          label={
+            <>
+              Note <span className="font-normal text-ink-700">(optional)</span>
+            </>
+          }
+          maxLength={1000}
+        />
       </div>
 
       <div className="mt-5 flex flex-wrap items-center gap-3">
-        <Button type="submit" disabled={create.isPending} className="min-h-12 px-6 text-lg">
-          {create.isPending ? 'Saving…' : ready.length > 1 ? `Save ${ready.length} readings` : 'Save reading'}
-        </Button>
-        {formError && (
+        <SubmitButton pending="Saving…" className="min-h-12 px-6 text-lg">
+          {ready > 1 ? `Save ${ready} readings` : 'Save reading'}
+        </SubmitButton>
+        <FormProblem className="font-bold" />
+        {submitCount > 0 && errors.rows && (
           <p role="alert" className="font-bold text-alert-700">
-            {formError}
+            Some readings need attention before saving.
           </p>
         )}
-        {saved !== null && (
+        {create.isSuccess && !isDirty && (
           <p role="status" className="font-bold text-healthy-700">
-            ✓ Saved {saved} reading{saved === 1 ? '' : 's'}.
+            ✓ Saved {create.data.readings.length} reading{create.data.readings.length === 1 ? '' : 's'}.
           </p>
         )}
       </div>
-    </form>
+    </Form>
   );
 }

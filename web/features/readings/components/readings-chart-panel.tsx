@@ -1,18 +1,26 @@
-import { lazy, Suspense, useState } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
+import { z } from 'zod';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
-import type { ParameterKey } from '@shared/parameters/keys';
+import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { readingSourceLabels } from '@shared/readings/sources';
+import { Form, useZodForm } from '../../../components/form';
+import { SelectField } from '../../../components/form-fields';
+import { RadioGroup } from '../../../components/radio-group';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
+import { formatCount } from '../../../lib/format';
 import { useReadingHistory } from '../api/get-reading-history';
 import { chartRangeKeys, chartRanges, type ChartRange } from '../utils/chart-ranges';
 import { unitOptions } from '../utils/display-units';
 import { limitsSummary } from '../utils/limits-text';
 import { ReadingsTable } from './readings-table';
-import { RadioGroup } from '../../../components/radio-group';
 import { WindowStats } from './window-stats';
 
 // chart.js and its date adapter load only when a chart is first shown.
 const ReadingsChart = lazy(async () => ({ default: (await import('./readings-chart')).ReadingsChart }));
+
+/** What the chart shows; the tank's page holds the choice, as the latest-reading tiles choose too. */
+const chartChoice = z.object({ parameter: parameterKey, unit: z.string() });
+type ChartChoice = z.infer<typeof chartChoice>;
 
 interface ReadingsChartPanelProps {
   tankId: string;
@@ -30,6 +38,16 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
   const [range, setRange] = useState<ChartRange>('7d');
   const [view, setView] = useState<'chart' | 'table'>('chart');
   const history = useReadingHistory({ tankId, parameter, range });
+  const choice = useZodForm(chartChoice, { values: { parameter, unit } });
+  // A choice made here goes up to the page; a choice made there comes back through `values`.
+  useEffect(() => {
+    const { unsubscribe } = choice.watch((chosen, { name, type }) => {
+      if (type !== 'change') return;
+      if (name === 'parameter' && chosen.parameter) onParameterChange(chosen.parameter);
+      if (name === 'unit' && chosen.unit) onUnitChange(chosen.unit);
+    });
+    return unsubscribe;
+  }, [choice, onParameterChange, onUnitChange]);
   const label = parameterCatalogue[parameter].label;
   const units = unitOptions(parameter);
 
@@ -64,24 +82,17 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
         </div>
       ) : (
         <>
-          <div className="mt-4 grid gap-4 md:grid-cols-[minmax(0,14rem)_1fr_minmax(0,14rem)] md:items-end">
-            <div>
-              <label htmlFor="chart-parameter" className="mb-1 block text-sm font-bold text-ink-900">
-                Parameter
-              </label>
-              <select
-                id="chart-parameter"
-                value={parameter}
-                onChange={(event) => onParameterChange(event.target.value as ParameterKey)}
-                className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700"
-              >
-                {parameters.map((key) => (
-                  <option key={key} value={key}>
-                    {parameterCatalogue[key].label}
-                  </option>
-                ))}
-              </select>
-            </div>
+          <Form
+            form={choice}
+            // Each choice applies as it is made; there is nothing to send.
+            onSubmit={() => undefined}
+            className="mt-4 grid gap-4 md:grid-cols-[minmax(0,14rem)_1fr_minmax(0,14rem)] md:items-end"
+          >
+            <SelectField<ChartChoice>
+              name="parameter"
+              label="Parameter"
+              options={parameters.map((key) => ({ value: key, label: parameterCatalogue[key].label }))}
+            />
             <RadioGroup
               look="compact"
               legend="Period"
@@ -90,27 +101,11 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
               options={chartRangeKeys.map((key) => ({ value: key, label: chartRanges[key].label }))}
             />
             {units.length > 1 ? (
-              <div>
-                <label htmlFor="chart-unit" className="mb-1 block text-sm font-bold text-ink-900">
-                  Unit
-                </label>
-                <select
-                  id="chart-unit"
-                  value={unit}
-                  onChange={(event) => onUnitChange(event.target.value)}
-                  className="min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700"
-                >
-                  {units.map((option) => (
-                    <option key={option.value} value={option.value}>
-                      {option.label}
-                    </option>
-                  ))}
-                </select>
-              </div>
+              <SelectField<ChartChoice> name="unit" label="Unit" options={units} />
             ) : (
               <div aria-hidden="true" />
             )}
-          </div>
+          </Form>
 
           <div className="mt-5">
             {history.isPending ? (
@@ -132,8 +127,8 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
                   <figcaption className="mt-3 text-sm text-ink-700">
                     {label} over the {chartRanges[range].spoken}:{' '}
                     {history.data.mode === 'buckets'
-                      ? `${history.data.total.toLocaleString()} readings, summarised as the mean and range of each period.`
-                      : `${history.data.total.toLocaleString()} readings.`}{' '}
+                      ? `${formatCount(history.data.total)} readings, summarised as the mean and range of each period.`
+                      : `${formatCount(history.data.total)} readings.`}{' '}
                     Points mark {readingSourceLabels['home-test'].toLowerCase()}s (triangles) and{' '}
                     {readingSourceLabels.visit.toLowerCase()}s (diamonds).{' '}
                     {unit === 'specific gravity' &&

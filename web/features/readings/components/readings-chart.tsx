@@ -29,6 +29,7 @@ import type { ReadingHistory } from '@shared/schemas/readings';
 import type { Reading } from '@shared/readings/reading';
 import { readingSourceLabels } from '@shared/readings/sources';
 import { displayValue, formatIn, limitsIn } from '../utils/display-units';
+import { formatDateTime } from '../../../lib/format';
 
 ChartJS.register(
   LineController,
@@ -336,7 +337,7 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
           callbacks: {
             title: (items) => {
               const first = items[0];
-              return first ? new Date((first.raw as Point).x).toLocaleString() : '';
+              return first ? formatDateTime((first.raw as Point).x) : '';
             },
             label: (item: TooltipItem<'line'>) => {
               const point = item.raw as Point;

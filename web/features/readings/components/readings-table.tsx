@@ -1,9 +1,12 @@
-import { useState } from 'react';
+import { useWatch } from 'react-hook-form';
+import { z } from 'zod';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
-import type { ParameterKey } from '@shared/parameters/keys';
+import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { unitSymbol } from '@shared/parameters/units';
-import { readingSourceLabels, readingSources, type ReadingSource } from '@shared/readings/sources';
+import { readingSource, readingSourceLabels, readingSources } from '@shared/readings/sources';
 import { Button } from '../../../components/button';
+import { Form, useZodForm } from '../../../components/form';
+import { SelectField, TextField } from '../../../components/form-fields';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { exportReadingsUrl } from '../api/export-readings';
 import { useListReadings, type ReadingFilters } from '../api/list-readings';
@@ -19,12 +22,18 @@ interface ReadingsTableProps {
   defaultImportSource: 'visit' | 'home-test';
 }
 
-const fieldClass =
-  'min-h-11 w-full rounded-lg border-2 border-ink-300 bg-white px-3 text-base text-ink-950 focus:border-ink-700';
-
 /** Day boundaries of the date filters, in the person's own time zone. */
 const dayStart = (day: string) => (day ? new Date(`${day}T00:00:00`).toISOString() : undefined);
 const dayEnd = (day: string) => (day ? new Date(`${day}T23:59:59.999`).toISOString() : undefined);
+
+/** The filters as chosen; "" is "all" (or no bound), and each choice applies as it is made. */
+const readingFilters = z.object({
+  parameter: z.union([z.literal(''), parameterKey]),
+  source: z.union([z.literal(''), readingSource]),
+  fromDay: z.string(),
+  toDay: z.string(),
+});
+type ReadingFilterValues = z.infer<typeof readingFilters>;
 
 export function ReadingsTable({
   tankId,
@@ -33,10 +42,13 @@ export function ReadingsTable({
   canImport,
   defaultImportSource,
 }: ReadingsTableProps) {
-  const [parameter, setParameter] = useState<ParameterKey | ''>(initialParameter);
-  const [source, setSource] = useState<ReadingSource | ''>('');
-  const [fromDay, setFromDay] = useState('');
-  const [toDay, setToDay] = useState('');
+  const form = useZodForm(readingFilters, {
+    defaultValues: { parameter: initialParameter, source: '', fromDay: '', toDay: '' },
+  });
+  const [parameter, source, fromDay, toDay] = useWatch({
+    control: form.control,
+    name: ['parameter', 'source', 'fromDay', 'toDay'],
+  });
   const filters: ReadingFilters = {
     parameter: parameter || undefined,
     source: source || undefined,
@@ -48,72 +60,32 @@ export function ReadingsTable({
 
   return (
     <div className="space-y-4">
-      <form
+      <Form
+        form={form}
+        // Each filter applies as it is chosen; there is nothing to send.
+        onSubmit={() => undefined}
         className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4"
-        onSubmit={(event) => event.preventDefault()}
         aria-label="Filter readings"
       >
-        <div>
-          <label htmlFor="table-parameter" className="mb-1 block text-sm font-bold text-ink-900">
-            Parameter
-          </label>
-          <select
-            id="table-parameter"
-            value={parameter}
-            onChange={(e) => setParameter(e.target.value as ParameterKey | '')}
-            className={fieldClass}
-          >
-            <option value="">All parameters</option>
-            {parameters.map((key) => (
-              <option key={key} value={key}>
-                {parameterCatalogue[key].label}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="table-source" className="mb-1 block text-sm font-bold text-ink-900">
-            Source
-          </label>
-          <select
-            id="table-source"
-            value={source}
-            onChange={(e) => setSource(e.target.value as ReadingSource | '')}
-            className={fieldClass}
-          >
-            <option value="">All sources</option>
-            {readingSources.map((key) => (
-              <option key={key} value={key}>
-                {readingSourceLabels[key]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="table-from" className="mb-1 block text-sm font-bold text-ink-900">
-            From
-          </label>
-          <input
-            id="table-from"
-            type="date"
-            value={fromDay}
-            onChange={(e) => setFromDay(e.target.value)}
-            className={fieldClass}
-          />
-        </div>
-        <div>
-          <label htmlFor="table-to" className="mb-1 block text-sm font-bold text-ink-900">
-            To
-          </label>
-          <input
-            id="table-to"
-            type="date"
-            value={toDay}
-            onChange={(e) => setToDay(e.target.value)}
-            className={fieldClass}
-          />
-        </div>
-      </form>
+        <SelectField<ReadingFilterValues>
+          name="parameter"
+          label="Parameter"
+          options={[
+            { value: '', label: 'All parameters' },
+            ...parameters.map((key) => ({ value: key, label: parameterCatalogue[key].label })),
+          ]}
+        />
+        <SelectField<ReadingFilterValues>
+          name="source"
+          label="Source"
+          options={[
+            { value: '', label: 'All sources' },
+            ...readingSources.map((key) => ({ value: key, label: readingSourceLabels[key] })),
+          ]}
+        />
+        <TextField<ReadingFilterValues> name="fromDay" label="From" type="date" />
+        <TextField<ReadingFilterValues> name="toDay" label="To" type="date" />
+      </Form>
 
       <div className="flex flex-wrap gap-2">
         <a

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
-import { useMe } from '../../../lib/auth';
+import { can, useMe } from '../../../lib/auth';
 import { useLimits } from '../api/get-limits';
 import { useLatestReadings } from '../api/get-latest-readings';
 import { preferredUnit, rememberUnit } from '../utils/display-units';
@@ -24,8 +24,11 @@ const byCatalogue = (a: ParameterKey, b: ParameterKey) => parameterKeys.indexOf(
  */
 export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEdit: boolean }) {
   const me = useMe();
-  // Staff tools only for staff, whatever the page passes: the API would refuse an owner anyway.
-  const staff = canEdit && me.data != null && me.data.role !== 'owner';
+  // Staff tools only for those allowed them, whatever the page passes: the API would refuse anyone else.
+  const setsLimits = canEdit && can(me.data, 'limits:write');
+  const managesDevices = canEdit && can(me.data, 'devices:manage');
+  // Visit readings come from the company's staff, who are the ones who service (write) the tank.
+  const recordsVisits = canEdit && can(me.data, 'readings:record-visit');
   const latest = useLatestReadings(tankId);
   const limits = useLimits(tankId);
   const [selected, setSelected] = useState<ParameterKey | null>(null);
@@ -99,22 +102,22 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
           unit={unitOf(parameter)}
           onUnitChange={(unit) => chooseUnit(parameter, unit)}
           canImport
-          defaultImportSource={staff ? 'visit' : 'home-test'}
+          defaultImportSource={recordsVisits ? 'visit' : 'home-test'}
         />
       )}
 
       <ReadingEntryForm
-        key={`${staff}:${suggested.join(',')}`}
+        key={`${recordsVisits}:${suggested.join(',')}`}
         tankId={tankId}
-        canRecordVisits={staff}
+        canRecordVisits={recordsVisits}
         suggested={suggested.length > 0 ? suggested : ['temperature', 'ph']}
         available={chartable.length > 0 ? chartable : [...parameterKeys]}
       />
 
-      {staff && (
+      {(setsLimits || managesDevices) && (
         <div className="grid items-start gap-5 xl:grid-cols-[3fr_2fr]">
-          <LimitsEditor tankId={tankId} />
-          <DevicesPanel tankId={tankId} />
+          {setsLimits && <LimitsEditor tankId={tankId} />}
+          {managesDevices && <DevicesPanel tankId={tankId} />}
         </div>
       )}
     </section>

@@ -3,7 +3,7 @@ import { unitDecimals, unitSymbol } from '@shared/parameters/units';
 import { sampleOf, windowStats, type SeriesSample } from '@shared/readings/stats';
 import type { ReadingHistory } from '@shared/schemas/readings';
 import { displayValue, formatIn } from '../utils/display-units';
-import { formatDateTime } from '../../../lib/format';
+import { formatCount, formatDateTime } from '../../../lib/format';
 
 /** The window's samples in the display unit: each bucket, or each reading. */
 export function samplesOf(history: ReadingHistory, parameter: ParameterKey, unit: string): SeriesSample[] {
@@ -54,7 +54,7 @@ export function WindowStats({
       value: history.latest ? formatIn(parameter, history.latest.value, unit) : '—',
       hint: history.latest ? formatDateTime(history.latest.measuredAt) : undefined,
     },
-    { term: 'Mean', value: number(stats.mean), hint: `${stats.count.toLocaleString()} readings` },
+    { term: 'Mean', value: number(stats.mean), hint: `${formatCount(stats.count)} readings` },
     { term: 'Lowest', value: number(stats.min) },
     { term: 'Highest', value: number(stats.max) },
     {
