@@ -32,7 +32,11 @@ export function RoleBadge({ role }: { role: Role }) {
 }
 
 export function AccountStatusBadge({ status }: { status: 'active' | 'deactivated' }) {
-  return status === 'active' ? <ToneBadge tone="good">Active</ToneBadge> : <ToneBadge tone="off">Deactivated</ToneBadge>;
+  return status === 'active' ? (
+    <ToneBadge tone="good">Active</ToneBadge>
+  ) : (
+    <ToneBadge tone="off">Deactivated</ToneBadge>
+  );
 }
 
 const invitationStatus = {
