@@ -23,7 +23,12 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}'] },
+        test: {
+          name: 'unit',
+          include: ['tests/shared/**/*.test.ts', 'tests/web/**/*.test.{ts,tsx}'],
+          // The lint tests load ESLint with the import resolver: seconds on a quiet machine, more on CI.
+          testTimeout: 60_000,
+        },
       },
       {
         extends: true,
