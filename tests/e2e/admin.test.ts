@@ -193,7 +193,7 @@ describe('the admin screens', () => {
     await form.getByLabel('E-mail address').fill(clientInvitee);
     await form.getByRole('button', { name: 'Send invitation' }).click();
     await form.getByText('Choose a tank.').waitFor();
-    expect(await tank.evaluate((select) => select === document.activeElement)).toBe(true);
+    await expect.poll(() => tank.evaluate((select) => select === document.activeElement)).toBe(true);
 
     await tank.selectOption({ label: "Kids' river tank — Ashdown family home — playroom" });
     await form.getByRole('button', { name: 'Send invitation' }).click();
