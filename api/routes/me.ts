@@ -19,5 +19,9 @@ meRouter.get(
 meRouter.get(
   '/access',
   publicRoute,
-  openRoute({}, ({ actor, session }) => ({ signedIn: Boolean(actor), noAccess: session.noAccess ?? null })),
+  // A session ended on this request (deactivated, expired) is gone by now: nothing to tell.
+  openRoute({}, ({ actor, session }) => ({
+    signedIn: Boolean(actor),
+    noAccess: (session as typeof session | undefined)?.noAccess ?? null,
+  })),
 );

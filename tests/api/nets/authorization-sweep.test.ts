@@ -1,0 +1,244 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import {
+  createNetWorld,
+  principals,
+  registeredRoutes,
+  validRequests,
+  type NetWorld,
+  type Principal,
+} from './net-world';
+
+/**
+ * The authorization net (OWASP ASVS 5.0 V8, access control): every registered route, tried by
+ * every kind of caller, must answer exactly what this one table says. A route added without a
+ * row fails here, so its access rule is decided on purpose, not inherited by accident.
+ *
+ * Path parameters name tank A's objects (made by factories). A call that may use its object up
+ * (anything but GET) gets a new one, so callers do not depend on one another's order. Bodies are
+ * small valid ones (`validRequests`), so a status speaks of authorization, not validation. Any
+ * write answered 4xx must leave every table as it was.
+ *
+ * Special routes: `GET /api/events` streams for ever, so only its status is read before hanging
+ * up; `POST /auth/logout` ends the session it is called with, so signed-in callers use a second
+ * session of the same person (the deactivated admin's session is put back before every call anyway).
+ */
+
+type Row = Record<Principal, number>;
+type SignedInAnswers = Pick<Row, 'ownerA' | 'ownerB' | 'technician' | 'admin' | 'otherAdmin'>;
+
+/** A session route: nobody without a live session gets past the policy. */
+const signedIn = (answers: SignedInAnswers): Row => ({
+  anonymous: 401,
+  device: 401,
+  deactivated: 401,
+  ...answers,
+});
+
+/** Tank A's objects: its owner and company 1's staff see them; owner B and company 2 get 404. */
+const tankARead = signedIn({ ownerA: 200, ownerB: 404, technician: 200, admin: 200, otherAdmin: 404 });
+/** A staff-only change to tank A: owners are refused by role (403) before the object is looked up. */
+const tankAStaffWrite = (status: number) =>
+  signedIn({ ownerA: 403, ownerB: 403, technician: status, admin: status, otherAdmin: 404 });
+const everyoneSignedIn = (status: number) =>
+  signedIn({ ownerA: status, ownerB: status, technician: status, admin: status, otherAdmin: status });
+const staffOnly = (status: number) =>
+  signedIn({ ownerA: 403, ownerB: 403, technician: status, admin: status, otherAdmin: status });
+const adminsOnly = (status: number) =>
+  signedIn({ ownerA: 403, ownerB: 403, technician: 403, admin: status, otherAdmin: status });
+const public_ = (status: number): Row => Object.fromEntries(principals.map((who) => [who, status])) as Row;
+
+const expected: Record<string, Row> = {
+  'GET /api/health': public_(200),
+  'POST /api/ingest/readings': { ...public_(401), device: 200 },
+
+  'GET /api/me': everyoneSignedIn(200),
+  'GET /api/me/access': public_(200),
+
+  'GET /api/tanks': everyoneSignedIn(200),
+  'POST /api/tanks': staffOnly(201),
+  'GET /api/tanks/technicians': staffOnly(200),
+  'GET /api/tanks/:tankId': tankARead,
+  'PATCH /api/tanks/:tankId': tankAStaffWrite(200),
+  'GET /api/tanks/:tankId/comfort-range': tankARead,
+
+  'GET /api/tanks/:tankId/equipment': tankARead,
+  'POST /api/tanks/:tankId/equipment': tankAStaffWrite(201),
+  'GET /api/tanks/:tankId/equipment/:equipmentId': tankARead,
+  'PATCH /api/tanks/:tankId/equipment/:equipmentId': tankAStaffWrite(200),
+  'DELETE /api/tanks/:tankId/equipment/:equipmentId': tankAStaffWrite(204),
+
+  'GET /api/tanks/:tankId/livestock': tankARead,
+  'POST /api/tanks/:tankId/livestock': tankAStaffWrite(201),
+  'GET /api/tanks/:tankId/livestock/:livestockId': tankARead,
+  'PATCH /api/tanks/:tankId/livestock/:livestockId': tankAStaffWrite(200),
+  'DELETE /api/tanks/:tankId/livestock/:livestockId': tankAStaffWrite(204),
+
+  'GET /api/tanks/:tankId/photos': tankARead,
+  'POST /api/tanks/:tankId/photos': tankAStaffWrite(201),
+
+  'GET /api/tanks/:tankId/readings': tankARead,
+  // Owners record home tests on their own tanks.
+  'POST /api/tanks/:tankId/readings': signedIn({
+    ownerA: 201,
+    ownerB: 404,
+    technician: 201,
+    admin: 201,
+    otherAdmin: 404,
+  }),
+  'GET /api/tanks/:tankId/readings/latest': tankARead,
+  'GET /api/tanks/:tankId/readings/list': tankARead,
+  'GET /api/tanks/:tankId/readings/export': tankARead,
+  'POST /api/tanks/:tankId/readings/import': signedIn({
+    ownerA: 201,
+    ownerB: 404,
+    technician: 201,
+    admin: 201,
+    otherAdmin: 404,
+  }),
+
+  'GET /api/tanks/:tankId/limits': tankARead,
+  'PUT /api/tanks/:tankId/limits': tankAStaffWrite(200),
+
+  'GET /api/tanks/:tankId/devices': tankAStaffWrite(200),
+  'POST /api/tanks/:tankId/devices': tankAStaffWrite(201),
+  'DELETE /api/tanks/:tankId/devices/:deviceId': tankAStaffWrite(200),
+
+  'GET /api/photos/:photoId': tankARead,
+  'GET /api/photos/:photoId/thumbnail': tankARead,
+  'DELETE /api/photos/:photoId': tankAStaffWrite(204),
+
+  'GET /api/species': everyoneSignedIn(200),
+  'POST /api/species': staffOnly(201),
+  'GET /api/species/:speciesId': everyoneSignedIn(200),
+
+  'GET /api/staff': adminsOnly(200),
+  'PATCH /api/staff/:userId': signedIn({
+    ownerA: 403,
+    ownerB: 403,
+    technician: 403,
+    admin: 200,
+    otherAdmin: 404,
+  }),
+  'GET /api/clients': staffOnly(200),
+  'POST /api/users/:userId/deactivate': signedIn({
+    ownerA: 403,
+    ownerB: 403,
+    technician: 403,
+    admin: 200,
+    otherAdmin: 404,
+  }),
+  'POST /api/users/:userId/reactivate': signedIn({
+    ownerA: 403,
+    ownerB: 403,
+    technician: 403,
+    admin: 200,
+    otherAdmin: 404,
+  }),
+
+  'GET /api/invitations': adminsOnly(200),
+  'POST /api/invitations': adminsOnly(201),
+  'DELETE /api/invitations/:invitationId': signedIn({
+    ownerA: 403,
+    ownerB: 403,
+    technician: 403,
+    admin: 204,
+    otherAdmin: 404,
+  }),
+
+  'GET /api/alerts': everyoneSignedIn(200),
+  'GET /api/alerts/:alertId': tankARead,
+  'POST /api/alerts/:alertId/acknowledge': tankAStaffWrite(200),
+  'POST /api/alerts/:alertId/resolve': tankAStaffWrite(200),
+
+  'GET /api/notifications': everyoneSignedIn(200),
+  'POST /api/notifications/read': everyoneSignedIn(204),
+  'GET /api/notifications/preferences': everyoneSignedIn(200),
+  'PUT /api/notifications/preferences': everyoneSignedIn(200),
+
+  'GET /api/push/public-key': everyoneSignedIn(200),
+  'POST /api/push/subscriptions': everyoneSignedIn(201),
+  'DELETE /api/push/subscriptions': everyoneSignedIn(204),
+
+  'GET /api/events': everyoneSignedIn(200),
+
+  'GET /api/on-call': staffOnly(200),
+  // Company 1's technician is, to another company's admin, a field naming nobody: the same 400 as
+  // an id that does not exist, so it tells them nothing.
+  'POST /api/on-call': signedIn({ ownerA: 403, ownerB: 403, technician: 403, admin: 201, otherAdmin: 400 }),
+  'DELETE /api/on-call/:shiftId': signedIn({
+    ownerA: 403,
+    ownerB: 403,
+    technician: 403,
+    admin: 204,
+    otherAdmin: 404,
+  }),
+  'GET /api/deliveries/failed': staffOnly(200),
+
+  'GET /api/audit': adminsOnly(200),
+  'GET /api/audit/export': adminsOnly(200),
+
+  // Sign-in is a chain of redirects whoever starts it; a callback without a pending sign-in is refused.
+  'GET /auth/login': public_(303),
+  'GET /auth/callback': public_(303),
+  'POST /auth/logout': public_(200),
+  'GET /auth/invitation/:token': public_(303),
+};
+
+const streamingRoutes = new Set(['GET /api/events']);
+const sessionEndingRoutes = new Set(['POST /auth/logout']);
+
+const routes = registeredRoutes();
+
+describe('authorization sweep: every route × every caller', () => {
+  let world: NetWorld;
+
+  beforeAll(async () => {
+    world = await createNetWorld();
+  });
+  afterAll(() => world.close());
+
+  it('has a row in the expected-status table for every registered route, and none for a route that is gone', () => {
+    const registered = routes.map((route) => route.key);
+    const missing = registered.filter((key) => !(key in expected));
+    const stale = Object.keys(expected).filter((key) => !registered.includes(key));
+    expect(
+      missing,
+      `Routes registered without a row in the expected-status table of tests/api/nets/authorization-sweep.test.ts — add one (and a body in validRequests of net-world.ts if the route takes one): ${missing.join(', ')}`,
+    ).toEqual([]);
+    expect(stale, `Rows for routes no longer registered: ${stale.join(', ')}`).toEqual([]);
+  });
+
+  for (const route of routes) {
+    it(`${route.key} answers each caller as the table says; a refused write changes nothing`, async () => {
+      const row = expected[route.key];
+      if (!row) {
+        expect.fail(
+          `${route.key} is registered but has no row in the expected-status table of tests/api/nets/authorization-sweep.test.ts`,
+        );
+      }
+      const actual = {} as Row;
+      const serverErrors: string[] = [];
+      const writesOnRefusal: string[] = [];
+      const isWrite = route.method !== 'GET';
+      for (const who of principals) {
+        const path = await world.fillPath(route.path, isWrite ? 'fresh' : 'shared');
+        const request = validRequests[route.key]?.(world) ?? {};
+        const before = isWrite ? await world.fingerprint() : null;
+        const answer = await world.call(who, route.method, path, {
+          ...request,
+          stream: streamingRoutes.has(route.key),
+          throwawaySession: sessionEndingRoutes.has(route.key),
+        });
+        actual[who] = answer.status;
+        if (answer.status >= 500) serverErrors.push(`${who}: ${answer.status} ${answer.text.slice(0, 300)}`);
+        if (before && answer.status >= 400 && answer.status < 500) {
+          const changed = world.changedTables(before, await world.fingerprint());
+          if (changed.length > 0)
+            writesOnRefusal.push(`${who} (${answer.status}) changed ${changed.join(', ')}`);
+        }
+      }
+      expect(actual, serverErrors.join('\n')).toEqual(row);
+      expect(writesOnRefusal, 'a refused write must leave every table as it was').toEqual([]);
+    });
+  }
+});

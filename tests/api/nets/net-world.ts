@@ -1,0 +1,466 @@
+import { randomBytes } from 'node:crypto';
+import { eq } from 'drizzle-orm';
+import type { Router } from 'express';
+import { defaultNotificationPreferences } from '@shared/schemas/notifications';
+import { alerts, devices, invitations, onCallShifts, photos, users } from '../../../api/db/schema/index';
+import { hashToken } from '../../../api/lib/tokens';
+import type { PolicyMarked } from '../../../api/policy/index';
+import { authRouter } from '../../../api/routes/auth';
+import { apiRouters, sessionlessRouters } from '../../../api/routes/index';
+import { issueDeviceToken } from '../../../api/services/devices';
+import { storePhotoObjects } from '../../../api/services/photos';
+import {
+  addEquipmentTo,
+  addLivestockTo,
+  createCompany,
+  createPerson,
+  createTank,
+  insertReadings,
+  type TestPerson,
+} from '../../helpers/factories';
+import { HttpBrowser } from '../../helpers/http-browser';
+import { signIn, startTestStack, type TestStack } from '../../helpers/stack';
+import { makeImage } from '../photos/test-images';
+
+/**
+ * The world both permanent nets (authorization sweep, input fuzzer) run in: two companies, tank A
+ * and tank B in company 1 with one owner each, staff, another company's admin, a device of tank A
+ * and a deactivated admin, plus the objects of tank A that path parameters name.
+ */
+
+export const principals = [
+  'anonymous',
+  'ownerA',
+  'ownerB',
+  'technician',
+  'admin',
+  'otherAdmin',
+  'device',
+  'deactivated',
+] as const;
+export type Principal = (typeof principals)[number];
+
+type SignedInPrincipal = Exclude<Principal, 'anonymous' | 'device'>;
+
+/** "METHOD /full/path", e.g. "GET /api/tanks/:tankId", as route-policies.test.ts lists them. */
+export interface RegisteredRoute {
+  key: string;
+  method: string;
+  path: string;
+  policy: string | undefined;
+}
+
+interface RouteLayer {
+  route?: { path: string; methods: Record<string, boolean>; stack: { handle: PolicyMarked }[] };
+}
+
+function routesOf(prefix: string, router: Router): RegisteredRoute[] {
+  return (router.stack as RouteLayer[]).flatMap((layer) => {
+    const route = layer.route;
+    if (!route) return [];
+    const policy = route.stack.map((step) => step.handle.policy).find(Boolean);
+    const path = `${prefix}${route.path === '/' ? '' : route.path}`;
+    return Object.keys(route.methods).map((method) => ({
+      key: `${method.toUpperCase()} ${path}`,
+      method: method.toUpperCase(),
+      path,
+      policy,
+    }));
+  });
+}
+
+/** Every route the app registers, walked from the same router lists the app mounts. */
+export function registeredRoutes(): RegisteredRoute[] {
+  return [
+    ...[...sessionlessRouters, ...apiRouters].flatMap(([path, router]) => routesOf(`/api${path}`, router)),
+    ...routesOf('/auth', authRouter),
+  ];
+}
+
+export interface CallOptions {
+  body?: unknown;
+  /** Sent as it is, with content-type application/json (for JSON an object cannot express). */
+  rawJson?: string;
+  form?: FormData;
+  query?: string;
+  /** For an endless response (Server-Sent Events): read the status, then hang up. */
+  stream?: boolean;
+  /** Use a second session of the same person, for a route that ends the session it is called with. */
+  throwawaySession?: boolean;
+}
+
+export interface Answer {
+  status: number;
+  contentType: string;
+  json: unknown;
+  text: string;
+}
+
+/** Tables every request may write whatever it is answered: the session store and rate-limit budgets. */
+const bookkeepingTables = new Set(['session', 'rate_limits']);
+
+const unique = () => randomBytes(4).toString('hex');
+
+export type NetWorld = Awaited<ReturnType<typeof createNetWorld>>;
+
+export async function createNetWorld() {
+  const stack: TestStack = await startTestStack();
+  const { db } = stack.database;
+  const issuer = stack.idp.issuer;
+  const company = await createCompany(db);
+  const otherCompany = await createCompany(db);
+  const person = (companyId: string, role: TestPerson['role'], name: string) =>
+    createPerson(db, { companyId, role, issuer, name });
+  const people = {
+    ownerA: await person(company.id, 'owner', 'Owner of tank A'),
+    ownerB: await person(company.id, 'owner', 'Owner of tank B'),
+    technician: await person(company.id, 'technician', 'Technician'),
+    admin: await person(company.id, 'admin', 'Admin'),
+    otherAdmin: await person(otherCompany.id, 'admin', 'Admin elsewhere'),
+    deactivated: await person(company.id, 'admin', 'Deactivated admin'),
+  } satisfies Record<SignedInPrincipal, TestPerson>;
+  const tankA = await createTank(db, {
+    companyId: company.id,
+    name: 'Tank A',
+    owners: [people.ownerA],
+    style: 'mixed-reef',
+    // Readings may be dated back to when the tank was set up.
+    setUpOn: '2020-01-01',
+  });
+  const tankB = await createTank(db, { companyId: company.id, name: 'Tank B', owners: [people.ownerB] });
+  const otherTank = await createTank(db, { companyId: otherCompany.id, name: 'Elsewhere' });
+  const png = await makeImage({ width: 64, height: 48, format: 'png' });
+
+  const browsers = {} as Record<SignedInPrincipal, HttpBrowser>;
+  for (const who of Object.keys(people) as SignedInPrincipal[]) {
+    browsers[who] = new HttpBrowser();
+    await signIn(stack, browsers[who], people[who]);
+  }
+  // The deactivated admin keeps the session they had; the app drops it at their next request, so
+  // the same row is put back before each of their calls.
+  const deactivatedSession = await stack.database.pool.query<{ sid: string; sess: unknown; expire: Date }>(
+    `select sid, sess, expire from session where sess->>'userId' = $1`,
+    [people.deactivated.id],
+  );
+  if (deactivatedSession.rows.length !== 1) throw new Error('the deactivated admin has no session');
+  await db
+    .update(users)
+    .set({ status: 'deactivated', deactivatedAt: new Date() })
+    .where(eq(users.id, people.deactivated.id));
+  const restoreDeactivatedSession = async () => {
+    const row = deactivatedSession.rows[0]!;
+    await stack.database.pool.query(
+      `insert into session (sid, sess, expire) values ($1, $2, $3)
+       on conflict (sid) do update set sess = excluded.sess, expire = excluded.expire`,
+      [row.sid, JSON.stringify(row.sess), row.expire],
+    );
+  };
+
+  /** Rows made directly rather than through the services, whose signatures other work changes. */
+  const addDevice = async (name: string) => {
+    const { token, tokenHash, tokenHint } = issueDeviceToken();
+    const [row] = await db
+      .insert(devices)
+      .values({
+        companyId: company.id,
+        tankId: tankA.id,
+        name,
+        tokenHash,
+        tokenHint,
+        createdBy: people.admin.id,
+      })
+      .returning();
+    return { id: row!.id, token };
+  };
+  const addPhoto = async () => {
+    const stored = await storePhotoObjects(stack.deps.storage, png, new Date());
+    const [row] = await db
+      .insert(photos)
+      .values({
+        companyId: company.id,
+        tankId: tankA.id,
+        subject: 'tank',
+        ...stored,
+        uploadedBy: people.admin.id,
+      })
+      .returning();
+    return row!.id;
+  };
+  let deviceToken = (await addDevice('Sump probe')).token;
+
+  /** Objects of tank A that path parameters name; `fresh` makes new ones for a call that may use them up. */
+  const freshObject = {
+    equipmentId: async () => (await addEquipmentTo(db, tankA)).id,
+    livestockId: async () =>
+      (await addLivestockTo(db, tankA, { catalogueSpeciesId: 'trochus-snail', status: 'stable' })).id,
+    deviceId: async () => (await addDevice(`Probe ${unique()}`)).id,
+    alertId: async () => {
+      const now = new Date();
+      const [row] = await db
+        .insert(alerts)
+        .values({
+          companyId: company.id,
+          tankId: tankA.id,
+          kind: 'limit',
+          ruleKey: `limit:temperature:${unique()}`,
+          parameter: 'temperature',
+          severity: 'warning',
+          title: 'Temperature high',
+          body: 'Temperature is above the warning limit.',
+          value: 28.5,
+          limitValue: 27,
+          direction: 'high',
+          openedAt: now,
+          lastSeenAt: now,
+        })
+        .returning();
+      return row!.id;
+    },
+    photoId: addPhoto,
+    shiftId: async () => {
+      const [row] = await db
+        .insert(onCallShifts)
+        .values({
+          companyId: company.id,
+          userId: people.technician.id,
+          startsAt: new Date(Date.now() + 86_400_000),
+          endsAt: new Date(Date.now() + 2 * 86_400_000),
+        })
+        .returning();
+      return row!.id;
+    },
+    invitationId: async () => {
+      const [row] = await db
+        .insert(invitations)
+        .values({
+          companyId: company.id,
+          email: `invited-${unique()}@example.test`,
+          role: 'technician',
+          tokenHash: hashToken(randomBytes(24).toString('base64url')),
+          expiresAt: new Date(Date.now() + 7 * 86_400_000),
+          invitedBy: people.admin.id,
+        })
+        .returning();
+      return row!.id;
+    },
+    /** Staff changes (role, deactivation) act on a technician made for the call, never on a principal. */
+    userId: async () => (await person(company.id, 'technician', `Target ${unique()}`)).id,
+    speciesId: () => Promise.resolve('trochus-snail'),
+    token: () => Promise.resolve(randomBytes(24).toString('hex')),
+  } satisfies Record<string, () => Promise<string>>;
+  type ParamName = keyof typeof freshObject;
+
+  const shared = {} as Record<ParamName, string>;
+  for (const name of Object.keys(freshObject) as ParamName[]) shared[name] = await freshObject[name]();
+  await insertReadings(db, tankA, [
+    { parameter: 'temperature', value: 25.4, measuredAt: new Date(Date.now() - 3_600_000), source: 'visit' },
+  ]);
+
+  /**
+   * The route's path with tank A's objects in it. A route that may use its object up (anything
+   * but GET) gets new ones, so the callers it is tried with do not depend on one another.
+   */
+  const fillPath = async (path: string, mode: 'shared' | 'fresh' = 'shared') => {
+    let filled = path;
+    for (const [match, name] of path.matchAll(/:(\w+)/g)) {
+      let value: string;
+      if (name === 'tankId') value = tankA.id;
+      else if (name! in freshObject) {
+        value = mode === 'fresh' ? await freshObject[name as ParamName]() : shared[name as ParamName];
+      } else {
+        throw new Error(
+          `No value for ${match} in ${path}: add a maker for it to tests/api/nets/net-world.ts`,
+        );
+      }
+      filled = filled.replace(match, value);
+    }
+    return filled;
+  };
+
+  const headersFor = async (who: Principal, options: CallOptions, url: string): Promise<Headers> => {
+    const headers = new Headers(stack.sameOrigin);
+    if (options.rawJson !== undefined || (options.body !== undefined && !options.form)) {
+      headers.set('content-type', 'application/json');
+    }
+    if (who === 'device') headers.set('authorization', `Bearer ${deviceToken}`);
+    if (who === 'deactivated') await restoreDeactivatedSession();
+    if (who !== 'anonymous' && who !== 'device') {
+      let browser = browsers[who];
+      if (options.throwawaySession && who !== 'deactivated') {
+        browser = new HttpBrowser();
+        await signIn(stack, browser, people[who]);
+      }
+      const cookie = browser.cookieHeader(url);
+      if (cookie) headers.set('cookie', cookie);
+    }
+    return headers;
+  };
+
+  /** One request as `who`, with the headers the app's pages send on a state change. */
+  const call = async (who: Principal, method: string, path: string, options: CallOptions = {}) => {
+    const url = `${stack.origin}${path}${options.query ? `?${options.query}` : ''}`;
+    const headers = await headersFor(who, options, url);
+    const body =
+      options.form ??
+      options.rawJson ??
+      (options.body !== undefined ? JSON.stringify(options.body) : undefined);
+    const abort = new AbortController();
+    const response = await fetch(url, { method, headers, body, redirect: 'manual', signal: abort.signal });
+    const contentType = response.headers.get('content-type') ?? '';
+    if (options.stream) {
+      abort.abort();
+      return { status: response.status, contentType, json: undefined, text: '' } satisfies Answer;
+    }
+    const text = await response.text();
+    let json: unknown;
+    if (contentType.includes('application/json')) {
+      try {
+        json = JSON.parse(text);
+      } catch {
+        json = undefined;
+      }
+    }
+    return { status: response.status, contentType, json, text } satisfies Answer;
+  };
+
+  /** A digest of every row of every table but the bookkeeping ones, per table. */
+  const fingerprint = async (): Promise<Record<string, string>> => {
+    const tables = await stack.database.pool.query<{ name: string }>(
+      `select table_name as name from information_schema.tables
+       where table_schema = 'public' and table_type = 'BASE TABLE' order by table_name`,
+    );
+    const watched = tables.rows.map((t) => t.name).filter((name) => !bookkeepingTables.has(name));
+    const query = watched
+      .map(
+        (name) =>
+          `select '${name}' as name, md5(coalesce(string_agg(t::text, '|' order by t::text), '')) as digest from "${name}" t`,
+      )
+      .join(' union all ');
+    const { rows } = await stack.database.pool.query<{ name: string; digest: string }>(query);
+    return Object.fromEntries(rows.map((row) => [row.name, row.digest]));
+  };
+
+  /** The tables whose rows differ between two fingerprints. */
+  const changedTables = (before: Record<string, string>, after: Record<string, string>) =>
+    [...new Set([...Object.keys(before), ...Object.keys(after)])].filter(
+      (name) => before[name] !== after[name],
+    );
+
+  /** A new device token for tank A: ingest allows a device 20 requests a minute. */
+  const rotateDeviceToken = async () => {
+    deviceToken = (await addDevice(`Probe ${unique()}`)).token;
+  };
+
+  const photoForm = (fields: Record<string, string> = {}, bytes: Buffer = png) => {
+    const form = new FormData();
+    for (const [name, value] of Object.entries(fields)) form.append(name, value);
+    form.append('photo', new Blob([new Uint8Array(bytes)], { type: 'image/png' }), 'tank.png');
+    return form;
+  };
+
+  return {
+    stack,
+    company,
+    otherCompany,
+    people,
+    tankA,
+    tankB,
+    otherTank,
+    shared,
+    png,
+    fillPath,
+    call,
+    fingerprint,
+    changedTables,
+    rotateDeviceToken,
+    photoForm,
+    close: () => stack.close(),
+  };
+}
+
+const minutesAgo = (n: number) => new Date(Date.now() - n * 60_000).toISOString();
+
+export interface ValidRequest {
+  body?: unknown;
+  form?: FormData;
+  query?: string;
+}
+
+/**
+ * A small valid request per route that needs one, so an answer reflects authorization, not
+ * validation. Functions, because some must be unique per call (names, e-mail addresses).
+ */
+export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = {
+  'GET /api/tanks/:tankId/readings': () => ({
+    query: `parameter=temperature&from=${encodeURIComponent(minutesAgo(7 * 24 * 60))}&to=${encodeURIComponent(minutesAgo(0))}`,
+  }),
+  'POST /api/tanks': () => ({
+    body: {
+      name: `Lobby reef ${unique()}`,
+      style: 'mixed-reef',
+      displayVolume: { value: 300, unit: 'litres' },
+    },
+  }),
+  'PATCH /api/tanks/:tankId': () => ({ body: { notes: 'Skimmer cup emptied.' } }),
+  'POST /api/tanks/:tankId/equipment': () => ({ body: { kind: 'heater', description: 'Spare heater' } }),
+  'PATCH /api/tanks/:tankId/equipment/:equipmentId': () => ({ body: { notes: 'Checked the seal.' } }),
+  'POST /api/tanks/:tankId/livestock': () => ({
+    body: { speciesId: 'trochus-snail', acknowledgeWarnings: true },
+  }),
+  'PATCH /api/tanks/:tankId/livestock/:livestockId': () => ({ body: { nickname: 'Slowpoke' } }),
+  'POST /api/tanks/:tankId/photos': (world) => ({ form: world.photoForm({ caption: 'Front view' }) }),
+  'POST /api/tanks/:tankId/readings': () => ({
+    body: { readings: [{ parameter: 'temperature', value: 25.6, unit: '°C', measuredAt: minutesAgo(30) }] },
+  }),
+  'POST /api/tanks/:tankId/readings/import': () => ({
+    body: {
+      readings: [
+        {
+          parameter: 'temperature',
+          value: 25.1,
+          unit: '°C',
+          measuredAt: minutesAgo(90),
+          source: 'home-test',
+        },
+      ],
+    },
+  }),
+  'PUT /api/tanks/:tankId/limits': () => ({ body: {} }),
+  'POST /api/tanks/:tankId/devices': () => ({ body: { name: 'Return probe' } }),
+  'POST /api/species': () => ({
+    body: {
+      commonName: `Test snail ${unique()}`,
+      scientificName: `Testus ${unique().replace(/\d/g, 'x')}`,
+      profile: {
+        waterTypes: ['marine'],
+        group: 'snail',
+        ranges: {},
+        behaviour: {},
+        careNotes: 'Grazes algae on the glass.',
+      },
+    },
+  }),
+  'PATCH /api/staff/:userId': () => ({ body: { role: 'admin' } }),
+  'POST /api/invitations': () => ({ body: { role: 'technician', email: `new-${unique()}@example.test` } }),
+  'POST /api/alerts/:alertId/acknowledge': () => ({ body: {} }),
+  'POST /api/alerts/:alertId/resolve': () => ({ body: { note: 'Replaced the heater.' } }),
+  'POST /api/notifications/read': () => ({ body: {} }),
+  'PUT /api/notifications/preferences': () => ({ body: defaultNotificationPreferences }),
+  'POST /api/push/subscriptions': () => ({
+    body: {
+      endpoint: `https://push.example.test/send/${unique()}`,
+      keys: { p256dh: 'B'.repeat(87), auth: 'a'.repeat(22) },
+    },
+  }),
+  'DELETE /api/push/subscriptions': () => ({ body: { endpoint: 'https://push.example.test/send/none' } }),
+  'POST /api/on-call': (world) => ({
+    body: {
+      userId: world.people.technician.id,
+      startsAt: new Date(Date.now() + 3 * 86_400_000).toISOString(),
+      endsAt: new Date(Date.now() + 4 * 86_400_000).toISOString(),
+    },
+  }),
+  'POST /api/ingest/readings': () => ({
+    body: { readings: [{ parameter: 'temperature', value: 25.3, unit: '°C', measuredAt: minutesAgo(5) }] },
+  }),
+};
