@@ -10,7 +10,8 @@ export interface Database {
 }
 
 export function connectDatabase(url: string, options: { max?: number } = {}): Database {
-  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10 });
+  // A database that hangs instead of refusing must still end in a 503, not a request that never ends.
+  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10, connectionTimeoutMillis: 5_000 });
   // An idle client losing its connection (the server restarting) must not kill the process.
   pool.on('error', () => {});
   return { pool, db: drizzle(pool, { schema }) };

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { databaseProblem, databaseRetryAfterS } from '../lib/database-errors';
 import { HttpError } from '../lib/http-error';
 import { issuesFrom } from '../lib/route';
 
@@ -36,12 +37,25 @@ function toHttpError(error: unknown): HttpError | null {
         }
     }
   }
+  // The router's own refusals, such as a path segment that is not valid percent-encoding, carry a 4xx.
+  const status = (error as { status?: unknown } | null)?.status;
+  if (error instanceof Error && typeof status === 'number' && status >= 400 && status < 500) {
+    return new HttpError(status, 'bad_request', 'The request could not be read.');
+  }
   return null;
 }
 
 export const errorHandler: ErrorRequestHandler = (error, req, res, _next) => {
-  const known = toHttpError(error);
-  if (!known) req.log.error({ err: error }, 'unhandled error');
+  let known = toHttpError(error);
+  if (!known) {
+    const database = databaseProblem(error);
+    if (database) {
+      known = database.error;
+      // A 503 is the outage itself; a 400/409 from PostgreSQL means a schema let something through.
+      req.log.warn({ dbCode: database.code, status: known.status }, 'database refused the request');
+      if (known.status === 503 && !res.headersSent) res.setHeader('Retry-After', String(databaseRetryAfterS));
+    } else req.log.error({ err: error }, 'unhandled error');
+  }
   const status = known?.status ?? 500;
   const body = known
     ? { code: known.code, message: known.message, ...(known.issues ? { issues: known.issues } : {}) }

@@ -26,7 +26,7 @@ export const notificationsRouter = Router();
 export const pushRouter = Router();
 export const eventsRouter = Router();
 
-const unsubscribeInput = z.object({ endpoint: z.url() });
+const unsubscribeInput = z.object({ endpoint: z.url().max(2048) });
 
 alertsRouter.get(
   '/',

@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { databaseRetryAfterS } from '../lib/database-errors';
 import { openRoute, withStatus } from '../lib/route';
 import { publicRoute } from '../policy/index';
 import { getHealth } from '../services/health';
@@ -8,8 +9,10 @@ export const healthRouter = Router();
 healthRouter.get(
   '/',
   publicRoute,
-  openRoute({}, async ({ deps }) => {
+  openRoute({}, async ({ deps, setHeader }) => {
     const health = await getHealth(deps.pool);
-    return withStatus(health.db === 'ok' ? 200 : 503, health);
+    if (health.db === 'ok') return withStatus(200, health);
+    setHeader('Retry-After', String(databaseRetryAfterS));
+    return withStatus(503, health);
   }),
 );

@@ -8,6 +8,7 @@ import {
   type NotificationPreferences,
 } from '@shared/schemas/notifications';
 import type { LimitDirection } from '@shared/parameters/limits';
+import { isKnownTimeZone } from '@shared/time/time-zones';
 import type { AppDeps } from '../deps';
 import {
   alertEvents,
@@ -77,9 +78,37 @@ async function recipientsFor(
     .where(and(inArray(users.id, [...ids]), eq(users.status, 'active')));
 }
 
-export function preferencesOf(stored: unknown, timeZone: string): NotificationPreferences {
+export interface ReadPreferences {
+  preferences: NotificationPreferences;
+  /** Why stored or inherited settings were set aside; null when they were usable as they are. */
+  problem: string | null;
+}
+
+/**
+ * A person's preferences as the fan-out can use them. A zone the runtime does not know (saved
+ * before zones were checked, or written straight into the database) gives way to their own or
+ * their company's zone, else UTC, keeping their channel choices; anything else unusable gives the
+ * defaults. Either way the caller learns why, so one person's settings never stop an alert.
+ */
+export function readPreferences(stored: unknown, fallbackZone: string): ReadPreferences {
+  const zoneUsable = isKnownTimeZone(fallbackZone);
+  const zone = zoneUsable ? fallbackZone : defaultNotificationPreferences.timeZone;
+  const zoneProblem = zoneUsable ? null : 'their own or their company time zone is unknown';
+  if (stored === null || stored === undefined) {
+    return { preferences: { ...defaultNotificationPreferences, timeZone: zone }, problem: zoneProblem };
+  }
   const parsed = preferencesSchema.safeParse(stored);
-  return parsed.success ? parsed.data : { ...defaultNotificationPreferences, timeZone };
+  if (parsed.success) return { preferences: parsed.data, problem: null };
+  const withZone = preferencesSchema.safeParse({ ...(stored as object), timeZone: zone });
+  if (withZone.success) return { preferences: withZone.data, problem: 'their saved time zone is unknown' };
+  return {
+    preferences: { ...defaultNotificationPreferences, timeZone: zone },
+    problem: 'their saved preferences cannot be read',
+  };
+}
+
+export function preferencesOf(stored: unknown, timeZone: string): NotificationPreferences {
+  return readPreferences(stored, timeZone).preferences;
 }
 
 /**
@@ -102,8 +131,14 @@ export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
   const link = `/tanks/${alert.tankId}`;
   const title = event.type === 'resolved' ? `Resolved: ${alert.title}` : alert.title;
 
-  for (const person of audience) {
-    const preferences = preferencesOf(person.preferences, person.timeZone);
+  async function notifyPerson(person: (typeof audience)[number]) {
+    const { preferences, problem } = readPreferences(person.preferences, person.timeZone);
+    if (problem) {
+      deps.logger.warn(
+        { userId: person.id, eventId: event.id, problem },
+        'notification preferences unusable; notifying with the defaults',
+      );
+    }
     const quiet = event.severity !== 'critical' && inQuietHours(preferences, now);
     if (preferences.inApp.includes(event.severity)) {
       await deps.db
@@ -119,7 +154,7 @@ export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
         })
         .onConflictDoNothing();
     }
-    if (quiet) continue;
+    if (quiet) return;
     const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
     if (announce && preferences.email.includes(event.severity))
       planned.push({ channel: 'email', destination: person.email });
@@ -148,13 +183,30 @@ export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
       }
     }
   }
-  await deps.db.update(alertEvents).set({ fannedOutAt: now }).where(eq(alertEvents.id, event.id));
+  let failed = 0;
+  for (const person of audience) {
+    try {
+      await notifyPerson(person);
+    } catch (error) {
+      // The others are still told; the job fails afterwards and is retried, which plans nothing twice.
+      failed += 1;
+      deps.logger.error(
+        { err: error, userId: person.id, eventId: event.id },
+        'alert fan-out failed for one recipient',
+      );
+    }
+  }
+
+  if (failed === 0) {
+    await deps.db.update(alertEvents).set({ fannedOutAt: now }).where(eq(alertEvents.id, event.id));
+  }
   await publishEvent(deps.pool, {
     type: 'notification',
     userIds: audience.map((p) => p.id),
     tankId: alert.tankId,
     alertId: alert.id,
   });
+  if (failed > 0) throw new Error(`alert fan-out failed for ${failed} of ${audience.length} recipients`);
 }
 
 /** Everything a message about one delivery needs, loaded fresh (the alert may have moved on). */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { distinctList } from '@shared/lists/distinct';
 import { parameterKey } from '@shared/parameters/keys';
 import { waterType } from '@shared/parameters/water-types';
 
@@ -79,9 +80,13 @@ export const territoriality = z.union([
 ]);
 export type Territoriality = z.infer<typeof territoriality>;
 
+/** Long enough for a full handling caution; a species list is sent to every owner, so it stays bounded. */
+export const maxCautionLength = 2000;
+export const maxCareNotesLength = 4000;
+
 export const handlingHazard = z.object({
   hazard: z.enum(['contact-toxin', 'irritant', 'venomous-spines', 'sharp-spines', 'bite']),
-  caution: z.string().min(1),
+  caution: z.string().trim().min(1).max(maxCautionLength),
 });
 export type HandlingHazard = z.infer<typeof handlingHazard>;
 
@@ -93,9 +98,9 @@ export const behaviour = z
     nipsCorals: z.union([z.boolean(), z.literal('sometimes')]).default(false),
     nipsClams: z.union([z.boolean(), z.literal('sometimes')]).default(false),
     /** Prey it hunts as food. */
-    eatsInvertebrates: z.array(preyGroup).default([]),
+    eatsInvertebrates: distinctList(preyGroup, preyGroups.length).default([]),
     /** Prey it may pick off when small or weak. */
-    mayEatInvertebrates: z.array(preyGroup).default([]),
+    mayEatInvertebrates: distinctList(preyGroup, preyGroups.length).default([]),
     /** Eats fish small enough to swallow (about a third of its own length or less). */
     eatsSmallFish: z.boolean().default(false),
     territorial: territoriality.default(false),
@@ -110,7 +115,7 @@ export type Behaviour = z.infer<typeof behaviour>;
 
 export const careProfile = z
   .object({
-    waterTypes: z.array(waterType).min(1),
+    waterTypes: distinctList(waterType, waterType.options.length).pipe(z.array(waterType).min(1)),
     group: livestockGroup,
     ranges: careRanges,
     light: level.optional(),
@@ -118,7 +123,7 @@ export const careProfile = z
     /** Adult length for fish, spread for anemones and starfish; used to judge who can eat whom. */
     adultSizeCm: z.number().positive().optional(),
     behaviour,
-    careNotes: z.string().min(1),
+    careNotes: z.string().trim().min(1).max(maxCareNotesLength),
   })
   .refine((p) => p.group !== 'fish' || p.adultSizeCm !== undefined, {
     message: 'fish need an adult size',
@@ -138,10 +143,12 @@ export const species = z.object({
   scientificName: z
     .string()
     .trim()
+    .max(120)
     .regex(/^[A-Z][a-z]+(?: (?:[a-z-]+|spp\.|sp\.))?$/, 'use "Genus species", "Genus spp." or "Genus"'),
   /** Scientific family, when known; lets rivalry between related fish be judged. */
   family: z
     .string()
+    .max(80)
     .regex(/^[A-Z][a-z]+(?:idae|aceae|inae)$/, 'use the scientific family name')
     .optional(),
   profile: careProfile,

@@ -4,10 +4,11 @@
  */
 import { z } from 'zod';
 import { parameterKey } from '@shared/parameters/keys';
+import { pastInstant } from '@shared/time/plausible';
 import { checkStoredValue, type UnitContext } from '@shared/parameters/units';
 import { manualSource } from './sources';
 
-export const measuredAt = z.iso.datetime({ offset: true });
+export const measuredAt = pastInstant;
 // EOS-80 validity, the range the specific-gravity conversion accepts.
 export const instrumentTempC = z.number().min(-2).max(40);
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calendarDay } from '@shared/time/plausible';
 
 /** What sits in or under a tank; the trade's own names for each kind. */
 export const equipmentKinds = [
@@ -46,7 +47,7 @@ export const poweredKinds: readonly EquipmentKind[] = equipmentKinds.filter(
 
 export const equipmentIdParams = z.object({ tankId: z.uuid(), equipmentId: z.uuid() });
 
-const isoDate = z.iso.date('use a date as YYYY-MM-DD');
+const isoDate = calendarDay;
 /** Board and outlet as written on the labels under the cabinet: "B", "4", "Left strip". */
 const label = z.string().trim().min(1).max(24);
 const optional = <T extends z.ZodType>(schema: T) => schema.nullable().optional();

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calendarDay, pastInstant } from '@shared/time/plausible';
 import { livestockStatus, presentStatuses, type LivestockStatus } from '@shared/schemas/livestock-status';
 import { compatibilityWarning } from '@shared/livestock/compatibility';
 import { livestockGroup, species, speciesId } from '@shared/livestock/species';
@@ -25,7 +26,7 @@ export type SpeciesQuery = z.infer<typeof speciesQuery>;
 
 export const speciesIdParams = z.object({ speciesId });
 
-const isoDate = z.iso.date('use a date as YYYY-MM-DD');
+const isoDate = calendarDay;
 const optionalText = (max: number) => z.string().trim().max(max).nullable().optional();
 
 const presentStatus = livestockStatus.refine((status) => presentStatuses.includes(status), {
@@ -67,7 +68,7 @@ export const updateLivestockInput = z
     /** Why the status changed; kept in the history with who and when. */
     statusNote: optionalText(500),
     /** When the change was seen, if not now (a technician writing up a visit later). */
-    statusChangedAt: z.iso.datetime({ offset: true }),
+    statusChangedAt: pastInstant,
   })
   .partial()
   .refine((input) => input.status !== undefined || (!input.statusNote && !input.statusChangedAt), {

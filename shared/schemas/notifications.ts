@@ -1,18 +1,23 @@
 import { z } from 'zod';
 import { alertSeverity } from '@shared/alerts/kinds';
 import { quietHours } from '@shared/alerts/quiet-hours';
+import { distinctList } from '@shared/lists/distinct';
+import { timeZone } from '@shared/time/time-zones';
 
 export const notificationChannels = ['push', 'email', 'in-app'] as const;
 export const notificationChannel = z.enum(notificationChannels);
 export type NotificationChannel = z.infer<typeof notificationChannel>;
 
+// Room for each severity twice; repeats are dropped.
+const severities = distinctList(alertSeverity, 2 * alertSeverity.options.length);
+
 /** Which severities reach a person on each channel, and when to stay quiet (critical always passes). */
 export const notificationPreferences = z.object({
-  push: z.array(alertSeverity),
-  email: z.array(alertSeverity),
-  inApp: z.array(alertSeverity),
+  push: severities,
+  email: severities,
+  inApp: severities,
   quietHours: quietHours.nullable(),
-  timeZone: z.string().min(1).max(64),
+  timeZone,
 });
 export type NotificationPreferences = z.infer<typeof notificationPreferences>;
 

@@ -1,13 +1,22 @@
 import { z } from 'zod';
+import { instantWithin } from '@shared/time/plausible';
+
+/** Shifts are planned up to a year ahead and may be entered late, never decades off (common practice). */
+const shiftInstant = instantWithin({ pastDays: 366, futureDays: 366 });
+const maxShiftDays = 31;
 
 export const onCallShiftInput = z
   .object({
     userId: z.uuid(),
-    startsAt: z.iso.datetime({ offset: true }),
-    endsAt: z.iso.datetime({ offset: true }),
+    startsAt: shiftInstant,
+    endsAt: shiftInstant,
   })
   .refine((shift) => new Date(shift.endsAt) > new Date(shift.startsAt), {
     message: 'The shift must end after it starts.',
+    path: ['endsAt'],
+  })
+  .refine((shift) => Date.parse(shift.endsAt) - Date.parse(shift.startsAt) <= maxShiftDays * 86_400_000, {
+    message: `A shift lasts at most ${maxShiftDays} days.`,
     path: ['endsAt'],
   });
 export type OnCallShiftInput = z.infer<typeof onCallShiftInput>;

@@ -5,6 +5,7 @@ import { allowedUnits, isEntryUnit, UnitNotAllowedError } from '@shared/paramete
 import type { ParameterHealth, TankStatus } from '@shared/parameters/health';
 import { checkEntered, importedReadingInput, instrumentTempC, measuredAt } from '@shared/readings/entry';
 import type { Reading } from '@shared/readings/reading';
+import { instant } from '@shared/time/plausible';
 import { manualSource, readingSource, type ReadingSource } from '@shared/readings/sources';
 
 /** A reading entered by a person, at a visit or as a home test; the route decides which. */
@@ -102,7 +103,7 @@ export interface IngestResult {
   rejected: { index: number; reason: IngestRejectionReason; message: string }[];
 }
 
-const isoInstant = z.iso.datetime({ offset: true });
+const isoInstant = instant;
 
 export const readingHistoryQuery = z
   .object({
@@ -120,6 +121,17 @@ export const readingHistoryQuery = z
   });
 export type ReadingHistoryQuery = z.infer<typeof readingHistoryQuery>;
 
+/**
+ * "<measuredAt>_<id>" as `cursorOf` writes it: a real moment and an id the service reads as a
+ * number, so no larger than 2^53 − 1 (well inside PostgreSQL's bigint).
+ */
+function isReadingCursor(cursor: string): boolean {
+  const split = cursor.lastIndexOf('_');
+  const at = cursor.slice(0, split);
+  const id = Number(cursor.slice(split + 1));
+  return Number.isFinite(Date.parse(at)) && Number.isSafeInteger(id);
+}
+
 export const readingListQuery = z.object({
   parameter: parameterKey.optional(),
   source: readingSource.optional(),
@@ -128,7 +140,9 @@ export const readingListQuery = z.object({
   /** The `next` cursor of the previous page. */
   before: z
     .string()
+    .max(60)
     .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_\d+$/, 'use the cursor the previous page gave')
+    .refine(isReadingCursor, 'use the cursor the previous page gave')
     .optional(),
   limit: z.coerce.number().int().min(1).max(500).default(100),
 });

@@ -2,7 +2,10 @@ import { z } from 'zod';
 import { litresFromImperialGallons, litresFromUsGallons, usGallonsFromLitres } from '@shared/chemistry/index';
 import { tankStatusSchema } from '@shared/parameters/health';
 import { tankStyle, tankStyleWaterType } from '@shared/parameters/limit-templates';
+import { distinctList } from '@shared/lists/distinct';
 import { waterType } from '@shared/parameters/water-types';
+import { calendarDay } from '@shared/time/plausible';
+import { timeZone } from '@shared/time/time-zones';
 
 export const tankIdParams = z.object({ tankId: z.uuid() });
 
@@ -49,23 +52,7 @@ export const volumeEntry = z
     message: `a tank holds at most ${maxTankVolumeL.toLocaleString('en')} litres here`,
   });
 
-export function isTimeZone(zone: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: zone });
-    return true;
-  } catch {
-    return false;
-  }
-}
-
-export const timeZone = z
-  .string()
-  .trim()
-  .min(1)
-  .max(64)
-  .refine(isTimeZone, 'use a time zone such as Europe/London');
-
-export const isoDate = z.iso.date('use a date as YYYY-MM-DD');
+export const isoDate = calendarDay;
 
 const centimetres = z.number().positive('must be above 0').max(2000, 'must be at most 2000 cm');
 export const tankDimensions = z.object({
@@ -88,7 +75,7 @@ const tankFields = {
   setUpOn: isoDate.nullable().optional(),
   assignedTechnicianId: z.uuid().nullable().optional(),
   serviceIntervalDays: z.int().min(1, 'at least 1 day').max(365, 'at most 365 days'),
-  ownerIds: z.array(z.uuid()).max(20).optional(),
+  ownerIds: distinctList(z.uuid(), 20).optional(),
   notes: optionalText(4000),
   /** Only when the tank is not in the company's time zone. */
   timeZone: timeZone.nullable().optional(),

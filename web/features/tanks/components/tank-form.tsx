@@ -12,11 +12,11 @@ import {
   createTankInput,
   isoDate,
   tankDimensions,
-  timeZone,
   volumeUnit,
   type CreateTankInput,
   type TankDetail,
 } from '@shared/schemas/tanks';
+import { timeZone } from '@shared/time/time-zones';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import {
   CheckboxGroupField,
