@@ -3,6 +3,7 @@ import { createDeviceInput, deviceParams } from '@shared/schemas/readings';
 import { tankIdParams } from '@shared/schemas/tanks';
 import { created, route } from '../lib/route';
 import { can } from '../policy/index';
+import { auditSourceOf } from '../services/audit';
 import { createDevice, listDevices, revokeDevice } from '../services/devices';
 
 /** Mounted at /api/tanks/:tankId/devices. */
@@ -16,15 +17,15 @@ devicesRouter.get(
 devicesRouter.post(
   '/',
   can('devices:manage'),
-  route({ params: tankIdParams, body: createDeviceInput }, async ({ deps, actor, params, body }) =>
-    created(await createDevice(deps.db, actor, params.tankId, body.name)),
+  route({ params: tankIdParams, body: createDeviceInput }, async (ctx) =>
+    created(await createDevice(ctx.deps.db, ctx.actor, ctx.params.tankId, ctx.body.name, auditSourceOf(ctx))),
   ),
 );
 /** Revokes the token; the device and its readings stay. */
 devicesRouter.delete(
   '/:deviceId',
   can('devices:manage'),
-  route({ params: deviceParams }, ({ deps, actor, params }) =>
-    revokeDevice(deps.db, actor, params.tankId, params.deviceId, deps.clock()),
+  route({ params: deviceParams }, (ctx) =>
+    revokeDevice(ctx.deps.db, ctx.actor, ctx.params.tankId, ctx.params.deviceId, auditSourceOf(ctx)),
   ),
 );

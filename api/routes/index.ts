@@ -1,5 +1,6 @@
 import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
+import { auditRouter } from './audit';
 import { devicesRouter } from './devices';
 import { healthRouter } from './health';
 import { ingestRouter } from './ingest';
@@ -46,4 +47,5 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/events', eventsRouter],
   ['/on-call', onCallRouter],
   ['/deliveries', deliveriesRouter],
+  ['/audit', auditRouter],
 ];

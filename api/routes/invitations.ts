@@ -3,6 +3,7 @@ import { createInvitationInput, invitationIdParams } from '@shared/schemas/invit
 import { appOrigin } from '../env';
 import { created, noContent, route } from '../lib/route';
 import { can } from '../policy/index';
+import { auditSourceOf } from '../services/audit';
 import { createInvitation, listInvitations, revokeInvitation } from '../services/invitations';
 
 export const invitationsRouter = Router();
@@ -15,15 +16,17 @@ invitationsRouter.get(
 invitationsRouter.post(
   '/',
   can('invitations:manage'),
-  route({ body: createInvitationInput }, async ({ deps, actor, body }) =>
-    created(await createInvitation(deps, actor, body, appOrigin(deps.env))),
+  route({ body: createInvitationInput }, async (ctx) =>
+    created(
+      await createInvitation(ctx.deps, ctx.actor, ctx.body, appOrigin(ctx.deps.env), auditSourceOf(ctx)),
+    ),
   ),
 );
 invitationsRouter.delete(
   '/:invitationId',
   can('invitations:manage'),
-  route({ params: invitationIdParams }, async ({ deps, actor, params }) => {
-    await revokeInvitation(deps.db, actor, params.invitationId, deps.clock());
+  route({ params: invitationIdParams }, async (ctx) => {
+    await revokeInvitation(ctx.deps.db, ctx.actor, ctx.params.invitationId, auditSourceOf(ctx));
     return noContent();
   }),
 );

@@ -3,6 +3,7 @@ import { updateLimitsInput } from '@shared/schemas/limits';
 import { tankIdParams } from '@shared/schemas/tanks';
 import { route } from '../lib/route';
 import { can } from '../policy/index';
+import { auditSourceOf } from '../services/audit';
 import { getLimits, updateLimits } from '../services/limits';
 
 /** Mounted at /api/tanks/:tankId/limits. */
@@ -16,7 +17,7 @@ limitsRouter.get(
 limitsRouter.put(
   '/',
   can('limits:write'),
-  route({ params: tankIdParams, body: updateLimitsInput }, ({ deps, actor, params, body }) =>
-    updateLimits(deps.db, actor, params.tankId, body),
+  route({ params: tankIdParams, body: updateLimitsInput }, (ctx) =>
+    updateLimits(ctx.deps.db, ctx.actor, ctx.params.tankId, ctx.body, auditSourceOf(ctx)),
   ),
 );

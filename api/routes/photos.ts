@@ -7,6 +7,7 @@ import { photoUpload } from '../middleware/photo-upload';
 import { perActor, rateLimit } from '../middleware/rate-limit';
 import { can } from '../policy/index';
 import type { Actor } from '../services/actors';
+import { auditSourceOf } from '../services/audit';
 import { deletePhoto, listTankPhotos, openPhoto, uploadPhoto } from '../services/photos';
 
 /** Mounted under /tanks/:tankId/photos. */
@@ -58,8 +59,8 @@ photosRouter.get(
 photosRouter.delete(
   '/:photoId',
   can('photos:write'),
-  route({ params: photoIdParams }, async ({ deps, actor, params }) => {
-    await deletePhoto(deps, actor, params.photoId);
+  route({ params: photoIdParams }, async (ctx) => {
+    await deletePhoto(ctx.deps, ctx.actor, ctx.params.photoId, auditSourceOf(ctx));
     return noContent();
   }),
 );

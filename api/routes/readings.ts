@@ -9,6 +9,7 @@ import {
 import { tankIdParams } from '@shared/schemas/tanks';
 import { created, route, streamed } from '../lib/route';
 import { can } from '../policy/index';
+import { auditSourceOf, recordReadingsExport } from '../services/audit';
 import { readingHistory } from '../services/history';
 import {
   exportReadingsCsv,
@@ -52,8 +53,10 @@ readingsRouter.get(
 readingsRouter.get(
   '/export',
   can('readings:read'),
-  route({ params: tankIdParams, query: readingExportQuery }, async ({ deps, actor, params, query }) => {
+  route({ params: tankIdParams, query: readingExportQuery }, async (ctx) => {
+    const { deps, actor, params, query } = ctx;
     const csv = await exportReadingsCsv(deps.db, actor, params.tankId, query, deps.clock());
+    await recordReadingsExport(deps.db, actor, params.tankId, query, auditSourceOf(ctx));
     return streamed(
       {
         'Content-Type': 'text/csv; charset=utf-8',

@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { changeRoleInput, userIdParams } from '@shared/schemas/users';
 import { route } from '../lib/route';
 import { can } from '../policy/index';
+import { auditSourceOf } from '../services/audit';
 import { changeStaffRole, deactivateUser, listClients, listStaff, reactivateUser } from '../services/users';
 
 export const staffRouter = Router();
@@ -16,8 +17,8 @@ staffRouter.get(
 staffRouter.patch(
   '/:userId',
   can('staff:manage'),
-  route({ params: userIdParams, body: changeRoleInput }, ({ deps, actor, params, body }) =>
-    changeStaffRole(deps.db, actor, params.userId, body.role),
+  route({ params: userIdParams, body: changeRoleInput }, (ctx) =>
+    changeStaffRole(ctx.deps.db, ctx.actor, ctx.params.userId, ctx.body.role, auditSourceOf(ctx)),
   ),
 );
 clientsRouter.get(
@@ -28,12 +29,14 @@ clientsRouter.get(
 usersRouter.post(
   '/:userId/deactivate',
   can('staff:manage'),
-  route({ params: userIdParams }, ({ deps, actor, params }) =>
-    deactivateUser(deps.db, actor, params.userId, deps.clock()),
+  route({ params: userIdParams }, (ctx) =>
+    deactivateUser(ctx.deps.db, ctx.actor, ctx.params.userId, auditSourceOf(ctx)),
   ),
 );
 usersRouter.post(
   '/:userId/reactivate',
   can('staff:manage'),
-  route({ params: userIdParams }, ({ deps, actor, params }) => reactivateUser(deps.db, actor, params.userId)),
+  route({ params: userIdParams }, (ctx) =>
+    reactivateUser(ctx.deps.db, ctx.actor, ctx.params.userId, auditSourceOf(ctx)),
+  ),
 );

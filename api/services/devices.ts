@@ -6,6 +6,7 @@ import { notFound } from '../lib/http-error';
 import { hashToken, newSecretToken } from '../lib/tokens';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
+import { recordAudit, type AuditSource } from './audit';
 
 /** What the ingest route knows about its caller, taken from the token alone. */
 export interface DeviceIdentity {
@@ -52,26 +53,54 @@ export async function createDevice(
   actor: Actor,
   tankId: string,
   name: string,
+  source: AuditSource,
 ): Promise<CreatedDevice> {
   const tank = await findTankFor(db, actor, tankId, 'write');
   const { token, tokenHash, tokenHint } = issueDeviceToken();
-  const [row] = await db
-    .insert(devices)
-    .values({ companyId: tank.companyId, tankId: tank.id, name, tokenHash, tokenHint, createdBy: actor.id })
-    .returning();
-  return { device: present(row!), token };
+  const row = await db.transaction(async (tx) => {
+    const [inserted] = await tx
+      .insert(devices)
+      .values({ companyId: tank.companyId, tankId: tank.id, name, tokenHash, tokenHint, createdBy: actor.id })
+      .returning();
+    await recordAudit(tx, {
+      companyId: tank.companyId,
+      actor,
+      action: 'device.created',
+      target: { kind: 'device', id: inserted!.id, label: `${name} (${tank.name})` },
+      details: { tank: tank.name, tokenHint },
+      source,
+    });
+    return inserted!;
+  });
+  return { device: present(row), token };
 }
 
 /** Revoked, not deleted: its readings keep saying which device sent them. */
-export async function revokeDevice(db: Db, actor: Actor, tankId: string, deviceId: string, now: Date) {
+export async function revokeDevice(
+  db: Db,
+  actor: Actor,
+  tankId: string,
+  deviceId: string,
+  source: AuditSource,
+) {
   const tank = await findTankFor(db, actor, tankId, 'write');
-  const [row] = await db
-    .update(devices)
-    .set({ revokedAt: now })
-    .where(and(eq(devices.id, deviceId), eq(devices.tankId, tank.id), isNull(devices.revokedAt)))
-    .returning();
-  if (!row) throw notFound('active device');
-  return present(row);
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(devices)
+      .set({ revokedAt: source.at })
+      .where(and(eq(devices.id, deviceId), eq(devices.tankId, tank.id), isNull(devices.revokedAt)))
+      .returning();
+    if (!row) throw notFound('active device');
+    await recordAudit(tx, {
+      companyId: tank.companyId,
+      actor,
+      action: 'device.revoked',
+      target: { kind: 'device', id: row.id, label: `${row.name} (${tank.name})` },
+      details: { tank: tank.name, tokenHint: row.tokenHint },
+      source,
+    });
+    return present(row);
+  });
 }
 
 export async function findDeviceByToken(db: Db, token: string): Promise<DeviceIdentity | null> {

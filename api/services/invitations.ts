@@ -9,6 +9,7 @@ import { hashToken, newSecretToken } from '../lib/tokens';
 import { findTankFor } from '../policy/index';
 import type { CreateInvitationInput, Invitation } from '@shared/schemas/invitations';
 import type { Actor } from './actors';
+import { recordAudit, type AuditSource } from './audit';
 
 type InvitationRow = typeof invitations.$inferSelect;
 
@@ -39,23 +40,35 @@ export async function createInvitation(
   actor: Actor,
   input: CreateInvitationInput,
   appOrigin: string,
+  source: AuditSource,
 ) {
-  const now = deps.clock();
+  const now = source.at;
   const tank = input.role === 'owner' ? await findTankFor(deps.db, actor, input.tankId, 'write') : null;
   const token = newSecretToken();
-  const [row] = await deps.db
-    .insert(invitations)
-    .values({
+  const row = await deps.db.transaction(async (tx) => {
+    const [inserted] = await tx
+      .insert(invitations)
+      .values({
+        companyId: actor.companyId,
+        email: input.email,
+        name: input.name ?? null,
+        role: input.role,
+        tankId: tank?.id ?? null,
+        tokenHash: hashToken(token),
+        expiresAt: new Date(now.getTime() + deps.env.INVITATION_DAYS * 24 * 60 * 60 * 1000),
+        invitedBy: actor.id,
+      })
+      .returning();
+    await recordAudit(tx, {
       companyId: actor.companyId,
-      email: input.email,
-      name: input.name ?? null,
-      role: input.role,
-      tankId: tank?.id ?? null,
-      tokenHash: hashToken(token),
-      expiresAt: new Date(now.getTime() + deps.env.INVITATION_DAYS * 24 * 60 * 60 * 1000),
-      invitedBy: actor.id,
-    })
-    .returning();
+      actor,
+      action: 'invitation.sent',
+      target: { kind: 'invitation', id: inserted!.id, label: inserted!.email },
+      details: { role: inserted!.role, ...(tank ? { tank: tank.name } : {}) },
+      source,
+    });
+    return inserted;
+  });
   const invitation = present(row!, tank && { id: tank.id, name: tank.name }, now);
   const emailSent = await sendInvitationMail(deps, actor, invitation, invitationLink(appOrigin, token));
   return { ...invitation, emailSent };
@@ -106,20 +119,30 @@ export async function listInvitations(db: Db, actor: Actor, now: Date): Promise<
   return rows.map((row) => present(row.invitation, row.tank, now));
 }
 
-export async function revokeInvitation(db: Db, actor: Actor, invitationId: string, now: Date) {
-  const [row] = await db
-    .update(invitations)
-    .set({ revokedAt: now })
-    .where(
-      and(
-        eq(invitations.id, invitationId),
-        eq(invitations.companyId, actor.companyId),
-        isNull(invitations.acceptedAt),
-        isNull(invitations.revokedAt),
-      ),
-    )
-    .returning();
-  if (!row) throw notFound('open invitation');
+export async function revokeInvitation(db: Db, actor: Actor, invitationId: string, source: AuditSource) {
+  await db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(invitations)
+      .set({ revokedAt: source.at })
+      .where(
+        and(
+          eq(invitations.id, invitationId),
+          eq(invitations.companyId, actor.companyId),
+          isNull(invitations.acceptedAt),
+          isNull(invitations.revokedAt),
+        ),
+      )
+      .returning();
+    if (!row) throw notFound('open invitation');
+    await recordAudit(tx, {
+      companyId: actor.companyId,
+      actor,
+      action: 'invitation.revoked',
+      target: { kind: 'invitation', id: row.id, label: row.email },
+      details: { role: row.role },
+      source,
+    });
+  });
 }
 
 /** Is this link worth sending the person to sign in for? */
@@ -149,8 +172,9 @@ export async function acceptPendingInvitation(
   tokenHash: string,
   identity: VerifiedIdentity,
   existing: UserRow | null,
-  now: Date,
+  source: AuditSource,
 ): Promise<UserRow | null> {
+  const now = source.at;
   return deps.db.transaction(async (tx) => {
     const [invite] = await tx
       .select()
@@ -192,6 +216,14 @@ export async function acceptPendingInvitation(
       .update(invitations)
       .set({ acceptedAt: now, acceptedBy: user!.id })
       .where(eq(invitations.id, invite.id));
+    await recordAudit(tx, {
+      companyId: invite.companyId,
+      actor: user!,
+      action: 'invitation.accepted',
+      target: { kind: 'invitation', id: invite.id, label: invite.email },
+      details: { role: invite.role },
+      source,
+    });
     return user ?? null;
   });
 }

@@ -17,6 +17,7 @@ import type { Db } from '../db/client';
 import { tankLimits, type tanks } from '../db/schema/index';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
+import { recordAudit, type AuditSource } from './audit';
 import { tankComfortRange } from './livestock';
 
 type TankRow = typeof tanks.$inferSelect;
@@ -41,6 +42,9 @@ const rateOf = (row: LimitRow): TankRateRule | null =>
   row.rateMaxChange === null || row.ratePerHours === null
     ? null
     : { maxChange: row.rateMaxChange, perHours: row.ratePerHours };
+
+/** A parameter's own row as the audit trail keeps it; null while it follows its style's template. */
+const settingsOf = (row: LimitRow | undefined) => (row ? { ...boundsOf(row), rate: rateOf(row) } : null);
 
 const defaultRateOf = (parameter: ParameterKey): TankRateRule | null => {
   const rule = parameterCatalogue[parameter].rateOfChange;
@@ -115,6 +119,7 @@ export async function updateLimits(
   actor: Actor,
   tankId: string,
   input: UpdateLimitsInput,
+  source: AuditSource,
 ): Promise<TankLimitsView> {
   const tank = await findTankFor(db, actor, tankId, 'write');
   const limits = input.limits ?? {};
@@ -166,6 +171,20 @@ export async function updateLimits(
             set: { ...values, updatedAt: new Date() },
           });
       }
+      const after = await tx
+        .select()
+        .from(tankLimits)
+        .where(and(eq(tankLimits.tankId, tank.id), inArray(tankLimits.parameter, touched)));
+      const saved = new Map(after.map((row) => [row.parameter, row]));
+      await recordAudit(tx, {
+        companyId: tank.companyId,
+        actor,
+        action: 'limits.changed',
+        target: { kind: 'tank', id: tank.id, label: tank.name },
+        before: Object.fromEntries(touched.map((p) => [p, settingsOf(own.get(p))])),
+        after: Object.fromEntries(touched.map((p) => [p, settingsOf(saved.get(p))])),
+        source,
+      });
     });
   }
   return getLimits(db, actor, tank.id);

@@ -9,6 +9,7 @@ import type { Logger } from '../lib/logger';
 import { notFound } from '../lib/http-error';
 import { findTankFor, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
+import { recordAudit, type AuditSource } from './audit';
 import { invalidFields } from './tanks';
 
 type PhotoRow = typeof photos.$inferSelect;
@@ -137,10 +138,25 @@ export async function deletePhoto(
   deps: Pick<AppDeps, 'db' | 'storage' | 'logger'>,
   actor: Actor,
   photoId: string,
+  source: AuditSource,
 ): Promise<void> {
   const photo = await findVisiblePhoto(deps.db, actor, photoId);
-  await findTankFor(deps.db, actor, photo.tankId, 'write');
-  await deps.db.delete(photos).where(eq(photos.id, photo.id));
+  const tank = await findTankFor(deps.db, actor, photo.tankId, 'write');
+  await deps.db.transaction(async (tx) => {
+    await tx.delete(photos).where(eq(photos.id, photo.id));
+    await recordAudit(tx, {
+      companyId: tank.companyId,
+      actor,
+      action: 'photo.deleted',
+      target: {
+        kind: 'photo',
+        id: photo.id,
+        label: photo.caption ? `${photo.caption} (${tank.name})` : tank.name,
+      },
+      details: { tank: tank.name, uploadedAt: photo.createdAt.toISOString() },
+      source,
+    });
+  });
   await discardObjects(deps.storage, deps.logger, [photo.objectKey, photo.thumbnailKey]);
 }
 

@@ -1,11 +1,11 @@
-import { eq, inArray, isNull, sql } from 'drizzle-orm';
+import { eq, inArray, isNull, lt, sql } from 'drizzle-orm';
 import { describeAlert } from '@shared/alerts/describe-alert';
 import { evaluateOverdue } from '@shared/alerts/overdue';
 import { evaluateStaleDevice } from '@shared/alerts/stale-device';
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { AppDeps } from '../deps';
-import { companies, devices, readings, tanks } from '../db/schema/index';
+import { auditEvents, companies, devices, readings, tanks } from '../db/schema/index';
 import { withTankAlerts, type NewAlert } from './alert-store';
 
 /**
@@ -128,4 +128,17 @@ export async function sweepOverdueTests(deps: AppDeps): Promise<string[]> {
     if (eventId) events.push(eventId);
   }
   return events;
+}
+
+/**
+ * Audit entries older than AUDIT_RETENTION_DAYS are deleted, the one deletion the table's trigger
+ * lets through: the setting is local to this transaction, so no other statement ever has it.
+ */
+export async function purgeExpiredAudit(deps: AppDeps): Promise<number> {
+  const cutoff = new Date(deps.clock().getTime() - deps.env.AUDIT_RETENTION_DAYS * 24 * 60 * 60_000);
+  return deps.db.transaction(async (tx) => {
+    await tx.execute(sql`set local brinewatch.audit_purge = 'on'`);
+    const result = await tx.delete(auditEvents).where(lt(auditEvents.at, cutoff));
+    return result.rowCount ?? 0;
+  });
 }

@@ -4,6 +4,7 @@ import { tankMembers, tanks, users } from '../db/schema/index';
 import { conflict, notFound } from '../lib/http-error';
 import type { ClientSummary, StaffMember } from '@shared/schemas/users';
 import type { Actor } from './actors';
+import { recordAudit, type AuditSource } from './audit';
 import type { StaffRole } from '@shared/people/permissions';
 
 export async function findUserByIdentity(db: Db, issuer: string, subject: string) {
@@ -39,41 +40,82 @@ async function findCompanyUser(db: Db, actor: Actor, userId: string) {
   return user;
 }
 
-export async function changeStaffRole(db: Db, actor: Actor, userId: string, role: StaffRole) {
+type UserRow = typeof users.$inferSelect;
+
+const asTarget = (user: UserRow) => ({ kind: 'user' as const, id: user.id, label: user.name });
+
+export async function changeStaffRole(
+  db: Db,
+  actor: Actor,
+  userId: string,
+  role: StaffRole,
+  source: AuditSource,
+) {
   const user = await findCompanyUser(db, actor, userId);
   if (user.role === 'owner') throw conflict('not_staff', 'Clients do not have a staff role.');
   if (user.id === actor.id) throw conflict('own_role', 'Ask another admin to change your own role.');
-  const [updated] = await db
-    .update(users)
-    .set({ role })
-    .where(eq(users.id, user.id))
-    .returning(publicColumns);
-  return updated!;
+  return db.transaction(async (tx) => {
+    const [updated] = await tx
+      .update(users)
+      .set({ role })
+      .where(eq(users.id, user.id))
+      .returning(publicColumns);
+    await recordAudit(tx, {
+      companyId: actor.companyId,
+      actor,
+      action: 'user.role-changed',
+      target: asTarget(user),
+      before: { role: user.role },
+      after: { role },
+      source,
+    });
+    return updated!;
+  });
 }
 
 /** Deactivation ends every session of that person at once, in every API process. */
-export async function deactivateUser(db: Db, actor: Actor, userId: string, now: Date) {
+export async function deactivateUser(db: Db, actor: Actor, userId: string, source: AuditSource) {
   const user = await findCompanyUser(db, actor, userId);
   if (user.id === actor.id) throw conflict('own_account', 'You cannot deactivate your own account.');
   return db.transaction(async (tx) => {
     const [updated] = await tx
       .update(users)
-      .set({ status: 'deactivated', deactivatedAt: now })
+      .set({ status: 'deactivated', deactivatedAt: source.at })
       .where(eq(users.id, user.id))
       .returning(publicColumns);
     await tx.execute(sql`delete from session where sess->>'userId' = ${user.id}`);
+    await recordAudit(tx, {
+      companyId: actor.companyId,
+      actor,
+      action: 'user.deactivated',
+      target: asTarget(user),
+      before: { status: user.status },
+      after: { status: 'deactivated' },
+      source,
+    });
     return updated!;
   });
 }
 
-export async function reactivateUser(db: Db, actor: Actor, userId: string) {
+export async function reactivateUser(db: Db, actor: Actor, userId: string, source: AuditSource) {
   const user = await findCompanyUser(db, actor, userId);
-  const [updated] = await db
-    .update(users)
-    .set({ status: 'active', deactivatedAt: null })
-    .where(eq(users.id, user.id))
-    .returning(publicColumns);
-  return updated!;
+  return db.transaction(async (tx) => {
+    const [updated] = await tx
+      .update(users)
+      .set({ status: 'active', deactivatedAt: null })
+      .where(eq(users.id, user.id))
+      .returning(publicColumns);
+    await recordAudit(tx, {
+      companyId: actor.companyId,
+      actor,
+      action: 'user.reactivated',
+      target: asTarget(user),
+      before: { status: user.status },
+      after: { status: 'active' },
+      source,
+    });
+    return updated!;
+  });
 }
 
 export async function listClients(db: Db, actor: Actor): Promise<ClientSummary[]> {

@@ -5,7 +5,7 @@ import { deliveries } from '../db/schema/index';
 import { queues } from '../lib/job-queue';
 import { afterAlertEvents } from './alerts';
 import { deliverEmail, deliverPush, fanOutAlertEvent, pendingFanOuts } from './notify';
-import { sweepOverdueTests, sweepStaleDevices } from './sweeps';
+import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
 
 type DeliveryJob = { deliveryId: string };
 
@@ -42,8 +42,12 @@ export async function startWorkers(deps: AppDeps) {
         .where(eq(deliveries.id, job.data.deliveryId));
     }
   });
-  await boss.work<{ overdue?: boolean }>(queues.sweep, async (jobs) => {
+  await boss.work<{ overdue?: boolean; auditRetention?: boolean }>(queues.sweep, async (jobs) => {
     for (const job of jobs) {
+      if (job.data?.auditRetention) {
+        await purgeExpiredAudit(deps);
+        continue;
+      }
       const opened = job.data?.overdue ? await sweepOverdueTests(deps) : await sweepStaleDevices(deps);
       await afterAlertEvents(deps, opened);
       for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
@@ -51,4 +55,5 @@ export async function startWorkers(deps: AppDeps) {
   });
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });
   await boss.schedule(queues.sweep, '0 7 * * *', { overdue: true }, { key: 'overdue-tests' });
+  await boss.schedule(queues.sweep, '30 3 * * *', { auditRetention: true }, { key: 'audit-retention' });
 }

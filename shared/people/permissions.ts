@@ -40,6 +40,7 @@ export const permissions = {
   'species:write': staff,
   'photos:read': everyone,
   'photos:write': staff,
+  'audit:read': admins,
 } satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

@@ -29,7 +29,7 @@ export const exportColumns = [...importColumns, 'stored_value', 'recorded_by'] a
  * A cell a spreadsheet would run as a formula is written with a leading apostrophe (OWASP, "CSV
  * Injection"). Only free text gets this: numbers may rightly start with a minus sign.
  */
-function guardText(text: string): string {
+export function guardText(text: string): string {
   return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
 }
 

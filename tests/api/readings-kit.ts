@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm';
 import type { Db } from '../../api/db/client';
 import { companies, readings, tanks } from '../../api/db/schema/index';
 import type { Actor } from '../../api/services/actors';
+import { noRequest } from '../../api/services/audit';
 import { createDevice } from '../../api/services/devices';
 import { createCompany, createPerson, createTank, type TestPerson } from '../helpers/factories';
 import { HttpBrowser } from '../helpers/http-browser';
@@ -66,7 +67,7 @@ export async function actorOf(db: Db, person: TestPerson): Promise<Actor> {
 
 /** A device on the tank, created as the technician would; returns its one-time token. */
 export async function deviceFor(db: Db, technician: TestPerson, tankId: string, name = 'Probe') {
-  const created = await createDevice(db, await actorOf(db, technician), tankId, name);
+  const created = await createDevice(db, await actorOf(db, technician), tankId, name, noRequest(new Date()));
   return { ...created.device, token: created.token };
 }
 

@@ -18,6 +18,7 @@ function MainNav() {
     links.push({ to: '/console', label: 'Tanks', end: true }, { to: '/console/clients', label: 'Clients' });
     links.push({ to: '/console/alerts', label: 'Alerts' });
     if (can(me, 'staff:read')) links.push({ to: '/console/staff', label: 'Staff' });
+    if (can(me, 'audit:read')) links.push({ to: '/console/audit', label: 'Audit trail' });
   } else if (me) links.push({ to: '/tanks', label: 'My tanks' });
   links.push({ to: '/calculators', label: 'Calculators' });
   return (

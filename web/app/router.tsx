@@ -87,6 +87,18 @@ const router = createBrowserRouter([
                 lazy: async () => ({ Component: (await import('./routes/alerts-board')).ConsoleAlertsRoute }),
               },
               {
+                path: 'audit',
+                element: <RequirePermission permission="audit:read" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-audit')).ConsoleAuditRoute,
+                    }),
+                  },
+                ],
+              },
+              {
                 path: 'staff',
                 element: <RequirePermission permission="staff:read" />,
                 children: [

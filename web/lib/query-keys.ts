@@ -54,3 +54,9 @@ export const notificationKeys = {
   inbox: ['notifications', 'inbox'] as const,
   preferences: ['notifications', 'preferences'] as const,
 };
+
+/** The company's audit trail, one entry per filter set. */
+export const auditKeys = {
+  all: ['audit'] as const,
+  list: (filters: object) => [...auditKeys.all, 'list', filters] as const,
+};

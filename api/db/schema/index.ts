@@ -1,4 +1,5 @@
 export * from './alerts';
+export * from './audit';
 export * from './companies';
 export * from './equipment';
 export * from './invitations';

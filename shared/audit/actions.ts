@@ -1,0 +1,52 @@
+import { z } from 'zod';
+
+/**
+ * What the audit trail records (OWASP ASVS 5.0 V16: authentication outcomes, changes of access and
+ * of settings, data leaving the system, deletions). Names are `thing.what-happened`.
+ */
+export const auditActions = [
+  'sign-in.succeeded',
+  'sign-in.failed',
+  'user.role-changed',
+  'user.deactivated',
+  'user.reactivated',
+  'invitation.sent',
+  'invitation.accepted',
+  'invitation.revoked',
+  'device.created',
+  'device.revoked',
+  'limits.changed',
+  'readings.exported',
+  'photo.deleted',
+] as const;
+export const auditAction = z.enum(auditActions);
+export type AuditAction = z.infer<typeof auditAction>;
+
+export const auditActionLabels: Readonly<Record<AuditAction, string>> = {
+  'sign-in.succeeded': 'Signed in',
+  'sign-in.failed': 'Sign-in refused',
+  'user.role-changed': 'Changed a role',
+  'user.deactivated': 'Deactivated an account',
+  'user.reactivated': 'Reactivated an account',
+  'invitation.sent': 'Sent an invitation',
+  'invitation.accepted': 'Accepted an invitation',
+  'invitation.revoked': 'Withdrew an invitation',
+  'device.created': 'Added a device',
+  'device.revoked': 'Revoked a device',
+  'limits.changed': 'Changed limits',
+  'readings.exported': 'Downloaded readings',
+  'photo.deleted': 'Deleted a photo',
+};
+
+/** What an entry is about. */
+export const auditTargetKinds = ['user', 'invitation', 'device', 'tank', 'photo'] as const;
+export const auditTargetKind = z.enum(auditTargetKinds);
+export type AuditTargetKind = z.infer<typeof auditTargetKind>;
+
+export const auditTargetKindLabels: Readonly<Record<AuditTargetKind, string>> = {
+  user: 'Person',
+  invitation: 'Invitation',
+  device: 'Device',
+  tank: 'Tank',
+  photo: 'Photo',
+};
