@@ -2,14 +2,15 @@ import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { type RequestHandler } from 'express';
-import helmet from 'helmet';
+import helmet, { strictTransportSecurity } from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { AppDeps } from './deps';
+import { loggableUrl, safeError } from './lib/logger';
 import { appOrigin } from './env';
 import { loadActor } from './middleware/actor';
 import { sameOriginOnly } from './middleware/csrf';
 import { apiNotFound, errorHandler, requireContentType } from './middleware/error-handler';
-import { createSessionMiddleware } from './middleware/session';
+import { createSessionMiddleware, isHttps } from './middleware/session';
 import { authRouter } from './routes/auth';
 import { apiRouters, sessionlessRouters } from './routes/index';
 
@@ -38,12 +39,14 @@ export function createApp(deps: AppDeps) {
         return id;
       },
       serializers: {
+        // Headers (cookie, authorization) stay out entirely; the URL loses its tokens.
         req: (req: { id: string; method: string; url: string }) => ({
           id: req.id,
           method: req.method,
-          url: req.url,
+          url: loggableUrl(req.url),
         }),
         res: (res: { statusCode: number }) => ({ status: res.statusCode }),
+        err: safeError,
       },
     }),
   );
@@ -63,8 +66,10 @@ export function createApp(deps: AppDeps) {
           'upgrade-insecure-requests': null,
         },
       },
+      strictTransportSecurity: false,
     }),
   );
+  app.use(onlyOverHttps(deps.env, strictTransportSecurity()));
 
   const sessions = createSessionMiddleware(deps.env, deps.pool);
   const sameOrigin = sameOriginOnly(appOrigin(deps.env));
@@ -84,6 +89,16 @@ export function createApp(deps: AppDeps) {
 
   app.use(errorHandler);
   return app;
+}
+
+/**
+ * HSTS means something only over TLS (RFC 6797 §7.2: not sent over plain http). It goes out when
+ * the request arrived secure (directly, or per X-Forwarded-Proto from a loopback proxy) or when
+ * the app's public origin is https, as behind a TLS proxy the app cannot see.
+ */
+function onlyOverHttps(env: AppDeps['env'], middleware: RequestHandler): RequestHandler {
+  const httpsOrigin = isHttps(env);
+  return (req, res, next) => (httpsOrigin || req.secure ? middleware(req, res, next) : next());
 }
 
 function serveClient(app: express.Express, webDist: string) {

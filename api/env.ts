@@ -1,5 +1,8 @@
 import { z } from 'zod';
 
+const secretMissing = (issue: { input: unknown }) =>
+  issue.input === undefined ? 'required (npm start makes demo values under DATA_DIR)' : 'must be text';
+
 const port = z.coerce.number({ error: 'must be a port number (1–65535)' }).int().min(1).max(65535);
 
 const envSchema = z.object({
@@ -19,9 +22,10 @@ const envSchema = z.object({
   /** OpenID provider; the demo runs its own stand-in here. */
   OIDC_ISSUER: z.url().default('http://127.0.0.1:3001'),
   OIDC_CLIENT_ID: z.string().min(1).default('brinewatch-web'),
-  OIDC_CLIENT_SECRET: z.string().min(16).default('brinewatch-demo-client-secret'),
-  /** Signs the session cookie; list several (comma-separated) to rotate. */
-  SESSION_SECRET: z.string().min(32).default('brinewatch-demo-session-secret-change-me'),
+  /** No default: the demo makes its own under DATA_DIR (api/dev/demo-secrets.ts). */
+  OIDC_CLIENT_SECRET: z.string({ error: secretMissing }).min(16),
+  /** Signs the session and pre-login cookies; list several (comma-separated) to rotate. */
+  SESSION_SECRET: z.string({ error: secretMissing }).min(32),
   SESSION_IDLE_MINUTES: z.coerce
     .number()
     .int()
@@ -55,12 +59,15 @@ const envSchema = z.object({
   /** The demo's mailbox page (the SMTP stand-in's viewer). */
   MAILBOX_PORT: port.default(3025),
   INVITATION_DAYS: z.coerce.number().int().positive().default(7),
+  /** How long audit entries are kept before the daily sweep purges them (a year and a month). */
+  AUDIT_RETENTION_DAYS: z.coerce.number().int().min(1).default(400),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
 export type Env = z.infer<typeof envSchema>;
 
-const demoSecrets = ['OIDC_CLIENT_SECRET', 'SESSION_SECRET'] as const;
+/** Defaults that only fit the demo's object-storage stand-in. */
+const standInCredentials = ['S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY'] as const;
 
 /** Reads the environment once; a bad value stops the start with one readable line per problem. */
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
@@ -68,9 +75,9 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const lines = result.success
     ? []
     : result.error.issues.map((issue) => `${issue.path.join('.') || 'environment'}: ${issue.message}`);
-  // The demo's built-in secrets are public; production must bring its own.
+  // The stand-in's credentials are public; production must bring its own.
   if (source.NODE_ENV === 'production') {
-    for (const name of demoSecrets) if (!source[name]) lines.push(`${name}: required in production`);
+    for (const name of standInCredentials) if (!source[name]) lines.push(`${name}: required in production`);
   }
   if (!result.success || lines.length > 0) throw new EnvError(lines);
   return result.data;

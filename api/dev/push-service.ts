@@ -97,6 +97,10 @@ export interface RunningPushService {
     status: 404 | 410 | 429 | 500,
     options?: { times?: number; retryAfterSeconds?: number },
   ): void;
+  /** Stops listening (senders get "connection refused"), as if the service were down; subscriptions stay. */
+  pause(): Promise<void>;
+  /** Listens again on the same port. */
+  resume(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -303,7 +307,8 @@ export async function startPushService(options: PushServiceOptions): Promise<Run
     });
   });
   server.on('error', (error) => console.error('Brinewatch push stand-in: server error', error));
-  origin = `https://${host}:${(server.address() as AddressInfo).port}`;
+  const { port } = server.address() as AddressInfo;
+  origin = `https://${host}:${port}`;
 
   const subscriptionIdOf = (endpointOrId: string): string => {
     const prefix = `${origin}/push/`;
@@ -347,8 +352,24 @@ export async function startPushService(options: PushServiceOptions): Promise<Run
       for (let i = 0; i < times; i += 1) queue.push({ status, retryAfterSeconds });
       failures.set(id, queue);
     },
+    pause: () =>
+      new Promise<void>((resolve, reject) => {
+        if (!server.listening) return resolve();
+        server.close((error) => (error ? reject(error) : resolve()));
+        server.closeAllConnections();
+      }),
+    resume: () =>
+      new Promise<void>((resolve, reject) => {
+        if (server.listening) return resolve();
+        server.once('error', reject);
+        server.listen(port, host, () => {
+          server.off('error', reject);
+          resolve();
+        });
+      }),
     close: () =>
       new Promise<void>((resolve, reject) => {
+        if (!server.listening) return resolve();
         server.close((error) => (error ? reject(error) : resolve()));
         server.closeAllConnections();
       }),

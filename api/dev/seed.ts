@@ -2,6 +2,7 @@ import path from 'node:path';
 import { openLocalDatabase } from './local-database';
 import { startObjectStorage } from './object-storage';
 import { loadEnvOrExit } from '../env';
+import { withDemoSecrets } from './demo-secrets';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
 import { seedDemo } from './seed/index';
@@ -9,7 +10,7 @@ import { objectStorageFromEnv } from '../lib/object-storage';
 
 /** `npm run db:seed` (and `npm run db:migrate` with --migrate-only). */
 async function main() {
-  const env = loadEnvOrExit();
+  const env = loadEnvOrExit(await withDemoSecrets());
   const local = await openLocalDatabase(env);
   const { db, pool } = connectDatabase(local.url);
   try {

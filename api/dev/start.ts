@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { loadEnvOrExit } from '../env';
+import { withDemoSecrets } from './demo-secrets';
 import { loadOrCreateVapidKeys } from '../lib/vapid-keys';
 import { connectDatabase } from '../db/client';
 import { applyMigrations } from '../db/migrations';
@@ -15,7 +16,7 @@ import { startStandIns } from './stand-ins';
  * services, then the app serving the built client. `--dev` adds Vite's dev server.
  */
 async function main() {
-  const parsedEnv = loadEnvOrExit();
+  const parsedEnv = loadEnvOrExit(await withDemoSecrets());
   // Web push needs VAPID keys (RFC 8292): the demo makes a pair once and keeps it under DATA_DIR.
   const vapid =
     parsedEnv.VAPID_PUBLIC_KEY && parsedEnv.VAPID_PRIVATE_KEY

@@ -30,6 +30,9 @@ export interface Parsed<S extends Schemas> {
 export interface RequestContext<S extends Schemas> extends Parsed<S> {
   deps: AppDeps;
   requestId: string;
+  /** The caller's address (behind the trusted proxy, its X-Forwarded-For) and browser, for the audit trail. */
+  ip: string | null;
+  userAgent: string | null;
   /** The request's logger (its lines carry the request id). */
   log: Request['log'];
   /** The express-session data; read through a getter, as regenerating replaces it. */
@@ -117,6 +120,42 @@ export function issuesFrom(error: z.ZodError, prefix: string): ErrorIssue[] {
   }));
 }
 
+const loneSurrogate = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+function textProblem(text: string): string | null {
+  if (text.includes('\u0000')) return 'must not contain a NUL character (U+0000)';
+  if (loneSurrogate.test(text)) return 'must be valid Unicode text (it holds half of a surrogate pair)';
+  return null;
+}
+
+/**
+ * Text PostgreSQL refuses to store: NUL in text columns, lone UTF-16 surrogates in json/jsonb (and,
+ * written as UTF-8, anywhere). Checked here, before any schema, for every part a route reads, so no
+ * route can forget it and each issue names its field. Walked with a stack, not recursion, so a
+ * deeply nested body cannot overflow it. (OWASP ASVS 5.0, V1 Encoding and Sanitization / V2
+ * Validation and Business Logic: input is checked against what the data store accepts.)
+ */
+export function unstorableText(value: unknown, prefix: string): ErrorIssue[] {
+  const issues: ErrorIssue[] = [];
+  const stack: Array<{ value: unknown; path: string }> = [{ value, path: prefix }];
+  while (stack.length > 0) {
+    const { value: item, path } = stack.pop()!;
+    if (typeof item === 'string') {
+      const problem = textProblem(item);
+      if (problem) issues.push({ path, message: problem });
+    } else if (Array.isArray(item)) {
+      item.forEach((entry, index) => stack.push({ value: entry, path: `${path}.${index}` }));
+    } else if (typeof item === 'object' && item !== null) {
+      for (const [key, entry] of Object.entries(item)) {
+        const problem = textProblem(key);
+        if (problem) issues.push({ path, message: `a field name ${problem}` });
+        else stack.push({ value: entry, path: `${path}.${key}` });
+      }
+    }
+  }
+  return issues;
+}
+
 /** Parses the request parts; every issue of every part is reported at once, as `body.name` paths. */
 function parseRequest<S extends Schemas>(schemas: S, req: Request): Parsed<S> {
   const valid: Record<string, unknown> = {};
@@ -124,6 +163,11 @@ function parseRequest<S extends Schemas>(schemas: S, req: Request): Parsed<S> {
   for (const part of ['params', 'query', 'body'] as const) {
     const schema = schemas[part];
     if (!schema) continue;
+    const unstorable = unstorableText(req[part], part);
+    if (unstorable.length > 0) {
+      issues.push(...unstorable);
+      continue;
+    }
     const result = schema.safeParse(req[part] ?? {});
     if (result.success) valid[part] = result.data;
     else issues.push(...issuesFrom(result.error, part));
@@ -137,6 +181,8 @@ function contextOf<S extends Schemas>(schemas: S, req: Request, res: Response): 
     ...parseRequest(schemas, req),
     deps: depsOf(req),
     requestId: String(req.id),
+    ip: req.ip ?? null,
+    userAgent: req.get('user-agent') ?? null,
     log: req.log,
     get session() {
       return req.session;

@@ -2,6 +2,7 @@ import type { RequestHandler } from 'express';
 import { depsOf } from '../deps';
 import { HttpError } from '../lib/http-error';
 import { devicePolicy } from '../policy/index';
+import { countFailure } from './rate-limit';
 import { findDeviceByToken, type DeviceIdentity } from '../services/devices';
 
 declare module 'express-serve-static-core' {
@@ -23,9 +24,15 @@ function refused(message: string) {
 export const deviceToken: RequestHandler = devicePolicy(async (req, res, next) => {
   res.setHeader('WWW-Authenticate', 'Bearer realm="brinewatch-ingest"');
   const match = bearer.exec(req.headers.authorization ?? '');
-  if (!match) return next(refused('Send the device token as "Authorization: Bearer <token>".'));
+  if (!match) {
+    await countFailure(req);
+    return next(refused('Send the device token as "Authorization: Bearer <token>".'));
+  }
   const device = await findDeviceByToken(depsOf(req).db, match[1]!);
-  if (!device) return next(refused('This device token is not valid or has been revoked.'));
+  if (!device) {
+    await countFailure(req);
+    return next(refused('This device token is not valid or has been revoked.'));
+  }
   res.removeHeader('WWW-Authenticate');
   req.device = device;
   next();

@@ -1,4 +1,4 @@
-import type { Request, RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import type pg from 'pg';
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import { depsOf } from '../deps';
@@ -14,10 +14,34 @@ export interface RateLimit {
   keyOf: (req: Request) => string;
   /** The sentence a refused caller reads, given how many seconds to wait. */
   message: (retryAfterS: number) => string;
+  /**
+   * `'failures'`: only refused attempts spend the budget (the route reports each one with
+   * `countFailure(req)`); once it is spent every request is refused before any check runs, so
+   * guessing stops while honest callers, who rarely fail, are never slowed. Default: every request.
+   */
+  counts?: 'requests' | 'failures';
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    /** Set by failure-counting limits in front of the handler; see `countFailure`. */
+    rateLimitFailures?: Array<() => Promise<void>>;
+  }
 }
 
 /** A budget per signed-in person. */
 export const perActor = (req: Request) => requireActor(req.actor).id;
+
+/**
+ * A budget per client address. `trust proxy` is loopback only, so behind our own reverse proxy this
+ * is the browser's address and a client cannot choose it with X-Forwarded-For.
+ */
+export const perIp = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown';
+
+/** Spends one point of every failure-counting limit in front of this request. */
+export async function countFailure(req: Request) {
+  for (const spend of req.rateLimitFailures ?? []) await spend();
+}
 
 /** A budget per device, after `deviceToken` has proved which one is calling. */
 export const perDevice = (req: Request) => {
@@ -50,15 +74,33 @@ export function rateLimit(limit: RateLimit): RequestHandler {
     return limiter;
   };
 
+  const refuse = (res: Response, msBeforeNext: number) => {
+    const retryAfterS = Math.max(1, Math.ceil(msBeforeNext / 1000));
+    res.setHeader('Retry-After', String(retryAfterS));
+    return new HttpError(429, 'rate_limited', limit.message(retryAfterS));
+  };
+
+  if (limit.counts === 'failures') {
+    return async (req, res, next) => {
+      const key = limit.keyOf(req);
+      const limiter = limiterFor(depsOf(req).pool);
+      const spent = await limiter.get(key);
+      if (spent && spent.consumedPoints >= limit.points) throw refuse(res, spent.msBeforeNext);
+      req.rateLimitFailures = [
+        ...(req.rateLimitFailures ?? []),
+        async () => void (await limiter.penalty(key, 1)),
+      ];
+      next();
+    };
+  }
+
   return async (req, res, next) => {
     const key = limit.keyOf(req);
     try {
       await limiterFor(depsOf(req).pool).consume(key);
     } catch (outcome) {
       if (!(outcome instanceof RateLimiterRes)) throw outcome;
-      const retryAfterS = Math.max(1, Math.ceil(outcome.msBeforeNext / 1000));
-      res.setHeader('Retry-After', String(retryAfterS));
-      throw new HttpError(429, 'rate_limited', limit.message(retryAfterS));
+      throw refuse(res, outcome.msBeforeNext);
     }
     next();
   };

@@ -3,7 +3,6 @@ import type { RequestHandler } from 'express';
 import session, { type Session } from 'express-session';
 import type pg from 'pg';
 import type { Env } from '../env';
-import type { PendingLogin } from '../lib/oidc-client';
 
 declare module 'express-session' {
   interface SessionData {
@@ -12,9 +11,6 @@ declare module 'express-session' {
     signedInAt: number;
     lastSeenAt: number;
     idToken: string;
-    pendingLogin: PendingLogin;
-    /** SHA-256 of an invitation token opened before signing in. */
-    pendingInvitation: string;
     noAccess: { email: string | null; name: string | null; reason: string };
   }
 }

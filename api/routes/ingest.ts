@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { deviceIngestEnvelope } from '@shared/schemas/readings';
 import { deviceRoute } from '../lib/route';
 import { deviceToken } from '../middleware/device-token';
-import { perDevice, rateLimit } from '../middleware/rate-limit';
+import { perDevice, perIp, rateLimit } from '../middleware/rate-limit';
 import { ingestReadings } from '../services/ingest';
 
 /**
@@ -25,8 +25,24 @@ const limitIngestRate = rateLimit({
     `This device has sent more than ${ingestRateLimit.points} requests in ${ingestRateLimit.durationS} s. Try again in ${retryAfterS} s.`,
 });
 
+/**
+ * Per client address, counting refused tokens only: a device with a typo'd token retrying every
+ * few minutes stays well inside it, while guessing stops after a few tries (common practice).
+ */
+export const deviceTokenFailureLimit = { points: 20, durationS: 10 * 60 } as const;
+
+const limitDeviceTokenFailures = rateLimit({
+  name: 'device-token-failures',
+  ...deviceTokenFailureLimit,
+  counts: 'failures',
+  keyOf: perIp,
+  message: (retryAfterS) =>
+    `Too many refused device tokens from this address. Try again in ${retryAfterS} s.`,
+});
+
 ingestRouter.post(
   '/readings',
+  limitDeviceTokenFailures,
   deviceToken,
   limitIngestRate,
   deviceRoute({ body: deviceIngestEnvelope }, ({ deps, device, body }) =>

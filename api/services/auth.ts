@@ -2,6 +2,7 @@ import type { SessionData } from 'express-session';
 import type { AppDeps } from '../deps';
 import type { Logger } from '../lib/logger';
 import { SignInRefused, type OidcClient, type PendingLogin, type VerifiedIdentity } from '../lib/oidc-client';
+import { recordAudit, type AuditSource } from './audit';
 import { acceptPendingInvitation } from './invitations';
 import { findUserByIdentity } from './users';
 
@@ -32,13 +33,16 @@ export type SignInOutcome =
   | { kind: 'refused'; reason: string };
 
 /**
- * The callback. The caller takes the pending state and nonce out of the session before calling,
- * so they are accepted once, and gives the session a new id at sign-in (OWASP ASVS V7).
+ * The callback. The caller removes the pre-login cookie (state, nonce, PKCE verifier) first,
+ * and the provider redeems a code once, and gives the session a new id at sign-in (OWASP ASVS V7).
+ * Outcomes for a person of a company go to its audit trail; a refusal that belongs to no company
+ * (an unverifiable token, an identity nobody invited) goes to the log (OWASP ASVS 5.0 V16).
  */
 export async function completeSignIn(
   deps: AppDeps,
   log: Logger,
   callback: { url: URL; pending: PendingLogin | undefined; invitationHash: string | undefined },
+  source: AuditSource,
 ): Promise<SignInOutcome> {
   const { pending, invitationHash } = callback;
   if (!pending) return { kind: 'refused', reason: 'This sign-in link has already been used or has expired.' };
@@ -47,27 +51,43 @@ export async function completeSignIn(
     identity = await deps.oidc.finishLogin(callback.url, pending);
   } catch (error) {
     if (error instanceof SignInRefused) {
-      log.warn({ reason: error.reason }, 'sign-in refused');
+      log.warn({ reason: error.reason, ip: source.ip }, 'sign-in refused');
       return { kind: 'refused', reason: 'The sign-in could not be verified. Please try again.' };
     }
     throw error;
   }
 
-  const now = deps.clock();
+  const now = source.at;
   let user = await findUserByIdentity(deps.db, identity.issuer, identity.subject);
   if (invitationHash) {
-    user = (await acceptPendingInvitation(deps, invitationHash, identity, user, now)) ?? user;
+    user = (await acceptPendingInvitation(deps, invitationHash, identity, user, source)) ?? user;
   }
   if (!user || user.status !== 'active') {
+    const reason = user ? 'deactivated' : invitationHash ? 'invitation-invalid' : 'not-invited';
+    if (user) {
+      await recordAudit(deps.db, {
+        companyId: user.companyId,
+        actor: user,
+        action: 'sign-in.failed',
+        details: { reason },
+        source,
+      });
+    } else {
+      log.warn(
+        { reason, issuer: identity.issuer, subject: identity.subject, ip: source.ip },
+        'sign-in refused',
+      );
+    }
     return {
       kind: 'no-access',
       noAccess: {
         email: identity.email,
         name: identity.name,
-        reason: user ? 'deactivated' : invitationHash ? 'invitation-invalid' : 'not-invited',
+        reason,
       },
     };
   }
+  await recordAudit(deps.db, { companyId: user.companyId, actor: user, action: 'sign-in.succeeded', source });
   // Someone who came in through the front door goes to their own start page.
   const home = user.role === 'owner' ? '/tanks' : '/console';
   return {

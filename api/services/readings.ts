@@ -1,6 +1,7 @@
 import { sql, type SQL } from 'drizzle-orm';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { toStored } from '@shared/parameters/units';
+import { dayMs } from '@shared/parameters/catalogue';
 import { csvHeaderLine, readingCsvLine } from '@shared/readings/csv';
 import {
   futureToleranceMs,
@@ -271,13 +272,108 @@ export async function listReadings(
 
 export interface ReadingsCsv {
   fileName: string;
-  /** The header line, then the readings newest first, a page at a time. */
+  /** The header line, then the readings oldest first by (measured at, id), a page at a time. */
   lines: AsyncIterable<string>;
 }
 
+/** The longest stretch one export covers: a year of 5-minute device data with room for a season. */
+export const maxExportDays = 400;
+const exportPageSize = 2000;
+
+type ExportRow = ReadingRow & { at: string };
+
 /**
- * The filtered readings as CSV, read page by page while the caller writes them, so a year of
- * device data never sits in memory. Access is checked before anything is written.
+ * One parameter's readings oldest first, by keyset on (measured_at, id) down readings_history_idx
+ * (tank, parameter, measured_at), `exportPageSize` rows per query. Each query reads only the rows
+ * it returns (a source filter aside, which the index does not hold), and no connection is held
+ * between pages.
+ */
+async function* parameterPages(
+  db: Db,
+  tankId: string,
+  parameter: ParameterKey,
+  filter: { source?: ReadingSource; from: string; to?: string },
+): AsyncGenerator<ExportRow[]> {
+  let after: { at: string; id: number } | null = null;
+  for (;;) {
+    const conditions: SQL[] = [
+      sql`r.tank_id = ${tankId}`,
+      sql`r.parameter = ${parameter}`,
+      sql`r.measured_at >= ${filter.from}::timestamptz`,
+    ];
+    if (filter.to) conditions.push(sql`r.measured_at <= ${filter.to}::timestamptz`);
+    if (filter.source) conditions.push(sql`r.source = ${filter.source}`);
+    if (after) {
+      // The plain bound gives the index its range; the row comparison breaks ties by id.
+      conditions.push(sql`r.measured_at >= ${after.at}::timestamptz`);
+      conditions.push(sql`(r.measured_at, r.id) > (${after.at}::timestamptz, ${after.id}::bigint)`);
+    }
+    const { rows } = await db.execute<ExportRow>(sql`
+      select ${readingColumns(sql`r`)}, r.measured_at::text as at
+      from readings r
+      where ${sql.join(conditions, sql` and `)}
+      order by r.measured_at, r.id
+      limit ${exportPageSize}`);
+    if (rows.length > 0) yield rows;
+    if (rows.length < exportPageSize) return;
+    const last = rows.at(-1)!;
+    after = { at: last.at, id: Number(last.id) };
+  }
+}
+
+const before = (a: ExportRow, b: ExportRow) => {
+  const byTime = Number(a.measured_at_ms) - Number(b.measured_at_ms);
+  return byTime < 0 || (byTime === 0 && Number(a.id) < Number(b.id));
+};
+
+/**
+ * The parameters' pages merged into one (measured_at, id) order. At most one page per parameter is
+ * held at a time, so memory stays flat however long the range.
+ */
+async function* mergedReadings(streams: AsyncGenerator<ExportRow[]>[]): AsyncGenerator<ExportRow> {
+  const heads: { stream: AsyncGenerator<ExportRow[]>; page: ExportRow[]; next: number }[] = [];
+  for (const stream of streams) {
+    const first = await stream.next();
+    if (!first.done) heads.push({ stream, page: first.value, next: 0 });
+  }
+  while (heads.length > 0) {
+    let pick = 0;
+    for (let i = 1; i < heads.length; i += 1) {
+      if (before(heads[i]!.page[heads[i]!.next]!, heads[pick]!.page[heads[pick]!.next]!)) pick = i;
+    }
+    const head = heads[pick]!;
+    yield head.page[head.next]!;
+    head.next += 1;
+    if (head.next < head.page.length) continue;
+    const more = await head.stream.next();
+    if (more.done) heads.splice(pick, 1);
+    else Object.assign(head, { page: more.value, next: 0 });
+  }
+}
+
+/** The export's stretch: `from` defaults to `maxExportDays` before `to` (or now); longer is refused. */
+function exportRange(query: ReadingExportQuery, now: Date): { from: string; to?: string } {
+  const end = query.to ? new Date(query.to) : now;
+  const from = query.from ?? new Date(end.getTime() - maxExportDays * dayMs).toISOString();
+  const spanMs = end.getTime() - new Date(from).getTime();
+  if (spanMs < 0) {
+    throw badRequest('invalid_request', 'The export range ends before it starts.', [
+      { path: 'query.to', message: 'must not be before from' },
+    ]);
+  }
+  if (spanMs > maxExportDays * dayMs) {
+    throw badRequest(
+      'range_too_long',
+      `An export covers at most ${maxExportDays} days; choose a shorter range or export it in parts.`,
+      [{ path: 'query.from', message: `must be at most ${maxExportDays} days before the end of the range` }],
+    );
+  }
+  return { from, ...(query.to ? { to: query.to } : {}) };
+}
+
+/**
+ * The filtered readings as CSV, oldest first, read page by page while the caller writes them, so a
+ * year of device data never sits in memory. Access and range are checked before anything is written.
  */
 export async function exportReadingsCsv(
   db: Db,
@@ -287,23 +383,28 @@ export async function exportReadingsCsv(
   now: Date,
 ): Promise<ReadingsCsv> {
   const tank = await findTankFor(db, actor, tankId, 'read');
+  const range = exportRange(query, now);
   const day = now.toISOString().slice(0, 10);
   const slug =
     tank.name
       .toLowerCase()
       .replace(/[^a-z0-9]+/g, '-')
       .replace(/^-|-$/g, '') || 'tank';
+  const parameters = query.parameter ? [query.parameter] : [...parameterKeys];
   async function* lines() {
     yield csvHeaderLine();
-    const pageSize = 2000;
-    let before: string | undefined;
-    for (;;) {
-      const page = await readingsPage(db, tank.id, { ...query, before }, pageSize);
-      if (page.length === 0) break;
-      yield page.map(readingCsvLine).join('');
-      if (page.length < pageSize) break;
-      before = cursorOf(page.at(-1)!);
+    const streams = parameters.map((parameter) =>
+      parameterPages(db, tank.id, parameter, { ...range, source: query.source }),
+    );
+    let chunk: string[] = [];
+    for await (const row of mergedReadings(streams)) {
+      chunk.push(readingCsvLine(readingFromRow(row)));
+      if (chunk.length === exportPageSize) {
+        yield chunk.join('');
+        chunk = [];
+      }
     }
+    if (chunk.length > 0) yield chunk.join('');
   }
   return { fileName: `${slug}-readings-${query.parameter ?? 'all'}-${day}.csv`, lines: lines() };
 }

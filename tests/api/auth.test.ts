@@ -45,7 +45,12 @@ describe('sign-in through OpenID Connect', () => {
   });
 
   it('sets an HttpOnly, SameSite=Lax session cookie and changes the session id at sign-in', async () => {
+    // Starting a sign-in stores no session, so the id to replace is one already in the browser,
+    // as a planted (fixated) cookie would be.
+    const earlier = new HttpBrowser();
+    await signIn(stack, earlier, owner);
     const browser = new HttpBrowser();
+    browser.restore(stack.origin, earlier.snapshot(stack.origin));
     const { form } = await openSignInPage(stack, browser);
     const before = browser.cookies(stack.origin).get('bw_session');
     const callback = await submitSignIn(stack, browser, form.action, owner);

@@ -3,7 +3,7 @@ import { EnvError, parseEnv } from '../../api/env';
 
 describe('parseEnv', () => {
   it('fills in the defaults for the demo', () => {
-    const env = parseEnv({});
+    const env = parseEnv({ SESSION_SECRET: 'x'.repeat(32), OIDC_CLIENT_SECRET: 'y'.repeat(16) });
     expect(env.PORT).toBe(3000);
     expect(env.PGPORT_LOCAL).toBe(54329);
   });

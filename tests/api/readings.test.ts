@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { readings, tanks } from '../../api/db/schema/index';
 import { readingsFromCsv } from '@shared/readings/csv';
-import { createTank } from '../helpers/factories';
+import { createTank, insertReadings } from '../helpers/factories';
 import { minutes } from '../helpers/clock';
 import { startTestStack, type TestStack } from '../helpers/stack';
 import { minutesAgo, readingCount, readingsWorld } from './readings-kit';
@@ -319,6 +319,65 @@ describe('readings entered by people', () => {
         'body.readings.2.measuredAt',
       ]);
       expect(await readingCount(stack.database.db, tank)).toBe(0);
+    });
+
+    it('exports every reading exactly once, oldest first, across page boundaries', async () => {
+      const { tank } = await readingsWorldTank();
+      const target = { id: tank, companyId: world.company.id };
+      const end = stack.clock.now().getTime() - 60 * 60_000;
+      // 4,500 temperatures and 2,300 pH readings: both cross the 2,000-row pages, and every third
+      // pH shares its moment with a temperature, so ties between parameters must be broken by id.
+      await insertReadings(
+        stack.database.db,
+        target,
+        Array.from({ length: 4500 }, (_, i) => ({
+          parameter: 'temperature' as const,
+          value: 25 + (i % 10) / 10,
+          measuredAt: new Date(end - (4500 - i) * 60_000),
+        })),
+      );
+      await insertReadings(
+        stack.database.db,
+        target,
+        Array.from({ length: 2300 }, (_, i) => ({
+          parameter: 'ph' as const,
+          value: 8 + (i % 5) / 100,
+          measuredAt: new Date(end - (4500 - i * 3) * 60_000 + (i % 3 === 0 ? 0 : 30_000)),
+        })),
+      );
+      const expected = (
+        await stack.database.pool.query<{ id: string; at: Date; parameter: string }>(
+          'select id, measured_at as at, parameter from readings where tank_id = $1 order by measured_at, id',
+          [tank],
+        )
+      ).rows.map((row) => `${row.at.toISOString()} ${row.parameter}`);
+
+      const res = await world.call('owner', 'GET', `/api/tanks/${tank}/readings/export`);
+      const lines = (res.body as string).split('\r\n').filter(Boolean).slice(1);
+      const exported = lines.map((line) => line.split(',').slice(0, 2).join(' '));
+      const times = lines.map((line) => Date.parse(line.split(',')[0]!));
+
+      expect(res.status).toBe(200);
+      expect(expected).toHaveLength(6800);
+      expect(exported).toEqual(expected);
+      expect(times.every((t, i) => i === 0 || t >= times[i - 1]!)).toBe(true);
+    });
+
+    it('refuses an export longer than 400 days, naming the limit', async () => {
+      const { tank } = await readingsWorldTank();
+      const to = stack.clock.now();
+      const from = new Date(to.getTime() - 401 * 24 * 3_600_000);
+
+      const res = await world.call(
+        'owner',
+        'GET',
+        `/api/tanks/${tank}/readings/export?from=${from.toISOString()}&to=${to.toISOString()}`,
+      );
+
+      expect(res.status).toBe(400);
+      expect(res.body.error.code).toBe('range_too_long');
+      expect(res.body.error.message).toMatch(/at most 400 days/);
+      expect(res.body.error.issues).toEqual([{ path: 'query.from', message: expect.any(String) }]);
     });
   });
 

@@ -11,6 +11,7 @@ import { startStandIns } from '../../api/dev/stand-ins';
 import { parseEnv } from '../../api/env';
 import { createLogger } from '../../api/lib/logger';
 import { startServer, webDist } from '../../api/server';
+import { testSecrets } from './app';
 import { ensureChromium } from './chromium';
 import { createDatabaseFrom } from './db';
 import { freePort } from './free-port';
@@ -48,6 +49,7 @@ export default async function setup(project: TestProject) {
     SMTP_PORT: String(smtpPort),
     S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
     DATA_DIR: dataDir,
+    ...testSecrets,
     VAPID_PUBLIC_KEY: vapid.publicKey,
     VAPID_PRIVATE_KEY: vapid.privateKey,
   });

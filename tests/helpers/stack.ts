@@ -15,7 +15,8 @@ import { listenForEvents } from '../../api/lib/event-bus';
 import { startJobQueue } from '../../api/lib/job-queue';
 import { startWorkers } from '../../api/services/workers';
 import { parseEnv } from '../../api/env';
-import { createLogger } from '../../api/lib/logger';
+import { createLogger, type Logger } from '../../api/lib/logger';
+import { testSecrets } from './app';
 import { createTestClock, type TestClock } from './clock';
 import { createTestDatabase, type TestDatabase } from './db';
 import { freePort } from './free-port';
@@ -52,6 +53,8 @@ export async function startTestStack(
     env?: Record<string, string>;
     /** Run the job queue, its workers, web push (to the local push service) and live events. */
     background?: boolean;
+    /** Where the app logs; silent unless given. */
+    logger?: Logger;
   } = {},
 ) {
   const database = await createTestDatabase();
@@ -111,6 +114,7 @@ export async function startTestStack(
     OIDC_ISSUER: idp.issuer,
     OIDC_CLIENT_ID: testClient.clientId,
     OIDC_CLIENT_SECRET: testClient.clientSecret,
+    SESSION_SECRET: testSecrets.SESSION_SECRET,
     SMTP_PORT: String(mail.smtpPort),
     S3_ENDPOINT: storage.endpoint,
     S3_BUCKET: storage.bucket,
@@ -118,7 +122,7 @@ export async function startTestStack(
     ...options.env,
   });
   const clock = createTestClock();
-  const logger = createLogger('silent');
+  const logger = options.logger ?? createLogger('silent');
   const jobs = options.background ? await startJobQueue(database.url, logger) : null;
   const events = options.background ? listenForEvents(database.url, logger) : null;
   await events?.ready;

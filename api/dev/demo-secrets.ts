@@ -1,0 +1,64 @@
+import { randomBytes } from 'node:crypto';
+import { chmod, mkdir, readFile, stat, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+
+/** The secrets the app refuses to start without, made for the demo instead of shipped in the code. */
+export interface DemoSecrets {
+  SESSION_SECRET: string;
+  OIDC_CLIENT_SECRET: string;
+}
+
+const fileName = 'secrets.json';
+
+/**
+ * The demo's own secrets: made at first start and kept in `dir/secrets.json` (mode 0600), so
+ * sessions survive a restart and the identity-provider stand-in and the app agree on the client
+ * secret. Production passes them through the environment; with NODE_ENV=production nothing is made
+ * here and the start fails with the missing names.
+ */
+export async function loadOrCreateDemoSecrets(dir: string): Promise<DemoSecrets> {
+  const path = join(dir, fileName);
+  await mkdir(dir, { recursive: true });
+  const created: DemoSecrets = {
+    SESSION_SECRET: randomBytes(32).toString('base64url'),
+    OIDC_CLIENT_SECRET: randomBytes(32).toString('base64url'),
+  };
+  try {
+    // 'wx' fails when the file exists, so two processes starting together keep one set.
+    await writeFile(path, `${JSON.stringify(created, null, 2)}\n`, { flag: 'wx', mode: 0o600 });
+    return created;
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+  }
+  if (((await stat(path)).mode & 0o077) !== 0) await chmod(path, 0o600);
+  return parseDemoSecrets(await readFile(path, 'utf8'), path);
+}
+
+function parseDemoSecrets(text: string, path: string): DemoSecrets {
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch {
+    throw new Error(`${path} is not JSON. Delete it to make new demo secrets (everyone signs in again).`);
+  }
+  const { SESSION_SECRET, OIDC_CLIENT_SECRET } = (value ?? {}) as Partial<Record<keyof DemoSecrets, unknown>>;
+  if (
+    typeof SESSION_SECRET !== 'string' ||
+    SESSION_SECRET.length < 32 ||
+    typeof OIDC_CLIENT_SECRET !== 'string' ||
+    OIDC_CLIENT_SECRET.length < 16
+  ) {
+    throw new Error(`${path} lacks SESSION_SECRET or OIDC_CLIENT_SECRET. Delete it to make new ones.`);
+  }
+  return { SESSION_SECRET, OIDC_CLIENT_SECRET };
+}
+
+/**
+ * The environment the demo starts with: what the caller set wins; missing secrets come from
+ * DATA_DIR, except in production, which must bring its own.
+ */
+export async function withDemoSecrets(source: NodeJS.ProcessEnv = process.env): Promise<NodeJS.ProcessEnv> {
+  if (source.NODE_ENV === 'production' || (source.SESSION_SECRET && source.OIDC_CLIENT_SECRET)) return source;
+  const secrets = await loadOrCreateDemoSecrets(join(source.DATA_DIR || '.data', 'secrets'));
+  return { ...secrets, ...source };
+}
