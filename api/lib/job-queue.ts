@@ -1,4 +1,4 @@
-import { PgBoss } from 'pg-boss';
+import { PgBoss, type Queue } from 'pg-boss';
 import type { Logger } from './logger';
 
 /** Every queue the app uses, created at start (pg-boss refuses to send to a missing queue). */
@@ -10,6 +10,15 @@ export const queues = {
   sweep: 'alert-sweep',
 } as const;
 
+/*
+ * A worker that dies mid-job stops the heartbeat `work()` sends every 15 s, and the next monitor pass
+ * of any live instance (pg-boss checks every 60 s) retries the job, instead of leaving it active
+ * until the 15-minute expiry. The expiry stays at pg-boss's default: it bounds a live handler,
+ * which must outlast the mail transport's own socket timeout, or a slow send would be retried
+ * while it may still succeed.
+ */
+const heartbeatSeconds = 30;
+
 /** Deliveries retry with exponential backoff for about a day before they land in the dead-letter queue. */
 const deliveryRetries = {
   retryLimit: 20,
@@ -17,17 +26,31 @@ const deliveryRetries = {
   retryBackoff: true,
   retryDelayMax: 15 * 60,
   deadLetter: queues.dead,
+  heartbeatSeconds,
 };
+
+type QueueSettings = Omit<Queue, 'name' | 'policy' | 'partition'>;
+
+/** `createQueue` leaves an existing queue as it was, so a database made by an older release is updated too. */
+async function ensureQueue(boss: PgBoss, name: string, settings: QueueSettings) {
+  await boss.createQueue(name, settings);
+  await boss.updateQueue(name, settings);
+}
 
 export async function startJobQueue(databaseUrl: string, logger: Logger): Promise<PgBoss> {
   const boss = new PgBoss({ connectionString: databaseUrl, max: 4 });
   // An unhandled 'error' event would end the process; log it and carry on (pg-boss retries).
   boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
   await boss.start();
-  await boss.createQueue(queues.dead, { retentionSeconds: 30 * 24 * 3600 });
-  await boss.createQueue(queues.fanOut, { retryLimit: 10, retryDelay: 1, retryBackoff: true });
-  await boss.createQueue(queues.email, deliveryRetries);
-  await boss.createQueue(queues.push, deliveryRetries);
-  await boss.createQueue(queues.sweep, { retryLimit: 0 });
+  await ensureQueue(boss, queues.dead, { retentionSeconds: 30 * 24 * 3600 });
+  await ensureQueue(boss, queues.fanOut, {
+    retryLimit: 10,
+    retryDelay: 1,
+    retryBackoff: true,
+    heartbeatSeconds,
+  });
+  await ensureQueue(boss, queues.email, deliveryRetries);
+  await ensureQueue(boss, queues.push, deliveryRetries);
+  await ensureQueue(boss, queues.sweep, { retryLimit: 0 });
   return boss;
 }

@@ -1,20 +1,19 @@
 import { z } from 'zod';
 import { auditAction, auditTargetKind, type AuditAction, type AuditTargetKind } from '@shared/audit/actions';
-
-const isoInstant = z.iso.datetime({ offset: true });
+import { instant } from '@shared/time/plausible';
 
 /** A position in the trail, newest first: the `next` of the previous page. */
 export const auditCursor = z
   .string()
-  .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_\d+$/, 'use the cursor the previous page gave');
+  .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_\d{1,15}$/, 'use the cursor the previous page gave');
 
 export const auditFilters = z.object({
   action: auditAction.optional(),
   /** Part of the name or e-mail address of whoever did it. */
   actor: z.string().trim().min(1).max(200).optional(),
   targetKind: auditTargetKind.optional(),
-  from: isoInstant.optional(),
-  to: isoInstant.optional(),
+  from: instant.optional(),
+  to: instant.optional(),
 });
 export type AuditFilters = z.infer<typeof auditFilters>;
 

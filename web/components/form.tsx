@@ -4,7 +4,9 @@ import {
   FormProvider,
   useForm,
   useFormContext,
+  type FieldErrors,
   type FieldValues,
+  type Path,
   type UseFormProps,
   type UseFormReturn,
 } from 'react-hook-form';
@@ -59,19 +61,38 @@ export function Form<TInput extends FieldValues, TOutput extends FieldValues>({
         noValidate
         {...props}
         onSubmit={(event) =>
-          void form.handleSubmit(async (values) => {
-            try {
-              await onSubmit(values);
-            } catch (error) {
-              applyServerIssues(form, error, fieldFor);
-            }
-          })(event)
+          void form.handleSubmit(
+            async (values) => {
+              try {
+                await onSubmit(values);
+              } catch (error) {
+                applyServerIssues(form, error, fieldFor);
+              }
+            },
+            // Focus goes to the first field the check refused, so a keyboard or screen reader
+            // lands on the problem (react-hook-form's own focusing misses fields bound by name).
+            (errors) => {
+              const first = firstErrorPath(errors);
+              if (first) form.setFocus(first as Path<TInput>);
+            },
+          )(event)
         }
       >
         {children}
       </form>
     </FormProvider>
   );
+}
+
+function firstErrorPath(errors: FieldErrors, prefix = ''): string | null {
+  for (const [key, value] of Object.entries(errors)) {
+    if (key === 'root' || !value || typeof value !== 'object') continue;
+    const path = prefix ? `${prefix}.${key}` : key;
+    if ('message' in value && typeof value.message === 'string') return path;
+    const inner = firstErrorPath(value as FieldErrors, path);
+    if (inner) return inner;
+  }
+  return null;
 }
 
 /** The form-wide problem (a failed request, an issue no field owns), read out when it appears. */
