@@ -12,6 +12,7 @@ import {
 } from '@shared/alerts/threshold';
 import { findSpecies } from '@shared/livestock/catalogue';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
+import { limitBreach } from '@shared/parameters/health';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { limitsInForce } from '@shared/parameters/limits-in-force';
 import { rateRuleFromHours } from '@shared/schemas/limits';
@@ -186,6 +187,7 @@ async function evaluateLimit(
         severity: outcome.severity!,
         direction: outcome.direction!,
         limit: outcome.limit!,
+        concerns: evaluateLivestock(parameter, reading.value, tank.inhabitants),
       },
     });
     if (outcome.action === 'open' && outcome.replacesOpenAlert) {
@@ -226,15 +228,31 @@ async function setCondition(
   return null;
 }
 
+/**
+ * A reading outside what the livestock tolerate opens a livestock alert only while the limits are
+ * not broken: once they are, the limit alert owns the cause and names the livestock itself, so one
+ * reading never opens two alerts. While a device reading waits out its dwell the livestock alert
+ * is left as it is; once the limit alert is open it replaces the livestock one.
+ */
 async function evaluateLivestockRule(
   store: TankAlertStore,
   tank: TankContext,
   parameter: ParameterKey,
   latest: NewReading,
 ) {
-  if (tank.inhabitants.length === 0) return null;
-  const concerns = evaluateLivestock(parameter, latest.value, tank.inhabitants);
   const ruleKey = `livestock:${parameter}`;
+  const limitAlert = await store.findOpen(`limit:${parameter}`);
+  if (limitAlert) {
+    const superseded = await store.findOpen(ruleKey);
+    return superseded
+      ? store.resolve(superseded, {
+          at: latest.measuredAt,
+          note: `Followed by “${limitAlert.title}”, which names the same livestock.`,
+        })
+      : null;
+  }
+  if (limitBreach(latest.value, tank.limits[parameter] ?? null) !== null) return null;
+  const concerns = evaluateLivestock(parameter, latest.value, tank.inhabitants);
   const change: Transition | null =
     concerns.length === 0
       ? null
@@ -247,7 +265,13 @@ async function evaluateLivestockRule(
           limit: concerns[0]!.limit,
           direction: concerns[0]!.direction,
           at: latest.measuredAt,
-          facts: { kind: 'livestock', parameter, measuredAt: latest.measuredAt, concerns },
+          facts: {
+            kind: 'livestock',
+            parameter,
+            value: latest.value,
+            measuredAt: latest.measuredAt,
+            concerns,
+          },
         };
   return setCondition(store, tank, change, ruleKey, latest.measuredAt);
 }

@@ -1,7 +1,12 @@
 import { eq, inArray, isNull, lt, sql } from 'drizzle-orm';
 import { describeAlert } from '@shared/alerts/describe-alert';
 import { evaluateOverdue } from '@shared/alerts/overdue';
-import { evaluateStaleDevice } from '@shared/alerts/stale-device';
+import {
+  deviceStaleAfter,
+  evaluateStaleDevice,
+  reportingGaps,
+  reportingGapsSampled,
+} from '@shared/alerts/stale-device';
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { AppDeps } from '../deps';
@@ -20,7 +25,26 @@ async function settle(deps: AppDeps, tankId: string, ruleKey: string, alert: New
   });
 }
 
-/** A device silent for longer than it should be (30 minutes) opens one alert; its next reading closes it. */
+/** The device's latest report times, one backward probe of readings_device_key per parameter. */
+async function recentReports(deps: AppDeps, deviceId: string): Promise<Date[]> {
+  const result = await deps.db.execute<{ at: string }>(sql`
+    select distinct m.measured_at as at
+    from unnest(enum_range(null::parameter_key)) as p(parameter)
+    cross join lateral (
+      select r.measured_at from readings r
+      where r.device_id = ${deviceId} and r.parameter = p.parameter
+      order by r.measured_at desc
+      limit ${reportingGapsSampled + 1}
+    ) m
+    order by at desc
+    limit ${reportingGapsSampled + 1}`);
+  return result.rows.map((row) => new Date(row.at));
+}
+
+/**
+ * A device silent for longer than three of its usual intervals (at least 30 minutes, the rule tank
+ * health uses: `deviceStaleAfter`) opens one alert; its next reading closes it.
+ */
 export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
   const now = deps.clock();
   const rows = await deps.db
@@ -36,7 +60,8 @@ export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
   const events: string[] = [];
   for (const { device, tankName, timeZone } of rows) {
     const ruleKey = `device-stale:${device.id}`;
-    const outcome = evaluateStaleDevice(device, now);
+    const staleAfterMs = deviceStaleAfter(reportingGaps(await recentReports(deps, device.id)));
+    const outcome = evaluateStaleDevice(device, now, staleAfterMs);
     let alert: NewAlert | null = null;
     if (outcome.stale) {
       const text = describeAlert(

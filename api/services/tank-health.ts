@@ -1,11 +1,14 @@
 import { sql } from 'drizzle-orm';
-import type { ParameterHealth, TankStatus } from '@shared/parameters/health';
-import { expectedIntervalsMs } from '@shared/parameters/health';
+import type { LivestockInhabitant } from '@shared/alerts/livestock';
+import { reportingGaps, reportingGapsSampled } from '@shared/alerts/stale-device';
+import { findSpecies } from '@shared/livestock/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates } from '@shared/parameters/limit-templates';
 import type { ParameterLimits } from '@shared/parameters/limits';
 import type { ParameterHealthSummary, TankHealthSummary as TankHealth } from '@shared/schemas/readings';
 import type { ReadingSource } from '@shared/readings/sources';
+import { presentStatuses } from '@shared/schemas/livestock-status';
+import { judgeTank, type OpenAlertFact } from '@shared/tanks/status';
 import type { Db } from '../db/client';
 
 export type TankHealthSummary = TankHealth;
@@ -17,45 +20,35 @@ const templateRows = JSON.stringify(
   ),
 );
 
-const intervalRows = JSON.stringify(
-  Object.entries(expectedIntervalsMs).map(([parameter, { device, manual }]) => ({
-    parameter,
-    device,
-    manual,
-  })),
-);
-
 type HealthRow = {
   tank_id: string;
-  status: TankStatus;
-  last_reading_at: number | null;
+  species: string[] | null;
+  open_alerts: OpenAlertFact[] | null;
   parameters: Array<{
     parameter: ParameterKey;
-    health: ParameterHealth;
-    watched: boolean;
     value: number | null;
     measured_at: number | null;
     source: ReadingSource | null;
+    /** Recent report times (epoch ms) of the device behind the latest reading. */
+    device_moments: number[] | null;
     warn_low: number | null;
     warn_high: number | null;
     crit_low: number | null;
     crit_high: number | null;
     limits_source: 'tank' | 'template' | null;
-    interval_ms: number | null;
   }> | null;
 };
 
 /**
- * Health of many tanks in ONE query, following shared/parameters/health.ts exactly:
+ * Health of many tanks in ONE query that gathers the facts, decided by `judgeTank`
+ * (shared/tanks/status.ts), so every screen that shows a status says the same thing:
  * - the latest reading per (tank, parameter) is one backward probe of readings_history_idx per
  *   pair (LATERAL … ORDER BY measured_at DESC LIMIT 1), so the cost follows the number of tanks,
- *   not the years of history behind them;
+ *   not the years of history behind them; a device's latest reading brings that device's last
+ *   reports of the parameter (a probe of readings_device_key), which set its freshness window;
  * - limits follow `limitsInForce` (shared/parameters/limits-in-force.ts: the tank's own row, else
- *   its style's template), tested against it; a parameter is watched when its limits have at least
- *   one bound, and only watched parameters decide the status;
- * - rule 1: strictly beyond a bound, critical before warning; rule 2: out-of-limits readings keep
- *   their severity at any age; rule 3: stale when now − measured_at > the interval for the
- *   reading's source (null interval: never), or with no reading at all; rule 4: the tank status.
+ *   its style's template), tested against it;
+ * - the present livestock (their care ranges make the comfort range) and the alerts not resolved.
  */
 export async function healthForTanks(
   db: Db,
@@ -71,9 +64,6 @@ export async function healthForTanks(
       select * from jsonb_to_recordset(${templateRows}::jsonb)
         as x(style text, parameter text, "warnLow" float8, "warnHigh" float8, "critLow" float8, "critHigh" float8)
     ),
-    intervals as (
-      select * from jsonb_to_recordset(${intervalRows}::jsonb) as x(parameter text, device float8, manual float8)
-    ),
     pairs as (
       select
         w.id as tank_id,
@@ -87,95 +77,133 @@ export async function healthForTanks(
         lr.value,
         lr.measured_at,
         lr.source,
-        case when lr.source = 'device' then iv.device else iv.manual end as interval_ms
+        dm.moments as device_moments
       from wanted w
       cross join unnest(enum_range(null::parameter_key)) as p(parameter)
       left join tank_limits l on l.tank_id = w.id and l.parameter = p.parameter
       left join templates tp on tp.style = w.style and tp.parameter = p.parameter::text
-      left join intervals iv on iv.parameter = p.parameter::text
       left join lateral (
-        select r.value, r.measured_at, r.source
+        select r.value, r.measured_at, r.source, r.device_id
         from readings r
         where r.tank_id = w.id and r.parameter = p.parameter
         order by r.measured_at desc, r.id desc
         limit 1
       ) lr on true
-    ),
-    judged as (
-      select
-        pairs.*,
-        coalesce(warn_low, warn_high, crit_low, crit_high) is not null as watched,
-        case
-          when value is null then 'stale'
-          when crit_high is not null and value > crit_high then 'critical'
-          when crit_low is not null and value < crit_low then 'critical'
-          when warn_high is not null and value > warn_high then 'warning'
-          when warn_low is not null and value < warn_low then 'warning'
-          when interval_ms is not null
-            and ${now.toISOString()}::timestamptz - measured_at > interval_ms * interval '1 millisecond'
-            then 'stale'
-          else 'in-range'
-        end as health
-      from pairs
+      left join lateral (
+        select array_agg(extract(epoch from recent.measured_at) * 1000) as moments
+        from (
+          select d.measured_at
+          from readings d
+          where d.device_id = lr.device_id and d.parameter = p.parameter and d.measured_at <= lr.measured_at
+          order by d.measured_at desc
+          limit ${reportingGapsSampled + 1}
+        ) recent
+      ) dm on lr.device_id is not null
     )
     select
       w.id as tank_id,
-      case
-        when coalesce(bool_or(j.health = 'critical') filter (where j.watched), false) then 'alert'
-        when coalesce(bool_or(j.health = 'warning') filter (where j.watched), false) then 'watch'
-        when coalesce(bool_and(j.health = 'stale') filter (where j.watched), true) then 'no-data'
-        when bool_or(j.health = 'stale') filter (where j.watched) then 'watch'
-        else 'healthy'
-      end as status,
-      extract(epoch from max(j.measured_at)) * 1000 as last_reading_at,
+      (
+        select array_agg(lv.catalogue_species_id order by lv.created_at, lv.id)
+        from livestock lv
+        where lv.tank_id = w.id and lv.catalogue_species_id is not null
+          and lv.status::text = any(${sql.param([...presentStatuses])}::text[])
+      ) as species,
+      (
+        select json_agg(
+          json_build_object('kind', a.kind, 'severity', a.severity, 'parameter', a.parameter, 'title', a.title)
+          order by a.opened_at, a.id
+        )
+        from alerts a
+        where a.tank_id = w.id and a.status <> 'resolved'
+      ) as open_alerts,
       json_agg(
         json_build_object(
           'parameter', j.parameter,
-          'health', j.health,
-          'watched', j.watched,
           'value', j.value,
           'measured_at', extract(epoch from j.measured_at) * 1000,
           'source', j.source,
+          'device_moments', j.device_moments,
           'warn_low', j.warn_low,
           'warn_high', j.warn_high,
           'crit_low', j.crit_low,
           'crit_high', j.crit_high,
-          'limits_source', j.limits_source,
-          'interval_ms', j.interval_ms
+          'limits_source', j.limits_source
         )
         order by j.parameter
-      ) filter (where j.watched or j.measured_at is not null) as parameters
+      ) as parameters
     from wanted w
-    left join judged j on j.tank_id = w.id
+    left join pairs j on j.tank_id = w.id
     group by w.id
   `);
   const health = new Map<string, TankHealthSummary>();
-  for (const row of result.rows) {
-    health.set(row.tank_id, {
-      status: row.status,
-      lastReadingAt:
-        row.last_reading_at === null ? null : new Date(Number(row.last_reading_at)).toISOString(),
-      parameters: (row.parameters ?? []).map(summaryOf),
-    });
-  }
+  for (const row of result.rows) health.set(row.tank_id, summaryOf(row, now));
   return health;
 }
 
-function summaryOf(p: NonNullable<HealthRow['parameters']>[number]): ParameterHealthSummary {
-  const limits: ParameterLimits | null =
-    p.limits_source === null
-      ? null
-      : { warnLow: p.warn_low, warnHigh: p.warn_high, critLow: p.crit_low, critHigh: p.crit_high };
-  return {
-    parameter: p.parameter,
-    health: p.health,
-    watched: p.watched,
-    latest:
+function inhabitantsOf(speciesIds: readonly string[]): LivestockInhabitant[] {
+  return speciesIds.flatMap((id) => {
+    const species = findSpecies(id);
+    return species
+      ? [
+          {
+            speciesId: species.id,
+            commonName: species.commonName,
+            scientificName: species.scientificName,
+            ranges: species.profile.ranges,
+          },
+        ]
+      : [];
+  });
+}
+
+function summaryOf(row: HealthRow, now: Date): TankHealthSummary {
+  const gathered = (row.parameters ?? []).map((p) => {
+    const limits: ParameterLimits | null =
+      p.limits_source === null
+        ? null
+        : { warnLow: p.warn_low, warnHigh: p.warn_high, critLow: p.crit_low, critHigh: p.crit_high };
+    const latest =
       p.value === null || p.measured_at === null || p.source === null
         ? null
-        : { value: p.value, measuredAt: new Date(p.measured_at).toISOString(), source: p.source },
-    limits,
-    limitsSource: p.limits_source,
-    expectedIntervalMs: p.interval_ms,
+        : { value: p.value, measuredAt: new Date(Number(p.measured_at)), source: p.source };
+    const deviceGapsMs = reportingGaps((p.device_moments ?? []).map((at) => new Date(Number(at))));
+    return { facts: { parameter: p.parameter, limits, latest, deviceGapsMs }, limitsSource: p.limits_source };
+  });
+  const verdict = judgeTank(
+    {
+      parameters: gathered.map((g) => g.facts),
+      inhabitants: inhabitantsOf(row.species ?? []),
+      openAlerts: row.open_alerts ?? [],
+    },
+    now,
+  );
+  const parameters: ParameterHealthSummary[] = [];
+  let lastReadingAt: number | null = null;
+  verdict.parameters.forEach((judged, index) => {
+    const { facts, limitsSource } = gathered[index]!;
+    const { latest } = facts;
+    if (latest && (lastReadingAt === null || latest.measuredAt.getTime() > lastReadingAt))
+      lastReadingAt = latest.measuredAt.getTime();
+    // Listed: what the tank is watched for, and anything else it has readings of.
+    if (!judged.watched && latest === null) return;
+    parameters.push({
+      parameter: judged.parameter,
+      health: judged.health,
+      watched: judged.watched,
+      reason: judged.reason,
+      latest:
+        latest === null
+          ? null
+          : { value: latest.value, measuredAt: latest.measuredAt.toISOString(), source: latest.source },
+      limits: facts.limits,
+      limitsSource,
+      expectedIntervalMs: judged.freshForMs,
+    });
+  });
+  return {
+    status: verdict.status,
+    statusReason: verdict.reason,
+    lastReadingAt: lastReadingAt === null ? null : new Date(lastReadingAt).toISOString(),
+    parameters,
   };
 }

@@ -77,7 +77,14 @@ function summaryQuery(db: Db) {
 
 type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>>[number];
 
-function toSummary(row: SummaryRow, owners: PersonRef[], status: TankSummary['status']): TankSummary {
+/** Every tank gets a row from `healthForTanks`; this only covers one deleted mid-request. */
+const unknownHealth = { status: 'no-data', statusReason: 'No readings yet' } as const;
+
+function toSummary(
+  row: SummaryRow,
+  owners: PersonRef[],
+  { status, statusReason }: Pick<TankSummary, 'status' | 'statusReason'> = unknownHealth,
+): TankSummary {
   const { tank } = row;
   return {
     id: tank.id,
@@ -95,6 +102,7 @@ function toSummary(row: SummaryRow, owners: PersonRef[], status: TankSummary['st
     owners,
     coverPhoto: row.cover ? photoRefOf(row.cover) : null,
     status,
+    statusReason,
   };
 }
 
@@ -122,9 +130,7 @@ export async function listTanks(
     .orderBy(asc(tanks.name), asc(tanks.id));
   const ids = rows.map((row) => row.tank.id);
   const [owners, health] = await Promise.all([ownersOf(db, ids), healthForTanks(db, ids, now)]);
-  return rows.map((row) =>
-    toSummary(row, owners.get(row.tank.id) ?? [], health.get(row.tank.id)?.status ?? 'no-data'),
-  );
+  return rows.map((row) => toSummary(row, owners.get(row.tank.id) ?? [], health.get(row.tank.id)));
 }
 
 export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: Date): Promise<TankDetail> {
@@ -142,7 +148,7 @@ export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: D
   const [owners, health] = await Promise.all([ownersOf(db, [tankId]), healthForTanks(db, [tankId], now)]);
   const tank = row!.tank;
   return {
-    ...toSummary(row!, owners.get(tankId) ?? [], health.get(tankId)?.status ?? 'no-data'),
+    ...toSummary(row!, owners.get(tankId) ?? [], health.get(tankId)),
     dimensions:
       tank.lengthCm !== null && tank.widthCm !== null && tank.heightCm !== null
         ? { lengthCm: tank.lengthCm, widthCm: tank.widthCm, heightCm: tank.heightCm }

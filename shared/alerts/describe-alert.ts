@@ -5,6 +5,7 @@
 import { dayMs, hourMs, minuteMs, parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import {
+  formatAgainstBound,
   formatValue,
   fromStored,
   unitDecimals,
@@ -16,7 +17,7 @@ import type { ReadingSource } from '@shared/readings/sources';
 import { deviceStaleFirstSteps, firstSteps, type FirstSteps } from './first-steps';
 import { freeAmmoniaThresholds } from './free-ammonia';
 import type { AlertKind, AlertSeverity } from './kinds';
-import type { LivestockConcern } from './livestock';
+import { describeConcerns, toleranceWords, type LivestockConcern } from './livestock';
 import type { RateBreach } from './rate';
 import { formatDateTime } from '@shared/text/dates';
 
@@ -40,6 +41,8 @@ export type AlertFacts =
       readonly severity: LimitSeverity;
       readonly direction: LimitDirection;
       readonly limit: number;
+      /** The inhabitants the same reading does not suit: one cause, one alert, named together. */
+      readonly concerns?: readonly LivestockConcern[];
     }
   | {
       readonly kind: 'rate';
@@ -64,6 +67,7 @@ export type AlertFacts =
   | {
       readonly kind: 'livestock';
       readonly parameter: ParameterKey;
+      readonly value: number;
       readonly measuredAt: Date;
       readonly concerns: readonly LivestockConcern[];
     }
@@ -116,6 +120,11 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
       trim,
     });
 
+  const display = (parameter: ParameterKey) => ({
+    ...(context.units?.[parameter] === undefined ? {} : { unit: context.units[parameter] }),
+    ...(context.unitContext === undefined ? {} : { context: context.unitContext }),
+  });
+
   // A difference is converted end by end: a rise of 1 °C is 1.8 °F, not 33.8 °F.
   const showChange = (parameter: ParameterKey, from: number, to: number): string => {
     const unit = context.units?.[parameter] ?? parameterCatalogue[parameter].unit;
@@ -134,8 +143,17 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
       const { label } = parameterCatalogue[parameter];
       const side = direction === 'high' ? 'above' : 'below';
       const when = `Measured ${sourceWords[facts.source]} at ${formatDateTime(facts.measuredAt, timeZone)}.`;
-      const reading = `${label} ${show(parameter, value)}`;
-      const bound = `the ${severity} limit of ${show(parameter, limit, true)}`;
+      // Written at a precision where the reading and the limit differ, so neither contradicts the other.
+      const shown = formatAgainstBound(parameter, value, limit, {
+        ...(context.units?.[parameter] === undefined ? {} : { unit: context.units[parameter] }),
+        ...(context.unitContext === undefined ? {} : { context: context.unitContext }),
+      });
+      const reading = `${label} ${shown.value}`;
+      const bound = `the ${severity} limit of ${shown.bound}`;
+      const livestock =
+        facts.concerns && facts.concerns.length > 0
+          ? `It is also ${toleranceWords(parameter, facts.concerns, display(parameter))}. `
+          : '';
       if (action === 'resolve') {
         return {
           kind: 'limit',
@@ -150,7 +168,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
           kind: 'limit',
           severity,
           title: `${label} easing in ${tankName}`,
-          body: `${reading} is back inside the critical limit but still ${side} ${bound}. ${when}`,
+          body: `${reading} is back inside the critical limit but still ${side} ${bound}. ${livestock}${when}`,
           firstSteps: null,
         };
       }
@@ -158,8 +176,8 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
       const moved =
         action === 'escalate' ? `${label} has ${direction === 'high' ? 'risen' : 'fallen'} to ` : '';
       const body = moved
-        ? `${moved}${show(parameter, value)}, ${side} ${bound}. ${when}`
-        : `${reading} is ${side} ${bound}. ${when}`;
+        ? `${moved}${shown.value}, ${side} ${bound}. ${livestock}${when}`
+        : `${reading} is ${side} ${bound}. ${livestock}${when}`;
       return {
         kind: 'limit',
         severity,
@@ -217,12 +235,12 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
     }
     case 'livestock': {
       const { label } = parameterCatalogue[facts.parameter];
-      const lines = facts.concerns.map((concern) => `${concern.message}.`).join(' ');
+      const words = describeConcerns(facts.parameter, facts.value, facts.concerns, display(facts.parameter));
       return {
         kind: 'livestock',
         severity: 'warning',
         title: `${label} outside what some livestock tolerate in ${tankName}`,
-        body: `${lines} Measured at ${formatDateTime(facts.measuredAt, timeZone)}.`,
+        body: `${words}. Measured at ${formatDateTime(facts.measuredAt, timeZone)}.`,
         firstSteps: null,
       };
     }
@@ -235,7 +253,7 @@ export function describeAlert(facts: AlertFacts, context: DescribeContext): Aler
         body:
           `Total ammonia ${show('ammonia', facts.totalAmmonia)} at pH ${show('ph', facts.pH)} and ` +
           `${show('temperature', facts.tempC)} means about ${facts.freeAmmonia.toFixed(3)} mg/L of free ammonia (NH3), ` +
-          `above the ${facts.severity} level of ${limit} mg/L (common practice). ` +
+          `above the ${facts.severity} level of ${limit} mg/L. ` +
           `Measured at ${formatDateTime(facts.measuredAt, timeZone)}.`,
         firstSteps: firstSteps('ammonia', 'high', facts.severity),
       };

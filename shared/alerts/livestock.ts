@@ -21,7 +21,10 @@ export interface LivestockConcern {
 }
 
 /** "the hammer coral (Fimbriaphyllia ancora)"; a genus used as a common name is said once. */
-function speciesPhrase({ commonName, scientificName }: LivestockInhabitant): string {
+function speciesPhrase({
+  commonName,
+  scientificName,
+}: Pick<LivestockInhabitant, 'commonName' | 'scientificName'>): string {
   const genus = scientificName.split(' ')[0] ?? scientificName;
   return commonName.toLowerCase() === genus.toLowerCase()
     ? scientificName
@@ -68,4 +71,60 @@ export function evaluateLivestock(
     });
   }
   return concerns;
+}
+
+/** How many species a short list names before "and N more". */
+export const speciesShownInList = 2;
+
+/**
+ * "the hammer coral (Fimbriaphyllia ancora)" for one species; "cardinal tetra, otocinclus and 7
+ * more" for many, so a tank full of small fish does not fill a phone screen.
+ */
+export function shortSpeciesList(concerns: readonly LivestockConcern[]): string {
+  const [only] = concerns;
+  if (concerns.length === 1 && only) return speciesPhrase(only);
+  const names = concerns.map((concern) => concern.commonName);
+  if (names.length <= speciesShownInList + 1) {
+    return `the ${names.slice(0, -1).join(', ')} and ${names.at(-1)}`;
+  }
+  return `the ${names.slice(0, speciesShownInList).join(', ')} and ${names.length - speciesShownInList} more`;
+}
+
+/**
+ * "above what the hammer coral, zoanthids and 3 more tolerate (max 27 °C)": the species a value
+ * does not suit, with the nearest end of their ranges (the edge of the comfort range on that side).
+ * Empty when the value suits every inhabitant.
+ */
+export function toleranceWords(
+  parameter: ParameterKey,
+  concerns: readonly LivestockConcern[],
+  display: Pick<FormatOptions, 'unit' | 'context'> = {},
+): string {
+  const phrases: string[] = [];
+  for (const direction of ['low', 'high'] as const) {
+    const group = concerns.filter((concern) => concern.direction === direction);
+    if (group.length === 0) continue;
+    const edge =
+      direction === 'high'
+        ? Math.min(...group.map((concern) => concern.limit))
+        : Math.max(...group.map((concern) => concern.limit));
+    const [first] = group;
+    const verb = group.length === 1 && first && !looksPlural(first.commonName) ? 'tolerates' : 'tolerate';
+    phrases.push(
+      `${direction === 'high' ? 'above' : 'below'} what ${shortSpeciesList(group)} ${verb} ` +
+        `(${direction === 'high' ? 'max' : 'min'} ${formatValue(parameter, edge, { ...display, trim: true })})`,
+    );
+  }
+  return phrases.join(' and ');
+}
+
+/** "pH 6.90 is below what the cardinal tetra, otocinclus and 7 more tolerate (min 7)". */
+export function describeConcerns(
+  parameter: ParameterKey,
+  value: number,
+  concerns: readonly LivestockConcern[],
+  display: Pick<FormatOptions, 'unit' | 'context'> = {},
+): string {
+  const { label } = parameterCatalogue[parameter];
+  return `${label} ${formatValue(parameter, value, display)} is ${toleranceWords(parameter, concerns, display)}`;
 }

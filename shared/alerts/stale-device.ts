@@ -12,6 +12,32 @@ export interface StaleDeviceOutcome {
   readonly staleAfterMs: number;
 }
 
+/** How many of its usual reporting intervals a device may miss before it counts as silent. */
+export const missedReportsBeforeStale = 3;
+/** How many recent gaps between reports set a device's usual interval. */
+export const reportingGapsSampled = 10;
+
+/**
+ * When a device's data stops being current: three of its usual intervals (the median of the gaps
+ * between its recent reports, so one late or doubled report moves nothing), never less than
+ * `deviceStaleAfterMs` (30 minutes). A device posting every 5 minutes is stale after 30 minutes,
+ * one posting hourly after 3 hours. Too few reports to know its rhythm: 30 minutes. Three missed
+ * reports before calling a device silent is common practice for polled equipment, not a standard.
+ */
+export function deviceStaleAfter(recentGapsMs: readonly number[]): number {
+  const gaps = recentGapsMs.filter((gap) => gap > 0).sort((a, b) => a - b);
+  if (gaps.length === 0) return deviceStaleAfterMs;
+  const middle = Math.floor(gaps.length / 2);
+  const median = gaps.length % 2 === 1 ? gaps[middle]! : (gaps[middle - 1]! + gaps[middle]!) / 2;
+  return Math.max(deviceStaleAfterMs, missedReportsBeforeStale * median);
+}
+
+/** The gaps between consecutive report times (any order, repeats ignored), newest first. */
+export function reportingGaps(reportedAt: readonly Date[]): number[] {
+  const moments = [...new Set(reportedAt.map((at) => at.getTime()))].sort((a, b) => b - a);
+  return moments.slice(1).map((at, index) => moments[index]! - at);
+}
+
 /**
  * Same rule as tank health: silent for strictly longer than `staleAfterMs`. A device that has never
  * reported is measured from when it was added: a new device gets the same grace as a reading, and

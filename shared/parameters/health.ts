@@ -1,6 +1,7 @@
 /*
- * Tank health from the latest reading of each parameter. The API computes the same thing in SQL
- * for many tanks at once; these rules and constants are the definition both must follow:
+ * Tank health from the latest reading of each parameter against its limits: the building blocks of
+ * `judgeTank` (shared/tanks/status.ts), which adds the comfort range, open alerts and each device's
+ * own reporting interval, and is the one rule every screen's status comes from:
  *
  * 1. A reading breaches a bound only when strictly beyond it (`value > critHigh`, `value < warnLow`);
  *    critical is checked before warning. A reading exactly on a bound is in range.

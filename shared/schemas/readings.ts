@@ -195,17 +195,27 @@ export interface ReadingHistory {
 export interface ParameterHealthSummary {
   parameter: z.infer<typeof parameterKey>;
   health: ParameterHealth;
-  /** Whether the tank is watched for it (it has a limit); only watched parameters set the status. */
+  /** The health in words ("pH 6.90 is below what the cardinal tetra tolerates (min 7)"). */
+  reason: string;
+  /**
+   * Whether it counts towards the tank's status: it has a limit, or the livestock or an open alert
+   * make a concern of it.
+   */
   watched: boolean;
   latest: { value: number; measuredAt: string; source: ReadingSource } | null;
   limits: ParameterLimits | null;
   limitsSource: LimitsInForce['source'];
-  /** How long the latest reading counts as current; null when it never goes stale. */
+  /**
+   * How long the latest reading counts as current (for a device, three of its usual intervals, at
+   * least 30 minutes); null when it never goes stale.
+   */
   expectedIntervalMs: number | null;
 }
 
 export interface TankHealthSummary {
   status: TankStatus;
+  /** Why, in words; the same as the tank list and the tank page give. */
+  statusReason: string;
   /** Watched parameters and any others with readings, in catalogue order. */
   parameters: ParameterHealthSummary[];
   lastReadingAt: string | null;

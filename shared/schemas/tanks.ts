@@ -140,6 +140,8 @@ export const tankSummary = z.object({
   owners: z.array(personRef),
   coverPhoto: photoRef.nullable(),
   status: tankStatusSchema,
+  /** Why, in words: the same reason the tank page and its readings give (shared/tanks/status.ts). */
+  statusReason: z.string(),
 });
 export type TankSummary = z.infer<typeof tankSummary>;
 

@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, ne } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { alerts, notifications } from '../../api/db/schema/index';
 import { afterAlertEvents } from '../../api/services/alerts';
@@ -184,18 +184,87 @@ describe('alerts from readings', () => {
     expect(await stack.database.db.select().from(alerts)).toHaveLength(1);
   });
 
-  it('names the inhabitant a reading does not suit', async () => {
+  it('opens one alert for a reading beyond a limit and outside what the livestock tolerate, naming both', async () => {
+    // Nine inhabitants that all tolerate at most 27–28 °C; the tank warns above 27.5 °C.
+    const species = [
+      'hammer-coral',
+      'ocellaris-clownfish',
+      'green-chromis',
+      'yellow-tang',
+      'zoanthids',
+      'firefish',
+      'royal-gramma',
+      'six-line-wrasse',
+      'montipora',
+    ];
     await stack.database.pool.query(
-      `insert into livestock (company_id, tank_id, catalogue_species_id, status) values ($1, $2, 'hammer-coral', 'stable')`,
-      [tank.companyId, tank.id],
+      `insert into livestock (company_id, tank_id, catalogue_species_id, status)
+       select $1, $2, unnest($3::text[]), 'stable'`,
+      [tank.companyId, tank.id, species],
     );
     try {
       await record([{ parameter: 'temperature', value: 28.6, measuredAt: new Date(), source: 'home-test' }]);
+
+      const all = await stack.database.db.select().from(alerts);
+      expect(all).toHaveLength(1);
+      expect(all[0]).toMatchObject({ kind: 'limit', parameter: 'temperature', severity: 'warning' });
+      expect(all[0]!.body).toMatch(/^Temperature 28\.6 °C is above the warning limit of 27\.5 °C\. /);
+      // The tightest end of their ranges is the yellow tang's 27 °C; two are named, the rest counted.
+      expect(all[0]!.body).toMatch(
+        /It is also above what the [a-z -]+, [a-z -]+ and 7 more tolerate \(max 27 °C\)\. Measured /,
+      );
+    } finally {
+      await stack.database.pool.query('delete from livestock where tank_id = $1', [tank.id]);
+    }
+  });
+
+  it('names the inhabitant a reading inside the limits does not suit, in one livestock alert', async () => {
+    await stack.database.pool.query(
+      `insert into livestock (company_id, tank_id, catalogue_species_id, status) values ($1, $2, 'yellow-tang', 'stable')`,
+      [tank.companyId, tank.id],
+    );
+    try {
+      await record([{ parameter: 'temperature', value: 27.3, measuredAt: new Date(), source: 'home-test' }]);
+
+      const all = await stack.database.db.select().from(alerts);
+      expect(all).toHaveLength(1);
+      expect(all[0]).toMatchObject({ kind: 'livestock', parameter: 'temperature', severity: 'warning' });
+      expect(all[0]!.body).toMatch(
+        /^Temperature 27\.3 °C is above what the yellow tang \(Zebrasoma flavescens\) tolerates \(max 27 °C\)\./,
+      );
+    } finally {
+      await stack.database.pool.query('delete from livestock where tank_id = $1', [tank.id]);
+    }
+  });
+
+  it('hands a livestock alert over to the limit alert once the limit is crossed too', async () => {
+    await stack.database.pool.query(
+      `insert into livestock (company_id, tank_id, catalogue_species_id, status) values ($1, $2, 'yellow-tang', 'stable')`,
+      [tank.companyId, tank.id],
+    );
+    try {
+      const at = Date.now() - minutes(30);
+      await record([
+        { parameter: 'temperature', value: 27.3, measuredAt: new Date(at), source: 'home-test' },
+      ]);
+      await record([
+        {
+          parameter: 'temperature',
+          value: 27.9,
+          measuredAt: new Date(at + minutes(20)),
+          source: 'home-test',
+        },
+      ]);
+
+      const open = await stack.database.db.select().from(alerts).where(ne(alerts.status, 'resolved'));
+      expect(open).toHaveLength(1);
+      expect(open[0]).toMatchObject({ kind: 'limit', parameter: 'temperature' });
+      expect(open[0]!.body).toMatch(/yellow tang/);
       const [livestockAlert] = await stack.database.db
         .select()
         .from(alerts)
         .where(eq(alerts.kind, 'livestock'));
-      expect(livestockAlert?.body).toMatch(/hammer coral/i);
+      expect(livestockAlert?.status).toBe('resolved');
     } finally {
       await stack.database.pool.query('delete from livestock where tank_id = $1', [tank.id]);
     }

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Db } from '../../api/db/client';
-import { readings, tankLimits, tanks } from '../../api/db/schema/index';
+import { alerts, devices, readings, tankLimits, tanks } from '../../api/db/schema/index';
 import { healthForTanks } from '../../api/services/tank-health';
 import {
   expectedIntervalMs,
@@ -17,7 +17,7 @@ import type { ParameterLimits } from '@shared/parameters/limits';
 import { readingSources, type ReadingSource } from '@shared/readings/sources';
 import { days, hours, minutes } from '../helpers/clock';
 import { createTestDatabase, type TestDatabase } from '../helpers/db';
-import { createCompany, createTank } from '../helpers/factories';
+import { addLivestockTo, createCompany, createTank } from '../helpers/factories';
 
 const now = new Date('2026-12-01T12:00:00.000Z');
 const ago = (ms: number) => new Date(now.getTime() - ms);
@@ -80,10 +80,12 @@ describe('healthForTanks', () => {
     const health = await statusOf(id);
 
     expect(health.status).toBe('healthy');
+    expect(health.statusReason).toBe('Temperature 25.5 °C is in range');
     expect(health.parameters).toEqual([
       {
         parameter: 'temperature',
         health: 'in-range',
+        reason: 'Temperature 25.5 °C is in range',
         watched: true,
         latest: { value: 25.5, measuredAt: ago(minutes(5)).toISOString(), source: 'device' },
         limits: { warnLow: 24, warnHigh: 27, critLow: 22, critHigh: 28.5 },
@@ -157,6 +159,103 @@ describe('healthForTanks', () => {
     expect(both.get(unwatched)!.status).toBe('no-data');
     // A reading of a parameter nobody watches is still shown, just not judged against limits.
     expect(both.get(unwatched)!.parameters).toMatchObject([{ parameter: 'temperature', watched: false }]);
+  });
+
+  it('is watch, with the alerts named, while warning alerts are open, though every reading is in range', async () => {
+    const id = await temperatureTank(25.5, ago(minutes(5)));
+    const { companyId: company } = (await db.select().from(tanks).where(eq(tanks.id, id)))[0]!;
+    const alert = (ruleKey: string, title: string, severity: 'warning' | 'critical' | 'notice') => ({
+      companyId: company,
+      tankId: id,
+      kind: 'rate' as const,
+      ruleKey,
+      parameter: 'salinity' as const,
+      severity,
+      title,
+      body: title,
+      openedAt: ago(hours(1)),
+      lastSeenAt: ago(hours(1)),
+    });
+    await db.insert(alerts).values([
+      alert('rate:salinity', 'Salinity rising fast in Test tank', 'warning'),
+      {
+        ...alert('test-overdue:alkalinity', 'Alkalinity test due in Test tank', 'notice'),
+        kind: 'test-overdue',
+      },
+    ]);
+    await db.insert(alerts).values({
+      ...alert('rate:ph', 'pH falling fast in Test tank', 'warning'),
+      parameter: 'ph',
+      status: 'resolved',
+    });
+
+    const health = await statusOf(id);
+
+    expect([health.status, health.statusReason]).toEqual([
+      'watch',
+      'Open alert: Salinity rising fast in Test tank',
+    ]);
+    // The alert's parameter becomes a tile of its own, agreeing with the tank.
+    expect(health.parameters.find((p) => p.parameter === 'salinity')).toMatchObject({
+      health: 'warning',
+      watched: true,
+      reason: 'Open alert: Salinity rising fast in Test tank',
+    });
+  });
+
+  it('is watch for a reading inside the limits but outside what the present livestock tolerate', async () => {
+    const id = await temperatureTank(26.8, ago(minutes(5)));
+    const tank = { id, companyId };
+    await addLivestockTo(db, tank, { catalogueSpeciesId: 'bubble-tip-anemone', status: 'stable' });
+    // A removed animal no longer shapes the comfort range.
+    await addLivestockTo(db, tank, { catalogueSpeciesId: 'zebra-danio', status: 'removed' });
+    const before = await statusOf(id);
+    await addLivestockTo(db, tank, { catalogueSpeciesId: 'neon-tetra', status: 'stable' });
+
+    const after = await statusOf(id);
+
+    expect([before.status, before.statusReason]).toEqual(['healthy', 'Temperature 26.8 °C is in range']);
+    expect([after.status, after.parameters[0]!.health]).toEqual(['watch', 'warning']);
+    expect(after.statusReason).toBe(
+      'Temperature 26.8 °C is above what the neon tetra (Paracheirodon innesi) tolerates (max 26 °C)',
+    );
+  });
+
+  it('judges device data by that device’s own reporting interval', async () => {
+    const hourlyTank = await createTank(db, { companyId });
+    const [device] = await db
+      .insert(devices)
+      .values({
+        companyId,
+        tankId: hourlyTank.id,
+        name: 'Sump probe',
+        tokenHash: `hash-${hourlyTank.id}`,
+        tokenHint: 'bw_test',
+      })
+      .returning();
+    const last = ago(minutes(38));
+    await db.insert(readings).values(
+      Array.from({ length: 12 }, (_, i) => ({
+        companyId,
+        tankId: hourlyTank.id,
+        parameter: 'temperature' as const,
+        value: 25,
+        enteredValue: 25,
+        enteredUnit: '°C',
+        measuredAt: new Date(last.getTime() - i * hours(1)),
+        source: 'device' as const,
+        deviceId: device!.id,
+      })),
+    );
+    await watchOnly(hourlyTank.id, 'temperature', { warnLow: 24, warnHigh: 27, critLow: 22, critHigh: 28.5 });
+
+    const current = await statusOf(hourlyTank.id);
+    const late = (await healthForTanks(db, [hourlyTank.id], new Date(last.getTime() + hours(3) + 1))).get(
+      hourlyTank.id,
+    )!;
+
+    expect([current.status, current.parameters[0]!.expectedIntervalMs]).toEqual(['healthy', hours(3)]);
+    expect([late.status, late.statusReason]).toEqual(['no-data', 'No reading for 3 hours']);
   });
 
   it('never reads a tank it was not asked about', async () => {

@@ -180,7 +180,7 @@ describe('describeAlert', () => {
     ]);
 
     const { body } = describeAlert(
-      { kind: 'livestock', parameter: 'temperature', measuredAt: at, concerns },
+      { kind: 'livestock', parameter: 'temperature', value: 29.4, measuredAt: at, concerns },
       context,
     );
 
@@ -189,7 +189,39 @@ describe('describeAlert', () => {
     );
   });
 
-  it('explains free ammonia from the total, pH and temperature, marked as common practice', () => {
+  it('names the livestock at risk in the one limit alert a reading opens', () => {
+    const concerns = evaluateLivestock('temperature', 29.4, [
+      {
+        speciesId: 'hammer-coral',
+        commonName: 'hammer coral',
+        scientificName: 'Fimbriaphyllia ancora',
+        ranges: { temperature: { min: 24, max: 28 } },
+      },
+    ]);
+
+    const { body } = describeAlert(
+      {
+        kind: 'limit',
+        action: 'open',
+        parameter: 'temperature',
+        value: 29.4,
+        measuredAt: at,
+        source: 'home-test',
+        severity: 'critical',
+        direction: 'high',
+        limit: 29,
+        concerns,
+      },
+      context,
+    );
+
+    expect(body).toBe(
+      'Temperature 29.4 °C is above the critical limit of 29 °C. It is also above what the hammer coral ' +
+        '(Fimbriaphyllia ancora) tolerates (max 28 °C). Measured in a home test at 3 Dec 2026, 14:05.',
+    );
+  });
+
+  it('explains free ammonia from the total, pH and temperature, without the developers’ source note', () => {
     const { title, body, firstSteps } = describeAlert(
       {
         kind: 'free-ammonia',
@@ -205,7 +237,7 @@ describe('describeAlert', () => {
 
     expect(title).toBe('Harmful free ammonia in Lobby reef');
     expect(body).toBe(
-      'Total ammonia 0.50 mg/L at pH 8.00 and 25.0 °C means about 0.027 mg/L of free ammonia (NH3), above the warning level of 0.02 mg/L (common practice). Measured at 3 Dec 2026, 14:05.',
+      'Total ammonia 0.50 mg/L at pH 8.00 and 25.0 °C means about 0.027 mg/L of free ammonia (NH3), above the warning level of 0.02 mg/L. Measured at 3 Dec 2026, 14:05.',
     );
     expect(firstSteps?.steps).toContain('Stop feeding for a day.');
   });
@@ -220,5 +252,36 @@ describe('formatDuration', () => {
       '30 hours',
       '9 days',
     ]);
+  });
+});
+
+describe('describeAlert reading against its limit', () => {
+  const salinity = (value: number, action: 'open' | 'resolve') =>
+    describeAlert(
+      {
+        kind: 'limit',
+        action,
+        parameter: 'salinity',
+        value,
+        measuredAt: at,
+        source: 'home-test',
+        severity: 'warning',
+        direction: 'high',
+        limit: 36,
+      },
+      context,
+    ).body;
+
+  it('never writes "36.0 ppt is above … 36 ppt": both get the decimals that tell them apart', () => {
+    expect(salinity(36.04, 'open')).toMatch(
+      /^Salinity 36\.04 ppt is above the warning limit of 36\.00 ppt\. /,
+    );
+    expect(salinity(35.97, 'resolve')).toMatch(
+      /^Salinity 35\.97 ppt is back inside the warning limit of 36\.00 ppt\. /,
+    );
+  });
+
+  it('keeps the usual short forms when the reading and the limit already differ', () => {
+    expect(salinity(36.2, 'open')).toMatch(/^Salinity 36\.2 ppt is above the warning limit of 36 ppt\. /);
   });
 });

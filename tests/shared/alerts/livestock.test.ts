@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateLivestock, type LivestockInhabitant } from '@shared/alerts/livestock';
+import { describeConcerns, evaluateLivestock, type LivestockInhabitant } from '@shared/alerts/livestock';
 
 let sequence = 0;
 function inhabitant(overrides: Partial<LivestockInhabitant> = {}): LivestockInhabitant {
@@ -84,6 +84,23 @@ describe('evaluateLivestock', () => {
 
     expect(concern?.message).toBe(
       'Temperature 84.9 °F is above what the hammer coral (Fimbriaphyllia ancora) tolerates (max 82.4 °F)',
+    );
+  });
+
+  it('sums up many species in a short list with the edge of the comfort range', () => {
+    const many = [
+      hammer,
+      clownfish,
+      ...Array.from({ length: 7 }, () => inhabitant({ ranges: { temperature: { min: 24, max: 28.5 } } })),
+    ];
+    const concerns = evaluateLivestock('temperature', 30, many);
+
+    expect(concerns).toHaveLength(9);
+    expect(describeConcerns('temperature', 30, concerns)).toBe(
+      'Temperature 30.0 °C is above what the hammer coral, ocellaris clownfish and 7 more tolerate (max 28 °C)',
+    );
+    expect(describeConcerns('temperature', 30, concerns.slice(0, 3))).toBe(
+      `Temperature 30.0 °C is above what the hammer coral, ocellaris clownfish and ${concerns[2]!.commonName} tolerate (max 28 °C)`,
     );
   });
 });
