@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { describeBounds, outOfRangeDetails } from '@shared/chemistry/index';
 import { databaseProblem, databaseRetryAfterS } from '../lib/database-errors';
 import { HttpError } from '../lib/http-error';
 import { issuesFrom } from '../lib/route';
@@ -15,13 +16,23 @@ function isParserError(error: unknown): error is ParserError {
   return typeof error === 'object' && error !== null && typeof (error as ParserError).type === 'string';
 }
 
+function outOfRangeMessage(error: RangeError): string {
+  const refused = outOfRangeDetails(error);
+  const bounds = refused && describeBounds(refused.bounds);
+  if (!refused || bounds === undefined) {
+    return 'A value is outside what Brinewatch can work with. Check the numbers and their units.';
+  }
+  return `A value of ${refused.value} is outside what Brinewatch can work with: it must be ${bounds}. Check the numbers and their units.`;
+}
+
 function toHttpError(error: unknown): HttpError | null {
   if (error instanceof HttpError) return error;
   if (error instanceof ZodError) {
     return new HttpError(400, 'invalid_request', 'Some fields need attention.', issuesFrom(error, 'body'));
   }
-  // The chemistry core throws RangeError for values outside an equation's validity.
-  if (error instanceof RangeError) return new HttpError(400, 'out_of_range', error.message);
+  // The chemistry core throws RangeError for values outside an equation's validity. Its message
+  // names the equation and the argument's code name; the answer says what a person can act on.
+  if (error instanceof RangeError) return new HttpError(400, 'out_of_range', outOfRangeMessage(error));
   if (isParserError(error)) {
     switch (error.type) {
       case 'entity.parse.failed':

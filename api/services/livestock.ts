@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import { comfortRange, type ComfortRange } from '@shared/livestock/comfort-range';
+import { parametersFor } from '@shared/parameters/catalogue';
 import {
   checkCompatibility,
   type CompatibilityWarning,
@@ -278,7 +279,7 @@ export async function tankComfortRange(db: Db, actor: Actor, tankId: string): Pr
   const present = (await presentInhabitants(db, tank)).map(({ species }) => species);
   const distinct = [...new Map(present.map((entry) => [entry.id, entry])).values()];
   return {
-    ...comfortRange(distinct),
+    ...comfortRange(distinct, parametersFor(tank.waterType)),
     species: distinct.map(({ id, commonName, scientificName }) => ({ id, commonName, scientificName })),
   };
 }

@@ -17,3 +17,5 @@ export { nitrateAsNFromNO3, nitrateAsNO3FromN, phosphateAsPFromPO4, phosphateAsP
 export { commonPracticeMaxDailyRise, doseGrams, dosingCompounds } from './dosing';
 export type { DailyRiseLimit, DoseRiseUnit, DosingCompound } from './dosing';
 export { concentrationAfterWaterChanges, waterChangeFractionFor, waterChangesNeeded } from './water-change';
+export { describeBounds, outOfRangeDetails } from './range-check';
+export type { OutOfRange } from './range-check';

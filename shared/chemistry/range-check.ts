@@ -18,7 +18,23 @@ export interface Bounds {
   readonly roundingAllowance?: number;
 }
 
-function describeBounds({ min, max, minExclusive, maxExclusive }: Bounds): string | undefined {
+export interface OutOfRange {
+  readonly argument: string;
+  readonly value: number;
+  readonly bounds: Bounds;
+}
+
+// The RangeErrors stay plain (their message names the equation, for developers and tests); what a
+// caller needs to word them for a tank owner is kept beside them.
+const outOfRange = new WeakMap<RangeError, OutOfRange>();
+
+/** The argument, value and bounds behind a RangeError from `checkNumber`; undefined for any other error. */
+export function outOfRangeDetails(error: unknown): OutOfRange | undefined {
+  return error instanceof RangeError ? outOfRange.get(error) : undefined;
+}
+
+/** "between 1 and 1.03169", "at least -459.67": the allowed range in words, without its source. */
+export function describeBounds({ min, max, minExclusive, maxExclusive }: Bounds): string | undefined {
   const lower = min === undefined ? undefined : `${minExclusive ? 'greater than' : 'at least'} ${min}`;
   const upper = max === undefined ? undefined : `${maxExclusive ? 'less than' : 'at most'} ${max}`;
   if (lower !== undefined && upper !== undefined) {
@@ -40,7 +56,9 @@ export function checkNumber(name: string, value: number, bounds: Bounds = {}): n
   const belowMin = min !== undefined && (minExclusive ? value <= min - allowance : value < min - allowance);
   const aboveMax = max !== undefined && (maxExclusive ? value >= max + allowance : value > max + allowance);
   if (belowMin || aboveMax) {
-    throw new RangeError(`${name} must be ${describeBounds(bounds)}${basis}, got ${value}`);
+    const error = new RangeError(`${name} must be ${describeBounds(bounds)}${basis}, got ${value}`);
+    outOfRange.set(error, { argument: name, value, bounds });
+    throw error;
   }
   return value;
 }

@@ -41,10 +41,12 @@ export function parameterLabel(parameter: ParameterKey): string {
   return parameterWording[parameter].label;
 }
 
-/** "24–27 °C", "7.9–8.4" */
+/** "24–27 °C", "7.9–8.4"; a range that has closed to one value is that value ("10 °dGH"), not "10–10". */
 export function formatRange(parameter: ParameterKey, range: ParameterRange): string {
   const { unit } = parameterWording[parameter];
-  const span = `${formatNumber(range.min)}–${formatNumber(range.max)}`;
+  const low = formatNumber(range.min);
+  const high = formatNumber(range.max);
+  const span = low === high ? low : `${low}–${high}`;
   return unit ? `${span} ${unit}` : span;
 }
 
@@ -64,15 +66,20 @@ export function joinWithAnd(items: readonly string[]): string {
 
 /**
  * The water every inhabitant tolerates: per parameter, the intersection of their care ranges.
- * Pass only livestock that is in the tank now; callers leave out removed and dead animals.
+ * Pass only livestock that is in the tank now; callers leave out removed and dead animals, and
+ * pass the parameters the tank's water is measured for (a freshwater tank has no salinity to keep,
+ * even when one of its fish would also live in brackish water).
  * A parameter whose ranges have no common ground gets a conflict instead of a range.
  */
-export function comfortRange(inhabitants: readonly Species[]): ComfortRange {
+export function comfortRange(
+  inhabitants: readonly Species[],
+  measured: readonly ParameterKey[] = parameterKeys,
+): ComfortRange {
   const distinct = [...new Map(inhabitants.map((entry) => [entry.id, entry])).values()];
   const ranges: ComfortRange['ranges'] = {};
   const conflicts: ComfortConflict[] = [];
 
-  for (const parameter of parameterKeys) {
+  for (const parameter of measured) {
     const holders = distinct.flatMap((entry) => {
       const range = entry.profile.ranges[parameter];
       return range ? [{ entry, range }] : [];

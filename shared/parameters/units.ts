@@ -6,9 +6,11 @@ import {
   celsiusFromFahrenheit,
   conductivityFromSalinity,
   convertAlkalinity,
+  describeBounds,
   fahrenheitFromCelsius,
   nitrateAsNFromNO3,
   nitrateAsNO3FromN,
+  outOfRangeDetails,
   phosphateAsPFromPO4,
   phosphateAsPO4FromP,
   salinityFromConductivity,
@@ -257,9 +259,57 @@ export function formatValue(
   return spec.symbol === '' ? number : `${number} ${spec.symbol}`;
 }
 
+/**
+ * A reading and the bound it crossed, written so they never read as equal: usually the reading at
+ * its own precision and the bound trimmed ("36.2 ppt" against "36 ppt"), but when both round to the
+ * same figure ("36.0 ppt is above 36 ppt") both get more decimals until they differ ("36.04 ppt"
+ * against "36.00 ppt").
+ */
+export function formatAgainstBound(
+  parameter: ParameterKey,
+  storedValue: number,
+  storedBound: number,
+  options: Omit<FormatOptions, 'trim'> = {},
+): { value: string; bound: string } {
+  const usual = {
+    value: formatValue(parameter, storedValue, options),
+    bound: formatValue(parameter, storedBound, { ...options, trim: true }),
+  };
+  const spec = specFor(parameter, options.unit ?? parameterCatalogue[parameter].unit);
+  const value = spec.fromStored(storedValue, options.context ?? {});
+  const bound = spec.fromStored(storedBound, options.context ?? {});
+  const at = (n: number, decimals: number) => (Number(n.toFixed(decimals)) || 0).toFixed(decimals);
+  if (value === bound || at(value, spec.decimals) !== at(bound, spec.decimals)) return usual;
+  const withSymbol = (text: string) => (spec.symbol === '' ? text : `${text} ${spec.symbol}`);
+  for (let decimals = spec.decimals + 1; decimals <= spec.decimals + 4; decimals += 1) {
+    if (at(value, decimals) !== at(bound, decimals)) {
+      return { value: withSymbol(at(value, decimals)), bound: withSymbol(at(bound, decimals)) };
+    }
+  }
+  return usual;
+}
+
 export type StoredValueCheck =
   | { readonly ok: true; readonly value: number; readonly note?: string }
   | { readonly ok: false; readonly field: 'unit' | 'value'; readonly message: string };
+
+/**
+ * A conversion the equations refuse, in a tank owner's words: the allowed range in the unit typed,
+ * never the equation's name (that belongs on the calculators' Source line).
+ */
+function conversionProblem(parameter: ParameterKey, value: number, unit: string, error: RangeError): string {
+  const { label } = parameterCatalogue[parameter];
+  const symbol = isEntryUnit(parameter, unit) ? unitSymbol(parameter, unit) : unit;
+  const withUnit = (text: string) => (symbol ? `${text} ${symbol}` : text);
+  const refused = outOfRangeDetails(error);
+  if (refused && refused.value === value) {
+    const bounds = describeBounds(refused.bounds);
+    if (bounds !== undefined) {
+      return `${label} ${withUnit(String(value))} cannot be converted: it must be ${withUnit(bounds)}; check the value and its unit`;
+    }
+  }
+  return `${label} ${withUnit(String(value))} cannot be converted; check the value, its unit and any temperatures given`;
+}
 
 /**
  * `toStored` plus the plausibility bounds, without throwing: the reading schemas report the
@@ -276,11 +326,8 @@ export function checkStoredValue(
     stored = toStored(parameter, value, unit, context);
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
-    return {
-      ok: false,
-      field: error instanceof UnitNotAllowedError ? 'unit' : 'value',
-      message: error.message,
-    };
+    if (error instanceof UnitNotAllowedError) return { ok: false, field: 'unit', message: error.message };
+    return { ok: false, field: 'value', message: conversionProblem(parameter, value, unit, error) };
   }
   if (!isPlausible(parameter, stored.value)) {
     const { label, bounds } = parameterCatalogue[parameter];

@@ -10,15 +10,28 @@ export interface SeriesSample {
   readonly mean: number;
   readonly max: number;
   readonly count: number;
+  /** A bucket's width in ms; absent for a single reading. */
+  readonly widthMs?: number;
 }
+
+/**
+ * A daily swing is shown only from at least this many days with at least two readings each: one
+ * day (a home test and a visit on the same afternoon, say) is an anecdote, not an average.
+ */
+export const minSwingDays = 2;
 
 export interface WindowStats {
   readonly count: number;
   readonly mean: number;
   readonly min: number;
   readonly max: number;
-  /** Mean of (highest − lowest) over the days with at least two readings; null when there are none. */
+  /**
+   * Mean of (highest − lowest) over the UTC days with at least two readings; null unless there are
+   * `minSwingDays` such days, or when the samples are buckets wider than a day.
+   */
   readonly averageDailySwing: number | null;
+  /** How many days the swing is averaged over (0 when it is null). */
+  readonly swingDays: number;
   /** Least-squares slope, in units per day; null with fewer than two distinct times. */
   readonly trendPerDay: number | null;
 }
@@ -46,19 +59,28 @@ export function windowStats(samples: readonly SeriesSample[]): WindowStats | nul
     min = Math.min(min, s.min);
     max = Math.max(max, s.max);
   }
+  const swings = daySwings(present);
+  const enoughDays = swings !== null && swings.length >= minSwingDays;
   return {
     count,
     mean: sum / count,
     min,
     max,
-    averageDailySwing: averageDailySwing(present),
+    averageDailySwing: enoughDays ? meanOf(swings) : null,
+    swingDays: enoughDays ? swings.length : 0,
     trendPerDay: trendPerDay(present),
   };
 }
 
-export function averageDailySwing(samples: readonly SeriesSample[]): number | null {
+/**
+ * Highest minus lowest for each UTC day with at least two readings; null when a sample is a bucket
+ * wider than a day, whose spread covers several days. Narrower buckets start on whole multiples of
+ * their width from a UTC midnight (shared/readings/buckets.ts), so each one lies inside one day.
+ */
+function daySwings(samples: readonly SeriesSample[]): number[] | null {
   const days = new Map<number, { min: number; max: number; count: number }>();
   for (const s of samples) {
+    if ((s.widthMs ?? 0) > dayMs) return null;
     const day = Math.floor(s.at / dayMs);
     const seen = days.get(day);
     if (seen) {
@@ -69,9 +91,15 @@ export function averageDailySwing(samples: readonly SeriesSample[]): number | nu
       days.set(day, { min: s.min, max: s.max, count: s.count });
     }
   }
-  const swings = [...days.values()].filter((d) => d.count >= 2).map((d) => d.max - d.min);
-  if (swings.length === 0) return null;
-  return swings.reduce((a, b) => a + b, 0) / swings.length;
+  return [...days.values()].filter((d) => d.count >= 2).map((d) => d.max - d.min);
+}
+
+const meanOf = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
+
+/** Mean of the swings of the days with at least two readings, however few; null when there are none. */
+export function averageDailySwing(samples: readonly SeriesSample[]): number | null {
+  const swings = daySwings(samples);
+  return swings === null || swings.length === 0 ? null : meanOf(swings);
 }
 
 export function trendPerDay(samples: readonly SeriesSample[]): number | null {
@@ -95,4 +123,26 @@ export function trendPerDay(samples: readonly SeriesSample[]): number | null {
     variance += s.count * t * t;
   }
   return variance > 0 ? covariance / variance : null;
+}
+
+export type TrendDirection = 'rising' | 'falling' | 'steady';
+
+/**
+ * Which way a trend goes, as it will be read. A slope is steady when it rounds to zero at the
+ * precision it is shown with (`perDayDecimals`), or when over the whole window (`windowDays`) it
+ * adds up to less than the value's own last shown digit (`valueDecimals`): a "0.000 a day" trend
+ * called "falling" contradicts itself, and a change smaller than a test can show is noise.
+ */
+export function trendDirection(
+  perDay: number,
+  {
+    perDayDecimals,
+    valueDecimals,
+    windowDays,
+  }: { perDayDecimals: number; valueDecimals: number; windowDays: number },
+): TrendDirection {
+  const shownPerDay = Number(Math.abs(perDay).toFixed(perDayDecimals));
+  if (shownPerDay === 0) return 'steady';
+  if (Math.abs(perDay * windowDays) < 10 ** -valueDecimals) return 'steady';
+  return perDay > 0 ? 'rising' : 'falling';
 }

@@ -12,14 +12,23 @@ const dateTimeOptions: Intl.DateTimeFormatOptions = {
   minute: '2-digit',
   hourCycle: 'h23',
 };
+// Shorter forms of the same words, for a chart's axis where the year is plain from the context.
+const kinds = {
+  date: dateOptions,
+  'date-time': dateTimeOptions,
+  'day-month': { day: 'numeric', month: 'short' },
+  'day-month-time': { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' },
+  'month-year': { month: 'short', year: 'numeric' },
+} satisfies Record<string, Intl.DateTimeFormatOptions>;
+type FormatKind = keyof typeof kinds;
 const formats = new Map<string, Intl.DateTimeFormat>();
 
-function formatFor(kind: 'date' | 'date-time', timeZone: string | undefined): Intl.DateTimeFormat {
+function formatFor(kind: FormatKind, timeZone: string | undefined): Intl.DateTimeFormat {
   const key = `${kind}:${timeZone ?? ''}`;
   let format = formats.get(key);
   if (!format) {
     format = new Intl.DateTimeFormat(locale, {
-      ...(kind === 'date' ? dateOptions : dateTimeOptions),
+      ...kinds[kind],
       ...(timeZone ? { timeZone } : {}),
     });
     formats.set(key, format);
@@ -35,4 +44,19 @@ export function formatDateTime(at: Date | string | number, timeZone?: string): s
 /** "1 Dec 2026" in `timeZone`, or the runtime's own zone. */
 export function formatDate(at: Date | string | number, timeZone?: string): string {
   return formatFor('date', timeZone).format(new Date(at));
+}
+
+/** "1 Dec, 18:00": a moment on a chart's axis. */
+export function formatDayMonthTime(at: Date | string | number, timeZone?: string): string {
+  return formatFor('day-month-time', timeZone).format(new Date(at));
+}
+
+/** "1 Dec": a day on a chart's axis. */
+export function formatDayMonth(at: Date | string | number, timeZone?: string): string {
+  return formatFor('day-month', timeZone).format(new Date(at));
+}
+
+/** "Dec 2026": a month on a chart's axis. */
+export function formatMonthYear(at: Date | string | number, timeZone?: string): string {
+  return formatFor('month-year', timeZone).format(new Date(at));
 }

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { comfortRange } from '@shared/livestock/comfort-range';
+import { comfortRange, formatRange } from '@shared/livestock/comfort-range';
+import { parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterRange } from '@shared/livestock/species';
 import { buildSpecies, catalogued } from './species-factory';
 
@@ -119,5 +120,32 @@ describe('comfortRange', () => {
         }
       }),
     );
+  });
+});
+
+describe('comfortRange on a freshwater tank', () => {
+  it('keeps no salinity range, though a molly would also live in brackish water', () => {
+    const molly = catalogued('molly');
+
+    const { ranges } = comfortRange([molly], parametersFor('fresh'));
+
+    expect(ranges.salinity).toBeUndefined();
+    expect(ranges.temperature).toMatchObject({ min: 24, max: 28 });
+    // A brackish tank keeps it.
+    expect(comfortRange([molly], parametersFor('brackish')).ranges.salinity).toMatchObject({
+      min: 0,
+      max: 15,
+    });
+  });
+});
+
+describe('formatRange', () => {
+  it('writes a range closed to one value as that value, not "10–10"', () => {
+    expect(formatRange('gh', { min: 10, max: 10 })).toBe('10 °dGH');
+    expect(formatRange('ph', { min: 8.1, max: 8.1 })).toBe('8.1');
+  });
+
+  it('writes an open range from its low to its high end', () => {
+    expect(formatRange('gh', { min: 6, max: 10 })).toBe('6–10 °dGH');
   });
 });

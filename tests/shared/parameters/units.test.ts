@@ -129,6 +129,23 @@ describe('checkStoredValue', () => {
     expect(checkStoredValue('nitrate', -1, 'mg/L NO3-N')).toMatchObject({ ok: false, field: 'value' });
   });
 
+  it('words a refused conversion for the person who typed it, without naming the equation', () => {
+    const refused = checkStoredValue('salinity', 1.04, 'specific gravity', {
+      sampleTempC: 25,
+      referenceTempC: 25,
+    });
+
+    expect(refused).toEqual({
+      ok: false,
+      field: 'value',
+      message:
+        'Salinity 1.04 SG cannot be converted: it must be between 1 and 1.03169 SG; check the value and its unit',
+    });
+    expect(checkStoredValue('nitrate', -1, 'mg/L NO3-N')).toMatchObject({
+      message: expect.not.stringMatching(/EOS-80|PSS-78|validity|, got /),
+    });
+  });
+
   it('passes a good value on with its note', () => {
     expect(checkStoredValue('temperature', 77, '°F')).toEqual({
       ok: true,

@@ -13,12 +13,12 @@ const promises = [
     body: 'When a reading crosses a limit you get one alert on your phone, with what it means and what to do first.',
   },
   {
-    title: 'Proof of every visit',
-    body: 'Read what your technician did: water changed, readings taken, livestock checked, photos and what comes next.',
+    title: 'The story in the readings',
+    body: 'Every reading your technician, your own tests or the tank’s device record, charted against the limits, with what lives in the tank and the water it needs.',
   },
   {
-    title: 'Help when it goes wrong',
-    body: 'Ask for an urgent visit in a few taps. First-aid steps and safety cautions appear while the on-call technician is on the way.',
+    title: 'Worked out for you',
+    body: 'Calculators for salinity, alkalinity, free ammonia, dosing and water changes, with safety cautions where they matter.',
   },
 ];
 
@@ -54,8 +54,8 @@ export function LandingRoute() {
           <div>
             <h1 className="text-display font-bold">Your tank, looked after between visits.</h1>
             <p className="mt-4 max-w-prose text-lg text-ink-100">
-              Brinewatch is your aquarium company&apos;s portal. See how your tank is doing, read every visit
-              report, and reach the team the moment something looks wrong.
+              Brinewatch is your aquarium company&apos;s portal. See how your tank is doing, follow its
+              readings, and hear about it the moment something looks wrong.
             </p>
             <div className="mt-8 flex flex-wrap items-center gap-4">
               <FrontDoorAction />

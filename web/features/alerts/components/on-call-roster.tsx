@@ -91,7 +91,7 @@ function AddShiftForm() {
     <Form
       form={form}
       aria-labelledby={`${id}-title`}
-      className="border-t border-ink-100 p-4"
+      className="@container border-t border-ink-100 p-4"
       onSubmit={async (shift) => {
         setSaved(undefined);
         await add.mutateAsync(shift);
@@ -108,7 +108,9 @@ function AddShiftForm() {
           <SelectField name="userId" label="Who" options={options} />
           {staff.isError && <FieldError>{problemMessage(staff.error)}</FieldError>}
         </div>
-        <div className="grid gap-3 sm:grid-cols-2">
+        {/* Side by side only where the form itself is wide enough for two whole date-and-time inputs:
+            beside the alerts board at 1280 px it is a narrow column, whatever the screen. */}
+        <div className="grid gap-3 @lg:grid-cols-2">
           <TextField name="startsAt" label="Starts" type="datetime-local" />
           <TextField name="endsAt" label="Ends" type="datetime-local" />
         </div>

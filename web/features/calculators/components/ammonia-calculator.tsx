@@ -184,7 +184,7 @@ export function AmmoniaCalculator() {
               <p>Seawater: Clegg &amp; Whitfield (1995), pH on the total scale.</p>
             )}
             <p>
-              Danger levels ({watchFrom} and {harmfulAbove} mg/L NH₃) are common practice, not a published
+              Danger levels ({watchFrom} and {harmfulAbove} mg/L NH₃) are a general guide, not a published
               limit.
             </p>
           </SourceNote>

@@ -186,7 +186,8 @@ export function DosingCalculator() {
               {formatPlain(litresFromImperialGallons(1), 5)} L (UK Weights and Measures Act 1985).
             </p>
             <p>
-              Daily step of about {dailyStep.rise} {raised.unit} {raised.parameter}: common practice.
+              Daily step of about {dailyStep.rise} {raised.unit} {raised.parameter}: a general guide, not a
+              published limit.
             </p>
           </SourceNote>
         }
@@ -213,9 +214,9 @@ export function DosingCalculator() {
               <div className="rounded-lg border-l-4 border-watch-700 bg-watch-100 p-3 text-ink-950">
                 <p className="font-bold text-watch-700">More than a day’s step</p>
                 <p className="mt-1 text-sm" data-testid="dosing-split">
-                  Common practice is to raise {raised.parameter} by no more than about {dailyStep.rise}{' '}
-                  {raised.unit} a day. Split this over {dose.days} days: about{' '}
-                  {formatGrams(dose.grams / dose.days)} g a day, testing before each dose.
+                  Raise {raised.parameter} by no more than about {dailyStep.rise} {raised.unit} a day. Split
+                  this over {dose.days} days: about {formatGrams(dose.grams / dose.days)} g a day, testing
+                  before each dose.
                 </p>
               </div>
             )}

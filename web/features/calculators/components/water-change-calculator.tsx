@@ -133,8 +133,8 @@ export function WaterChangeCalculator() {
         source={
           <SourceNote>
             <p>
-              Mass balance, common practice: after n changes of a share f, reading = new + (start − new) × (1
-              − f)ⁿ. Assumes the water mixes fully between changes and nothing is added or used up meanwhile.
+              Mass balance: after n changes of a share f, reading = new + (start − new) × (1 − f)ⁿ. Assumes
+              the water mixes fully between changes and nothing is added or used up meanwhile.
             </p>
           </SourceNote>
         }
@@ -156,7 +156,7 @@ export function WaterChangeCalculator() {
             {plan.singlePercent !== undefined && (
               <p className="text-sm text-ink-900" data-testid="water-change-single">
                 One change of {formatFixed(plan.singlePercent, 1)} % would reach the target at once, but
-                common practice is smaller, regular changes: a big change swings every other reading with it.
+                smaller, regular changes are gentler: a big change swings every other reading with it.
               </p>
             )}
             {plan.rows.length > 0 && (

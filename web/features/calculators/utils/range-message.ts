@@ -37,19 +37,20 @@ export function explainRangeError<F extends string>(
   if (!(error instanceof RangeError)) throw error;
   const match = rangeFailure.exec(error.message);
   if (!match) return undefined;
-  const [, rawName = '', bounds = '', basis, got = ''] = match;
+  const [, rawName = '', bounds = '', , got = ''] = match;
   // Worked-out values are named with their input appended: "practical salinity from mSPerCm 1".
   const name = rawName.replace(/ \S+$/, '');
   const info = args[rawName] ?? args[name];
-  if (!info) return { message: 'These values are outside what the equations cover.' };
+  if (!info) return { message: 'These values are outside what this calculator can work with.' };
   const toField = info.fromModule ?? ((value: number) => value);
   const inFieldUnits = (text: string) =>
     text.replace(numberInText, (number) => formatPlain(toField(Number(number)), info.decimals));
   const unit = info.unit ? ` ${info.unit}` : '';
-  const source = basis ? ` (${basis})` : '';
+  // The equation behind a range ("EOS-80 validity") is named on the calculator's Source line; the
+  // message itself says only what the person can act on.
   const message = info.derived
-    ? `${info.label} comes to ${inFieldUnits(got)}${unit}, but must be ${inFieldUnits(bounds)}${unit}${source}.`
-    : `${info.label} must be ${inFieldUnits(bounds)}${unit}${source}.`;
+    ? `${info.label} comes to ${inFieldUnits(got)}${unit}, but must be ${inFieldUnits(bounds)}${unit}.`
+    : `${info.label} must be ${inFieldUnits(bounds)}${unit}.`;
   return info.field === undefined ? { message } : { field: info.field, message };
 }
 
@@ -61,7 +62,7 @@ export function attempt<T, F extends string>(compute: () => T, args: ArgumentMap
     return { ok: true, value: compute() };
   } catch (error) {
     const problem = explainRangeError(error, args) ?? {
-      message: 'These values are outside what the equations cover.',
+      message: 'These values are outside what this calculator can work with.',
     };
     return { ok: false, ...problem };
   }

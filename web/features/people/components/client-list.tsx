@@ -49,7 +49,7 @@ function ClientRow({
         <div className="flex flex-wrap gap-2">
           <AccountStatusAction
             person={client}
-            kept="Their tanks, readings and visit reports stay as they are."
+            kept="Their tanks and readings stay as they are."
             onDone={onDone}
           />
         </div>

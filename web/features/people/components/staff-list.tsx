@@ -60,7 +60,7 @@ function StaffRow({
           </Button>
           <AccountStatusAction
             person={member}
-            kept="Their visit reports, readings and notes stay in Brinewatch."
+            kept="The readings and notes they recorded stay in Brinewatch."
             onDone={onDone}
           />
         </div>
