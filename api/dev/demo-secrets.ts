@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto';
-import { chmod, mkdir, readFile, stat, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
+import { loadOrCreatePrivateJson } from '../lib/private-file';
 
 /** The secrets the app refuses to start without, made for the demo instead of shipped in the code. */
 export interface DemoSecrets {
@@ -8,30 +8,18 @@ export interface DemoSecrets {
   OIDC_CLIENT_SECRET: string;
 }
 
-const fileName = 'secrets.json';
-
 /**
  * The demo's own secrets: made at first start and kept in `dir/secrets.json` (mode 0600), so
  * sessions survive a restart and the identity-provider stand-in and the app agree on the client
  * secret. Production passes them through the environment; with NODE_ENV=production nothing is made
  * here and the start fails with the missing names.
  */
-export async function loadOrCreateDemoSecrets(dir: string): Promise<DemoSecrets> {
-  const path = join(dir, fileName);
-  await mkdir(dir, { recursive: true });
-  const created: DemoSecrets = {
+export function loadOrCreateDemoSecrets(dir: string): Promise<DemoSecrets> {
+  const make = (): DemoSecrets => ({
     SESSION_SECRET: randomBytes(32).toString('base64url'),
     OIDC_CLIENT_SECRET: randomBytes(32).toString('base64url'),
-  };
-  try {
-    // 'wx' fails when the file exists, so two processes starting together keep one set.
-    await writeFile(path, `${JSON.stringify(created, null, 2)}\n`, { flag: 'wx', mode: 0o600 });
-    return created;
-  } catch (error) {
-    if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
-  }
-  if (((await stat(path)).mode & 0o077) !== 0) await chmod(path, 0o600);
-  return parseDemoSecrets(await readFile(path, 'utf8'), path);
+  });
+  return loadOrCreatePrivateJson(dir, 'secrets.json', make, parseDemoSecrets);
 }
 
 function parseDemoSecrets(text: string, path: string): DemoSecrets {

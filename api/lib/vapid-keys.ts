@@ -1,7 +1,6 @@
 import { createECDH } from 'node:crypto';
-import { chmod, mkdir, readFile, stat, writeFile } from 'node:fs/promises';
-import { join } from 'node:path';
 import webpush from 'web-push';
+import { loadOrCreatePrivateJson } from './private-file';
 
 /** The application server's VAPID signing key pair (RFC 8292 §2), both halves base64url. */
 export interface VapidKeys {
@@ -11,8 +10,6 @@ export interface VapidKeys {
   privateKey: string;
 }
 
-const fileName = 'vapid.json';
-
 /**
  * The demo's VAPID keys: made at first start and kept in `dir/vapid.json` (mode 0600), so that
  * browsers subscribed in one run can still be reached in the next. Production passes its keys
@@ -21,20 +18,8 @@ const fileName = 'vapid.json';
  * A damaged file is an error, never a reason to make new keys: every subscription is bound to the
  * public key it was created with (RFC 8292 §4), so new keys would silently orphan all of them.
  */
-export async function loadOrCreateVapidKeys(dir: string): Promise<VapidKeys> {
-  const path = join(dir, fileName);
-  await mkdir(dir, { recursive: true });
-  const created = webpush.generateVAPIDKeys();
-  try {
-    // 'wx' fails when the file exists, so two processes starting together keep one key pair.
-    await writeFile(path, `${JSON.stringify(created, null, 2)}\n`, { flag: 'wx', mode: 0o600 });
-    return created;
-  } catch (error) {
-    if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
-  }
-  // The private key signs for the whole deployment; a copied-in file may be readable by others.
-  if (((await stat(path)).mode & 0o077) !== 0) await chmod(path, 0o600);
-  return parseVapidKeys(await readFile(path, 'utf8'), path);
+export function loadOrCreateVapidKeys(dir: string): Promise<VapidKeys> {
+  return loadOrCreatePrivateJson(dir, 'vapid.json', () => webpush.generateVAPIDKeys(), parseVapidKeys);
 }
 
 function parseVapidKeys(text: string, path: string): VapidKeys {
