@@ -24,6 +24,7 @@ import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
 import { raiseAlertsFor } from './alerts';
 import { healthForTanks } from './tank-health';
+import { formatDate } from '@shared/text/dates';
 
 type TankRow = typeof tanks.$inferSelect;
 
@@ -47,7 +48,7 @@ export function timeProblem(measuredAt: Date, existsFrom: Date, now: Date): Time
 export function timeProblemMessage(problem: TimeProblem, existsFrom: Date): string {
   return problem === 'future'
     ? 'this time is in the future; check the date and time'
-    : `this is before the tank existed (from ${existsFrom.toISOString().slice(0, 10)})`;
+    : `this is before the tank existed (from ${formatDate(existsFrom, 'UTC')})`;
 }
 
 /** A stored reading as the alert engine judges it. */
@@ -417,5 +418,12 @@ export async function latestReadings(
 ): Promise<TankHealthSummary> {
   const tank = await findTankFor(db, actor, tankId, 'read');
   const health = await healthForTanks(db, [tank.id], now);
-  return health.get(tank.id) ?? { status: 'no-data', parameters: [], lastReadingAt: null };
+  return (
+    health.get(tank.id) ?? {
+      status: 'no-data',
+      statusReason: 'No readings yet',
+      parameters: [],
+      lastReadingAt: null,
+    }
+  );
 }

@@ -157,6 +157,13 @@ function listed(items: readonly string[], shown = 2): string {
   return `${items.slice(0, shown).join('; ')} and ${items.length - shown} more`;
 }
 
+/** The first concern in full and a count of the rest, so a tank card stays short on a phone. */
+function firstOfMany(parts: readonly string[]): string {
+  const [first = '', ...rest] = parts;
+  if (rest.length === 0) return first;
+  return `${first}, and ${rest.length} more ${rest.length === 1 ? 'concern' : 'concerns'}`;
+}
+
 export function judgeTank(facts: TankFacts, now: Date): TankVerdict {
   const parameters = facts.parameters.map((p) => judgeParameter(p, facts.inhabitants, facts.openAlerts, now));
   const counted = parameters.filter((p) => p.watched);
@@ -185,7 +192,7 @@ export function judgeTank(facts: TankFacts, now: Date): TankVerdict {
       parts.push(`${count}: ${listed(others.map((alert) => alert.title))}`);
     }
     if (parts.length === 0) parts.push(...counted.filter((p) => p.health === 'stale').map((p) => p.reason));
-    reason = listed(parts);
+    reason = firstOfMany(parts);
   } else if (status === 'no-data') {
     const newest = Math.max(
       ...parameters.flatMap((p) => {

@@ -44,6 +44,15 @@ async function signInAt(page: Page, path: string, email: string) {
   await page.waitForURL((url) => url.pathname === path);
 }
 
+/** The tank page opens on its summary; the readings, charts and staff tools are a section of it. */
+async function openReadings(page: Page) {
+  await page
+    .getByRole('navigation', { name: 'Tank sections' })
+    .getByRole('link', { name: 'Readings and charts' })
+    .click();
+  await page.waitForURL((url) => url.searchParams.get('section') === 'readings');
+}
+
 const caption = (page: Page) => page.locator('figcaption');
 
 async function chartDrawn(page: Page) {
@@ -63,6 +72,7 @@ describe('tank readings, charts and limits', () => {
   it('lets the owner open a chart with its limit bands, switch range and unit, on a phone', async () => {
     const page = await session.newPage('phone');
     await signInAt(page, `/tanks/${quaysideReef}`, 'felix@quayside-dental.test');
+    await openReadings(page);
 
     await page.getByRole('heading', { name: 'Water readings' }).waitFor();
     const temperatureTile = page.getByRole('button', { name: /^Temperature/ });
@@ -92,6 +102,7 @@ describe('tank readings, charts and limits', () => {
   it('shows the heater failing on the 90-day chart and salinity as specific gravity, on a desktop', async () => {
     const page = await session.newPage('desktop');
     await signInAt(page, `/tanks/${quaysideReef}`, 'felix@quayside-dental.test');
+    await openReadings(page);
     await page.getByRole('heading', { name: 'Water readings' }).waitFor();
 
     await page.getByRole('group', { name: 'Period' }).getByText('90 d').click();
@@ -119,6 +130,7 @@ describe('tank readings, charts and limits', () => {
   it('lets the owner record a home test and see it saved', async () => {
     const page = await session.newPage('phone');
     await signInAt(page, `/tanks/${quaysideReef}`, 'felix@quayside-dental.test');
+    await openReadings(page);
     const form = page.locator('form', { has: page.getByRole('heading', { name: 'Add readings' }) });
     await form.waitFor();
     const nitrate = form.getByTestId('entry-nitrate');
@@ -133,6 +145,7 @@ describe('tank readings, charts and limits', () => {
   it('gives staff the limits editor and the devices on the same page', async () => {
     const page = await session.newPage('desktop');
     await signInAt(page, `/tanks/${quaysideReef}`, 'priya@driftglass.test');
+    await openReadings(page);
     await page.getByRole('heading', { name: 'Limits' }).waitFor();
     await page.getByRole('heading', { name: 'Devices' }).waitFor();
     const devices = page.getByRole('region', { name: 'Devices' });

@@ -72,11 +72,18 @@ describe('tanks, livestock and equipment in the browser', () => {
       await page.getByRole('link', { name: 'Living room reef' }).click();
       await page.waitForURL(`**/tanks/${livingRoomReef}`);
       const livestock = page.getByRole('region', { name: 'Livestock' });
+      const sections = page.getByRole('navigation', { name: 'Tank sections' });
 
-      await checkScreen(page, 'owner-tank-page', async () => {
-        await livestock.getByRole('heading', { name: 'Pip and Dot' }).waitFor();
-        await page.getByRole('heading', { name: 'Board B' }).waitFor();
-      });
+      await checkScreen(page, 'owner-tank-page', () =>
+        page.getByRole('heading', { name: 'Key readings' }).waitFor(),
+      );
+      const summaryPhotos = await photosOn(page);
+      // Livestock and the power boards are a tap away, each in its own section.
+      await page.setViewportSize(viewports.phone);
+      await sections.getByRole('link', { name: 'Livestock' }).click();
+      await checkScreen(page, 'owner-tank-livestock', () =>
+        livestock.getByRole('heading', { name: 'Pip and Dot' }).waitFor(),
+      );
 
       const anemone = livestock
         .getByRole('listitem')
@@ -91,11 +98,18 @@ describe('tanks, livestock and equipment in the browser', () => {
       expect(await livestock.getByText('Toxic to touch: gloves and eye protection').count()).toBeGreaterThan(
         0,
       );
+      const livestockPhotos = await photosOn(page);
+
+      await page.setViewportSize(viewports.phone);
+      await sections.getByRole('link', { name: 'Equipment' }).click();
+      await checkScreen(page, 'owner-tank-equipment', () =>
+        page.getByRole('heading', { name: 'Board B' }).waitFor(),
+      );
       expect(await page.getByText('Water and electricity: switch off first').count()).toBe(1);
       expect(
         await page.getByRole('list', { name: 'Outlets on board B' }).getByText('Dosing pump').count(),
       ).toBeGreaterThan(0);
-      const photos = await photosOn(page);
+      const photos = [...summaryPhotos, ...livestockPhotos, ...(await photosOn(page))];
       expect(photos.length).toBeGreaterThanOrEqual(6);
       expect(photos.filter((photo) => photo.width === 0 || !photo.path.startsWith('/api/photos/'))).toEqual(
         [],
@@ -115,6 +129,10 @@ describe('tanks, livestock and equipment in the browser', () => {
     });
 
     it('lists clients and tanks, searches and filters by technician', async () => {
+      // A technician opens on their own tanks; everyone's are one tap away.
+      const whose = page.getByRole('navigation', { name: 'Whose tanks' });
+      expect(await whose.getByRole('link', { name: 'My tanks' }).getAttribute('aria-current')).toBe('page');
+      await whose.getByRole('link', { name: 'Everyone' }).click();
       await checkScreen(page, 'console-tanks', () => page.getByText('5 tanks for 4 clients').waitFor());
 
       await page.getByRole('searchbox', { name: /Search/ }).fill('dental');
@@ -146,9 +164,14 @@ describe('tanks, livestock and equipment in the browser', () => {
       await inTank.getByRole('heading', { name: 'Carpet anemone' }).waitFor();
 
       // Leave the demo tank as it was for the other browser tests.
-      page.once('dialog', (dialog) => void dialog.accept());
       await inTank.getByRole('button', { name: 'Delete entry for Carpet anemone' }).click();
-      await inTank.getByRole('heading', { name: 'Carpet anemone' }).waitFor({ state: 'detached' });
+      await page
+        .getByRole('dialog', { name: 'Delete the entry for Carpet anemone?' })
+        .getByRole('button', { name: 'Delete entry' })
+        .click();
+      await inTank
+        .getByRole('heading', { name: 'Carpet anemone', exact: true })
+        .waitFor({ state: 'detached' });
     });
 
     it('converts volumes live when the unit changes in the tank editor, and creates the tank', async () => {

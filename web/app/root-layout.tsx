@@ -1,4 +1,5 @@
-import { Link, NavLink, Outlet, useNavigation } from 'react-router';
+import { useEffect, useRef } from 'react';
+import { Link, NavLink, Outlet, useLocation, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
 import { can, useMe } from '../lib/auth';
 import { UserMenu } from '../features/auth/components/user-menu';
@@ -6,12 +7,23 @@ import { NotificationBell } from '../features/notifications/components/notificat
 import { useLiveEvents } from '../features/notifications/live-events';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
-  `inline-flex min-h-11 items-center rounded-md px-3 text-sm font-bold no-underline transition-colors ${
+  `inline-flex min-h-11 items-center whitespace-nowrap rounded-md px-3 text-sm font-bold no-underline transition-colors ${
     isActive ? 'bg-ink-800 text-white' : 'text-ink-100 hover:bg-ink-800 hover:text-white'
   }`;
 
+/**
+ * One row of links. On a phone the row scrolls sideways inside the header (never the page), so
+ * the header stays one line tall and the current page's link is scrolled into view.
+ */
 function MainNav() {
   const { data: me } = useMe();
+  const { pathname } = useLocation();
+  const navRef = useRef<HTMLElement>(null);
+  useEffect(() => {
+    navRef.current
+      ?.querySelector('[aria-current="page"]')
+      ?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
+  }, [pathname]);
   const links: { to: string; label: string; end?: boolean }[] = [];
   // Staff work from the company console; a client sees their own tanks.
   if (can(me, 'clients:read')) {
@@ -22,15 +34,16 @@ function MainNav() {
   } else if (me) links.push({ to: '/tanks', label: 'My tanks' });
   links.push({ to: '/calculators', label: 'Calculators' });
   return (
-    <nav
-      aria-label="Main"
-      className="order-3 -mx-1 flex w-full flex-wrap items-center gap-1 sm:order-none sm:w-auto sm:flex-1"
-    >
-      {links.map((link) => (
-        <NavLink key={link.to} to={link.to} end={link.end} className={navLinkClass}>
-          {link.label}
-        </NavLink>
-      ))}
+    <nav ref={navRef} aria-label="Main" className="min-w-0 flex-1 overflow-x-auto">
+      <ul className="flex w-max items-center gap-1">
+        {links.map((link) => (
+          <li key={link.to}>
+            <NavLink to={link.to} end={link.end} className={navLinkClass}>
+              {link.label}
+            </NavLink>
+          </li>
+        ))}
+      </ul>
     </nav>
   );
 }
@@ -47,14 +60,14 @@ export function RootLayout() {
         Skip to content
       </a>
       <header className="bg-ink-900 text-white">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-x-6 gap-y-2 px-4 py-3">
-          <Link to="/" className="flex items-center gap-2 text-white no-underline">
+        <div className="mx-auto flex max-w-6xl items-center gap-2 px-4 py-2 sm:gap-6 sm:py-3">
+          <Link to="/" className="flex min-h-11 shrink-0 items-center gap-2 text-white no-underline">
             <BrandMark className="h-8 w-8" />
-            <span className="text-lg font-bold tracking-tight">Brinewatch</span>
+            {/* On a phone the mark alone; screen readers still hear the name. */}
+            <span className="sr-only text-lg font-bold tracking-tight sm:not-sr-only">Brinewatch</span>
           </Link>
           <MainNav />
-          {/* On a phone the bell joins the brand's row; the user menu wraps below as before. */}
-          <div className="contents sm:flex sm:items-center sm:gap-2">
+          <div className="flex shrink-0 items-center gap-1 sm:gap-2">
             <NotificationBell />
             <UserMenu />
           </div>

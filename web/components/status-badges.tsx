@@ -99,3 +99,8 @@ export function ParameterHealthBadge({ health }: { health: ParameterHealth }) {
     </Badge>
   );
 }
+
+/** The status in words, beside its badge, so "Watch" always comes with why. */
+export function StatusReason({ reason, className = '' }: { reason: string; className?: string }) {
+  return <p className={`text-sm text-ink-700 ${className}`}>{reason}</p>;
+}

@@ -1,6 +1,12 @@
 import { useEffect, useState } from 'react';
 import { volumeIn, volumeUnitLabels, type VolumeUnit } from '@shared/schemas/tanks';
-import { formatDate, formatDateTime } from '@shared/text/dates';
+import {
+  formatDate,
+  formatDateTime,
+  formatDayMonth,
+  formatDayMonthTime,
+  formatMonthYear,
+} from '@shared/text/dates';
 
 /*
  * The one place in the client that turns dates, times and numbers into text. Moments are written
@@ -24,7 +30,7 @@ export function relativeTime(iso: string | number, now = Date.now()): string {
   return relative.format(-Math.floor(elapsed / day), 'day');
 }
 
-export { formatDate, formatDateTime };
+export { formatDate, formatDateTime, formatDayMonth, formatDayMonthTime, formatMonthYear };
 
 /** A calendar day ("2025-04-12") as people read it; no time zone can move a calendar day. */
 export function formatDay(isoDay: string | null): string {

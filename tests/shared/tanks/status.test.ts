@@ -78,6 +78,16 @@ describe('judgeTank', () => {
     expect(verdict.reason).toBe('2 open alerts: No recent readings from Sump probe and Salinity rising fast');
   });
 
+  it('names the first of several concerns in full and counts the rest, so a card stays short', () => {
+    const verdict = tank([
+      { parameter: 'ph', limits: phLimits, latest: homeTest(6.4, ago(hours(1))) },
+      { parameter: 'temperature', limits: temperatureLimits, latest: homeTest(27.5, ago(hours(1))) },
+    ]);
+
+    expect(verdict.status).toBe('watch');
+    expect(verdict.reason).toMatch(/^pH 6\.40? is below the warning limit of 6\.5, and 1 more concern$/);
+  });
+
   it('is alert with an open critical alert, and the parameter tile it concerns agrees', () => {
     const verdict = tank(
       [{ parameter: 'temperature', limits: temperatureLimits, latest: homeTest(26.9, ago(hours(1))) }],

@@ -1,5 +1,7 @@
-import { Link, useParams } from 'react-router';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
+import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { Page } from '../../components/page';
+import { SectionNav } from '../../components/section-nav';
 import { ErrorState, LoadingState } from '../../components/states';
 import { TankAlertsSection } from '../../features/alerts/components/tank-alerts-section';
 import { can, useMe } from '../../lib/auth';
@@ -11,8 +13,10 @@ import { useComfortRange } from '../../features/livestock/api/get-comfort-range'
 import { useLivestock } from '../../features/livestock/api/get-livestock';
 import { ComfortRangePanel } from '../../features/livestock/components/comfort-range-panel';
 import { LivestockGallery } from '../../features/livestock/components/livestock-gallery';
+import { KeyReadings } from '../../features/readings/components/key-readings';
 import { TankReadingsSection } from '../../features/readings/components/tank-readings-section';
 import { useTank } from '../../features/tanks/api/get-tank';
+import { TankAtAGlance } from '../../features/tanks/components/tank-at-a-glance';
 import { TankOverview } from '../../features/tanks/components/tank-overview';
 
 const actionClass =
@@ -30,7 +34,7 @@ function Section({
   children: React.ReactNode;
 }) {
   return (
-    <section aria-labelledby={id} className="mt-8">
+    <section aria-labelledby={id}>
       <h2 id={id} className="text-xl font-bold text-ink-900">
         {title}
       </h2>
@@ -40,7 +44,15 @@ function Section({
   );
 }
 
-function LivestockSection({ tankId, timeZone }: { tankId: string; timeZone: string }) {
+function LivestockSection({
+  tankId,
+  timeZone,
+  isStaff,
+}: {
+  tankId: string;
+  timeZone: string;
+  isStaff: boolean;
+}) {
   const livestock = useLivestock(tankId);
   const comfort = useComfortRange(tankId);
   return (
@@ -49,6 +61,13 @@ function LivestockSection({ tankId, timeZone }: { tankId: string; timeZone: stri
       title="Livestock"
       description="What lives in the tank and how each is doing."
     >
+      {isStaff && (
+        <p className="mb-3">
+          <Link to={`/console/tanks/${tankId}/livestock`} className={actionClass}>
+            Manage livestock
+          </Link>
+        </p>
+      )}
       {livestock.isPending ? (
         <LoadingState label="Loading livestock…" />
       ) : livestock.isError ? (
@@ -70,7 +89,15 @@ function LivestockSection({ tankId, timeZone }: { tankId: string; timeZone: stri
   );
 }
 
-function EquipmentSection({ tankId, timeZone }: { tankId: string; timeZone: string }) {
+function EquipmentSection({
+  tankId,
+  timeZone,
+  isStaff,
+}: {
+  tankId: string;
+  timeZone: string;
+  isStaff: boolean;
+}) {
   const equipment = useEquipment(tankId);
   return (
     <Section
@@ -78,6 +105,13 @@ function EquipmentSection({ tankId, timeZone }: { tankId: string; timeZone: stri
       title="Equipment and power boards"
       description="Where everything is plugged in, so you can switch off the right outlet."
     >
+      {isStaff && (
+        <p className="mb-3">
+          <Link to={`/console/tanks/${tankId}/equipment`} className={actionClass}>
+            Manage equipment
+          </Link>
+        </p>
+      )}
       {equipment.isPending ? (
         <LoadingState label="Loading equipment…" />
       ) : equipment.isError ? (
@@ -95,11 +129,34 @@ function EquipmentSection({ tankId, timeZone }: { tankId: string; timeZone: stri
   );
 }
 
+const sections = [
+  { key: 'summary', label: 'Summary' },
+  { key: 'readings', label: 'Readings and charts' },
+  { key: 'livestock', label: 'Livestock' },
+  { key: 'equipment', label: 'Equipment' },
+  { key: 'about', label: 'About the tank' },
+] as const;
+type SectionKey = (typeof sections)[number]['key'];
+
+const isSection = (value: string | null): value is SectionKey => sections.some((s) => s.key === value);
+
+/**
+ * A tank's page: a summary that answers "is my tank OK, and what do I do?" on the first screen
+ * of a phone, and the rest one tap away in sections that live in the address (`?section=`), so
+ * the back button and a shared link both land where they should.
+ */
 export function TankRoute() {
   const { tankId = '' } = useParams();
+  const [params] = useSearchParams();
+  const navigate = useNavigate();
   const tank = useTank(tankId);
   const { data: me } = useMe();
   const isStaff = can(me, 'tanks:write');
+  const asked = params.get('section');
+  const section: SectionKey = isSection(asked) ? asked : 'summary';
+  const chosenParameter = parameterKey.safeParse(params.get('parameter'));
+  const sectionHref = (key: SectionKey) =>
+    key === 'summary' ? `/tanks/${tankId}` : `/tanks/${tankId}?section=${key}`;
 
   if (tank.isPending) {
     return (
@@ -116,35 +173,60 @@ export function TankRoute() {
     );
   }
   const timeZone = tank.data.effectiveTimeZone;
+  const openChart = (parameter: ParameterKey) =>
+    void navigate(`/tanks/${tankId}?section=readings&parameter=${parameter}`);
   return (
     <Page
       title={tank.data.name}
       description={tank.data.siteLabel}
       actions={
         isStaff ? (
-          <>
-            <Link to={`/console/tanks/${tankId}/edit`} className={actionClass}>
-              Edit tank
-            </Link>
-            <Link to={`/console/tanks/${tankId}/livestock`} className={actionClass}>
-              Manage livestock
-            </Link>
-            <Link to={`/console/tanks/${tankId}/equipment`} className={actionClass}>
-              Manage equipment
-            </Link>
-          </>
+          <Link to={`/console/tanks/${tankId}/edit`} className={actionClass}>
+            Edit tank
+          </Link>
         ) : undefined
       }
     >
-      <TankOverview tank={tank.data} />
-      <div className="mt-8">
-        <TankAlertsSection tankId={tankId} />
+      <SectionNav
+        label="Tank sections"
+        current={section}
+        sections={sections.map(({ key, label }) => ({ key, label, to: sectionHref(key) }))}
+      />
+      <div className="mt-5">
+        {section === 'summary' && (
+          <div className="grid gap-6">
+            <TankAtAGlance tank={tank.data} />
+            <TankAlertsSection tankId={tankId} recentResolved={3} />
+            <KeyReadings
+              tankId={tankId}
+              onOpen={openChart}
+              more={
+                <Link
+                  to={sectionHref('readings')}
+                  className="inline-flex min-h-11 items-center font-bold text-brine-700"
+                >
+                  All readings and charts
+                </Link>
+              }
+            />
+          </div>
+        )}
+        {section === 'readings' && (
+          <TankReadingsSection
+            key={chosenParameter.data ?? 'first'}
+            tankId={tankId}
+            canEdit={isStaff}
+            initialParameter={chosenParameter.success ? chosenParameter.data : undefined}
+          />
+        )}
+        {section === 'livestock' && (
+          <LivestockSection tankId={tankId} timeZone={timeZone} isStaff={isStaff} />
+        )}
+        {section === 'equipment' && (
+          <EquipmentSection tankId={tankId} timeZone={timeZone} isStaff={isStaff} />
+        )}
+        {section === 'about' && <TankOverview tank={tank.data} />}
       </div>
-      <div className="mt-8">
-        <TankReadingsSection tankId={tankId} canEdit={isStaff} />
-      </div>
-      <LivestockSection tankId={tankId} timeZone={timeZone} />
-      <EquipmentSection tankId={tankId} timeZone={timeZone} />
     </Page>
   );
 }

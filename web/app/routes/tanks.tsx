@@ -1,6 +1,7 @@
 import { Page } from '../../components/page';
 import { EmptyState, ErrorState, LoadingState } from '../../components/states';
 import { TankCard } from '../../features/tanks/components/tank-card';
+import { byTrouble } from '../../features/tanks/utils/trouble-order';
 import { useTanks } from '../../lib/queries/tanks';
 
 export function MyTanksRoute() {
@@ -8,7 +9,7 @@ export function MyTanksRoute() {
   return (
     <Page
       title="My tanks"
-      description="Each tank's health at a glance. Open one for its readings, livestock and equipment."
+      description="Tanks that need you come first. Open one for its readings, livestock and equipment."
     >
       {tanks.isPending ? (
         <LoadingState label="Loading your tanks…" />
@@ -19,8 +20,8 @@ export function MyTanksRoute() {
           Your service company adds your tanks and invites you to them.
         </EmptyState>
       ) : (
-        <ul className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-          {tanks.data.map((tank) => (
+        <ul className="grid items-start gap-3 sm:grid-cols-2 sm:gap-4 lg:grid-cols-3">
+          {byTrouble(tanks.data).map((tank) => (
             <li key={tank.id}>
               <TankCard tank={tank} />
             </li>

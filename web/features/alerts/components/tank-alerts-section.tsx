@@ -5,14 +5,12 @@ import { ErrorState, LoadingState } from '../../../components/states';
 import { can, useMe } from '../../../lib/auth';
 import { formatDateTime, relativeTime, useNow } from '../../../lib/format';
 import { useAlerts } from '../api/list-alerts';
-import { criticalFirstSteps } from '../utils/alert-facts';
+import { openAlertFirstSteps } from '../utils/alert-facts';
 import { AlertFactsList } from './alert-facts-list';
 import { FirstStepsPanel } from './first-steps-panel';
 
-const recentResolved = 5;
-
 function OpenAlert({ alert, now }: { alert: AlertView; now: number }) {
-  const steps = criticalFirstSteps(alert);
+  const steps = openAlertFirstSteps(alert);
   const titleId = `tank-alert-${alert.id}-title`;
   return (
     <article
@@ -38,8 +36,14 @@ function OpenAlert({ alert, now }: { alert: AlertView; now: number }) {
   );
 }
 
-/** A tank's open alerts (first aid for the critical ones) and the last few it recovered from, live. */
-export function TankAlertsSection({ tankId }: { tankId: string }) {
+/** A tank's open alerts (with what to do first) and the last few it recovered from, live. */
+export function TankAlertsSection({
+  tankId,
+  recentResolved = 5,
+}: {
+  tankId: string;
+  recentResolved?: number;
+}) {
   const alerts = useAlerts({ tankId, status: 'all' });
   const { data: me } = useMe();
   const now = useNow();

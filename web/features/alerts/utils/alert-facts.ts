@@ -1,4 +1,4 @@
-import { firstSteps, type FirstSteps } from '@shared/alerts/first-steps';
+import { deviceStaleFirstSteps, firstSteps, type FirstSteps } from '@shared/alerts/first-steps';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { formatValue } from '@shared/parameters/units';
 import type { AlertView } from '@shared/schemas/alerts';
@@ -23,6 +23,22 @@ export function criticalFirstSteps(alert: AlertView): FirstSteps | null {
   const parameter = alert.kind === 'free-ammonia' ? 'ammonia' : alert.parameter;
   if (!parameter || !direction) return null;
   const steps = firstSteps(parameter, direction, 'critical');
+  return steps.steps.length > 0 ? steps : null;
+}
+
+/**
+ * What an owner can do now for an open alert on their tank page: the full first aid for a critical
+ * reading, the gentle steps for a warning, and the checks for a device gone quiet.
+ */
+export function openAlertFirstSteps(alert: AlertView): FirstSteps | null {
+  if (alert.status === 'resolved') return null;
+  if (alert.kind === 'device-stale') return deviceStaleFirstSteps();
+  if (alert.severity === 'critical') return criticalFirstSteps(alert);
+  if (alert.severity !== 'warning') return null;
+  const direction = alertDirection(alert);
+  const parameter = alert.kind === 'free-ammonia' ? 'ammonia' : alert.parameter;
+  if (!parameter || !direction) return null;
+  const steps = firstSteps(parameter, direction, 'warning');
   return steps.steps.length > 0 ? steps : null;
 }
 

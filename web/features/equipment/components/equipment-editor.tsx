@@ -9,9 +9,11 @@ import {
   type EquipmentItem,
 } from '@shared/schemas/equipment';
 import { Button } from '../../../components/button';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
+import { problemMessage } from '../../../lib/form-issues';
 import { useCreateEquipment } from '../api/create-equipment';
 import { useDeleteEquipment } from '../api/delete-equipment';
 import { useUpdateEquipment } from '../api/update-equipment';
@@ -124,6 +126,7 @@ function EquipmentForm({
 
 function EquipmentRow({ tankId, item }: { tankId: string; item: EquipmentItem }) {
   const [editing, setEditing] = useState(false);
+  const [confirming, setConfirming] = useState(false);
   const update = useUpdateEquipment(tankId);
   const remove = useDeleteEquipment(tankId);
   return (
@@ -158,12 +161,25 @@ function EquipmentRow({ tankId, item }: { tankId: string; item: EquipmentItem })
               className="text-alert-700"
               disabled={remove.isPending}
               onClick={() => {
-                if (window.confirm(`Delete “${item.description}”?`)) remove.mutate(item.id);
+                remove.reset();
+                setConfirming(true);
               }}
             >
               Delete<span className="sr-only"> {item.description}</span>
             </Button>
           </div>
+          <ConfirmDialog
+            open={confirming}
+            title={`Delete “${item.description}”?`}
+            confirmLabel="Delete"
+            pendingLabel="Deleting…"
+            pending={remove.isPending}
+            error={remove.isError ? problemMessage(remove.error) : undefined}
+            onClose={() => setConfirming(false)}
+            onConfirm={() => remove.mutate(item.id, { onSuccess: () => setConfirming(false) })}
+          >
+            <p>It comes off the tank&apos;s equipment list and its power-board map.</p>
+          </ConfirmDialog>
         </div>
       )}
     </li>

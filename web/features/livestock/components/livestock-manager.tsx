@@ -3,10 +3,12 @@ import { z } from 'zod';
 import { livestockStatusLabels, updateLivestockInput, type LivestockItem } from '@shared/schemas/livestock';
 import { livestockStatuses } from '@shared/schemas/livestock-status';
 import { Button } from '../../../components/button';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { PhotoUploader } from '../../../components/photo-uploader';
 import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
+import { problemMessage } from '../../../lib/form-issues';
 import { capitalise, formatDate } from '../../../lib/format';
 import { useDeleteLivestock } from '../api/delete-livestock';
 import { useUpdateLivestock } from '../api/update-livestock';
@@ -82,6 +84,7 @@ function ChangeForm({ tankId, item, onDone }: { tankId: string; item: LivestockI
 
 function ManagedItem({ tankId, item, timeZone }: { tankId: string; item: LivestockItem; timeZone: string }) {
   const [mode, setMode] = useState<'view' | 'change' | 'photo'>('view');
+  const [confirming, setConfirming] = useState(false);
   const remove = useDeleteLivestock(tankId);
   const name = displayName(item);
   const hazard = hazardOf(item);
@@ -136,17 +139,27 @@ function ManagedItem({ tankId, item, timeZone }: { tankId: string; item: Livesto
             className="text-alert-700"
             disabled={remove.isPending}
             onClick={() => {
-              if (
-                window.confirm(
-                  `Delete the entry for ${name}? Use the condition "Removed" instead if it left the tank.`,
-                )
-              ) {
-                remove.mutate(item.id);
-              }
+              remove.reset();
+              setConfirming(true);
             }}
           >
             Delete entry<span className="sr-only"> for {name}</span>
           </Button>
+          <ConfirmDialog
+            open={confirming}
+            title={`Delete the entry for ${name}?`}
+            confirmLabel="Delete entry"
+            pendingLabel="Deleting…"
+            pending={remove.isPending}
+            error={remove.isError ? problemMessage(remove.error) : undefined}
+            onClose={() => setConfirming(false)}
+            onConfirm={() => remove.mutate(item.id, { onSuccess: () => setConfirming(false) })}
+          >
+            <p>
+              Deleting is for an entry made by mistake. If it left the tank, set its condition to “Removed”
+              instead, which keeps its history.
+            </p>
+          </ConfirmDialog>
         </div>
       )}
       {mode === 'change' && <ChangeForm tankId={tankId} item={item} onDone={() => setMode('view')} />}

@@ -72,7 +72,7 @@ export function CsvImport({ tankId, defaultSource }: { tankId: string; defaultSo
         <h4 id={`${inputId}-title`} className="font-bold text-ink-900">
           Import readings from a CSV file
         </h4>
-        <details className="mt-1 text-sm text-ink-700">
+        <details className="mt-1 text-sm break-words text-ink-700">
           <summary className="cursor-pointer font-bold text-ink-800">What the file looks like</summary>
           <p className="mt-2">
             A header line, then one reading per line. Columns <code>{requiredColumns.join(', ')}</code> are
@@ -81,14 +81,17 @@ export function CsvImport({ tankId, defaultSource }: { tankId: string; defaultSo
             <code>source</code> is <code>home-test</code> or <code>visit</code>. A file downloaded above
             imports as it is.
           </p>
-          <p className="mt-1">
-            Parameters:{' '}
-            {parameterKeys.map((key: ParameterKey) => (
-              <code key={key} className="mr-1">
-                {key}
-              </code>
-            ))}
+          <p className="mt-1" id={`${inputId}-parameters`}>
+            Parameters:
           </p>
+          {/* One item each, so the list wraps on a phone instead of running off the screen. */}
+          <ul aria-labelledby={`${inputId}-parameters`} className="mt-1 flex flex-wrap gap-x-2 gap-y-1">
+            {parameterKeys.map((key: ParameterKey) => (
+              <li key={key}>
+                <code>{key}</code>
+              </li>
+            ))}
+          </ul>
         </details>
         <label htmlFor={inputId} className="mt-3 block text-sm font-bold text-ink-900">
           CSV file

@@ -12,10 +12,12 @@ interface LatestReadingsProps {
   units: Partial<Record<ParameterKey, string>>;
   selected: ParameterKey | null;
   onSelect: (parameter: ParameterKey) => void;
+  /** What pressing a tile does, for screen readers; by default it shows that parameter in the chart. */
+  action?: string;
 }
 
 /** One tile per parameter: its latest reading, how it stands against the limits, and a way to its chart. */
-export function LatestReadings({ parameters, units, selected, onSelect }: LatestReadingsProps) {
+export function LatestReadings({ parameters, units, selected, onSelect, action }: LatestReadingsProps) {
   return (
     <ul className="grid grid-cols-2 gap-3 lg:grid-cols-4">
       {parameters.map((p) => {
@@ -26,7 +28,7 @@ export function LatestReadings({ parameters, units, selected, onSelect }: Latest
             <button
               type="button"
               onClick={() => onSelect(p.parameter)}
-              aria-pressed={isSelected}
+              aria-pressed={action ? undefined : isSelected}
               className={`flex h-full min-h-28 w-full flex-col gap-1.5 rounded-card border-2 bg-white p-3 sm:p-4 text-left shadow-card transition-colors hover:border-ink-500 ${
                 isSelected ? 'border-ink-800' : 'border-transparent'
               }`}
@@ -55,7 +57,9 @@ export function LatestReadings({ parameters, units, selected, onSelect }: Latest
                   ? limitsSummary(p.parameter, p.limits, unit)
                   : 'No limits: not watched'}
               </span>
-              <span className="sr-only">{isSelected ? 'Shown in the chart' : 'Show in the chart'}</span>
+              <span className="sr-only">
+                {action ?? (isSelected ? 'Shown in the chart' : 'Show in the chart')}
+              </span>
             </button>
           </li>
         );

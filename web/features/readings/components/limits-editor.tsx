@@ -35,20 +35,33 @@ type RateField = (typeof rateFields)[number];
 
 const bound = decimalText(z.number().optional());
 
+/**
+ * The shared rule names bounds by their keys ("critHigh must be at or above warnHigh"); under a
+ * field the technician reads the labels they typed into instead.
+ */
+const inLabels = (message: string) =>
+  message.replace(
+    /^(critLow|warnLow|warnHigh|critHigh) must be (.+) (critLow|warnLow|warnHigh|critHigh)$/,
+    (_, __, relation: string, other: Bound) => `Must be ${relation} “${boundLabels[other]}”.`,
+  );
+
 /** One parameter's four typed bounds, or "back to the template" (null), checked by the shared rule. */
 const limitsRow = z
   .object({ useTemplate: z.boolean(), critLow: bound, warnLow: bound, warnHigh: bound, critHigh: bound })
-  .transform(({ useTemplate, critLow, warnLow, warnHigh, critHigh }) =>
-    useTemplate
-      ? null
-      : {
-          critLow: critLow ?? null,
-          warnLow: warnLow ?? null,
-          warnHigh: warnHigh ?? null,
-          critHigh: critHigh ?? null,
-        },
-  )
-  .pipe(parameterLimits.nullable());
+  .transform(({ useTemplate, critLow, warnLow, warnHigh, critHigh }, context) => {
+    if (useTemplate) return null;
+    const checked = parameterLimits.safeParse({
+      critLow: critLow ?? null,
+      warnLow: warnLow ?? null,
+      warnHigh: warnHigh ?? null,
+      critHigh: critHigh ?? null,
+    });
+    if (checked.success) return checked.data;
+    for (const issue of checked.error.issues) {
+      context.addIssue({ code: 'custom', path: issue.path, message: inLabels(issue.message) });
+    }
+    return z.NEVER;
+  });
 
 /** One parameter's fast-change rule: both numbers, or neither (the default, null). */
 const rateRow = z
@@ -174,7 +187,9 @@ function LimitsForm({ tankId, view }: { tankId: string; view: TankLimitsView }) 
       </h3>
       <p className="mt-1 text-sm text-ink-700">
         A reading strictly beyond a bound opens a warning or critical alert; leave a bound empty for no limit
-        on that side. Values are in each parameter&apos;s stored unit. Templates: {view.templateSource}
+        on that side. Values are in each parameter&apos;s stored unit. Template limits are starting points
+        chosen by the Brinewatch team, not a published standard: adjust them for each tank and what lives in
+        it.
       </p>
       <p className="mt-1 text-sm text-ink-700">
         A fast-change rule opens a warning when a parameter moves by more than the amount set within the hours
@@ -184,7 +199,7 @@ function LimitsForm({ tankId, view }: { tankId: string; view: TankLimitsView }) 
       {view.inhabitants > 0 ? (
         <p className="mt-1 text-sm text-ink-700">
           Comfort ranges come from the care profiles of the {view.inhabitants} kinds of livestock in the tank
-          now. {view.comfortSource}
+          now. Care profiles are general guidance, not measured data: individual animals and tanks differ.
         </p>
       ) : (
         <p className="mt-1 text-sm text-ink-700">

@@ -100,13 +100,21 @@ interface ReadingEntryFormProps {
   canRecordVisits: boolean;
   suggested: ParameterKey[];
   available: ParameterKey[];
+  /** Parameters a device on the tank reports; a hand check of them is still welcome. */
+  deviceReported?: ParameterKey[];
 }
 
 /**
  * A set of readings at once, as taken at the tank: big fields, the decimal keypad, the unit as
  * the kit reads it, and the value Brinewatch will store shown as you type.
  */
-export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available }: ReadingEntryFormProps) {
+export function ReadingEntryForm({
+  tankId,
+  canRecordVisits,
+  suggested,
+  available,
+  deviceReported = [],
+}: ReadingEntryFormProps) {
   const formId = useId();
   // The picker offers nothing later than a few minutes from when the form opened (the server refuses later).
   const [latest] = useState(() => localInputValue(new Date(Date.now() + 5 * 60_000)));
@@ -186,12 +194,18 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
       </p>
 
       <div className="mt-4 grid gap-4 sm:grid-cols-2">
-        <div className="grid grid-cols-[minmax(0,1fr)_auto] items-start gap-2">
-          <TextField<ReadingEntryValues> name="when" label="Tested at" type="datetime-local" max={latest} />
+        <div className="flex min-w-0 flex-wrap items-end gap-2">
+          <TextField<ReadingEntryValues>
+            name="when"
+            label="Tested at"
+            type="datetime-local"
+            max={latest}
+            className="min-w-0 flex-1 basis-48"
+          />
           <Button
             tone="secondary"
             onClick={() => form.setValue('when', localInputValue(new Date()), { shouldValidate: true })}
-            className="mt-7 min-h-12 shrink-0"
+            className="min-h-12 shrink-0"
           >
             Now
           </Button>
@@ -216,6 +230,7 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
           const label = parameterCatalogue[field.parameter].label;
           const units = unitOptions(field.parameter, true);
           const marked = errors.rows?.[index] !== undefined;
+          const alsoByDevice = deviceReported.includes(field.parameter);
           return (
             <li
               key={field.id}
@@ -237,6 +252,11 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
                   </span>
                 )}
               </div>
+              {alsoByDevice && (
+                <p className="mt-1 text-sm text-ink-700">
+                  Also reported by the probe: a hand check is welcome.
+                </p>
+              )}
               {row.unit === 'specific gravity' && (
                 <div className="mt-2 grid grid-cols-2 gap-2">
                   <DecimalField<ReadingEntryValues>
@@ -287,7 +307,9 @@ export function ReadingEntryForm({ tankId, canRecordVisits, suggested, available
               { value: '', label: 'Choose…' },
               ...unused.map((parameter) => ({
                 value: parameter,
-                label: parameterCatalogue[parameter].label,
+                label: deviceReported.includes(parameter)
+                  ? `${parameterCatalogue[parameter].label} (also reported by the probe)`
+                  : parameterCatalogue[parameter].label,
               })),
             ]}
           />

@@ -137,7 +137,7 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
                       <span data-testid="chart-bands">
                         Shaded bands: {limitsSummary(parameter, history.data.limits.limits, unit)}
                         {history.data.limits.source === 'template'
-                          ? ' (common-practice defaults for this style of tank)'
+                          ? ' (the usual starting limits for this style of tank)'
                           : ''}
                         .
                       </span>

@@ -30,6 +30,7 @@ import type { Reading } from '@shared/readings/reading';
 import { readingSourceLabels } from '@shared/readings/sources';
 import { displayValue, formatIn, limitsIn } from '../utils/display-units';
 import { formatDateTime } from '../../../lib/format';
+import { axisEndPaddingMs, axisLabel, axisUnitFor } from '../utils/chart-ranges';
 
 ChartJS.register(
   LineController,
@@ -178,7 +179,11 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
     const values: number[] = [];
     if (history.mode === 'buckets') {
       const width = history.bucketMs ?? 0;
-      const mid = (start: string) => Date.parse(start) + width / 2;
+      // A bucket is drawn at its middle, but never outside the window: the last bucket is usually
+      // still filling, and its middle can lie after the window's end, where it would not be drawn.
+      const from = Date.parse(history.from);
+      const to = Date.parse(history.to);
+      const mid = (start: string) => Math.min(to, Math.max(from, Date.parse(start) + width / 2));
       const counts = (b: ReadingHistory['buckets'][number]) =>
         [
           b.bySource.device && `${b.bySource.device} device`,
@@ -300,6 +305,9 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
     const low = shown.length ? Math.min(...shown) : 0;
     const high = shown.length ? Math.max(...shown) : 1;
     const pad = (high - low || Math.abs(high) || 1) * 0.08;
+    const from = Date.parse(history.from);
+    const to = Date.parse(history.to);
+    const axisUnit = axisUnitFor(to - from);
     return {
       responsive: true,
       maintainAspectRatio: false,
@@ -310,10 +318,16 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
       scales: {
         x: {
           type: 'time',
-          min: Date.parse(history.from),
-          max: Date.parse(history.to),
+          min: from,
+          max: to + axisEndPaddingMs(to - from),
+          time: { unit: axisUnit },
           grid: { color: colours.grid },
-          ticks: { color: colours.text, maxRotation: 0, autoSkipPadding: 16 },
+          ticks: {
+            color: colours.text,
+            maxRotation: 0,
+            autoSkipPadding: 16,
+            callback: (value) => axisLabel(Number(value), axisUnit),
+          },
         },
         y: {
           // Suggested, not fixed, so the axis rounds out to readable ticks.

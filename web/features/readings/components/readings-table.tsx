@@ -104,61 +104,94 @@ export function ReadingsTable({
       ) : rows.length === 0 ? (
         <EmptyState title="No readings match">Change the filters to see more.</EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-ink-100">
-          <table className="w-full min-w-[36rem] border-collapse text-left text-sm">
-            <caption className="sr-only">Readings, newest first</caption>
-            <thead className="bg-ink-50 text-ink-900">
-              <tr>
-                <th scope="col" className="px-3 py-2">
-                  When
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Parameter
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Value
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Source
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Notes
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => {
-                const converted = r.enteredUnit !== storedUnit(r.parameter);
-                return (
-                  <tr key={r.id} className="border-t border-ink-100 align-top">
-                    <td className="whitespace-nowrap px-3 py-2">
-                      <time dateTime={r.measuredAt}>{formatDateTime(r.measuredAt)}</time>
-                    </td>
-                    <td className="px-3 py-2">{parameterCatalogue[r.parameter].label}</td>
-                    <td className="whitespace-nowrap px-3 py-2 font-bold">
+        <>
+          {/* On a phone each reading is a card, so its value is never cut off by a too-wide table. */}
+          <ol aria-label="Readings, newest first" className="space-y-2 md:hidden">
+            {rows.map((r) => {
+              const converted = r.enteredUnit !== storedUnit(r.parameter);
+              const notes = [r.method, r.note].filter(Boolean).join(' · ');
+              return (
+                <li key={r.id} className="rounded-lg border border-ink-100 bg-white p-3 text-sm">
+                  <div className="flex flex-wrap items-baseline justify-between gap-x-3">
+                    <span className="font-bold text-ink-900">{parameterCatalogue[r.parameter].label}</span>
+                    <span className="text-base font-bold text-ink-950">
                       {formatIn(r.parameter, r.value, storedUnit(r.parameter))}
-                      {converted && (
-                        <span className="block text-xs font-normal text-ink-700">
-                          entered {r.enteredValue} {unitSymbol(r.parameter, r.enteredUnit)}
-                          {r.sampleTempC !== null && r.referenceTempC !== null
-                            ? ` at ${r.sampleTempC} °C (ref. ${r.referenceTempC} °C)`
-                            : ''}
-                        </span>
-                      )}
-                    </td>
-                    <td className="px-3 py-2">
-                      {readingSourceLabels[r.source]}
-                      {r.recordedBy && <span className="block text-xs text-ink-700">{r.recordedBy}</span>}
-                    </td>
-                    <td className="px-3 py-2 text-ink-800">
-                      {[r.method, r.note].filter(Boolean).join(' · ')}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+                    </span>
+                  </div>
+                  {converted && (
+                    <p className="text-xs text-ink-700">
+                      entered {r.enteredValue} {unitSymbol(r.parameter, r.enteredUnit)}
+                      {r.sampleTempC !== null && r.referenceTempC !== null
+                        ? ` at ${r.sampleTempC} °C (ref. ${r.referenceTempC} °C)`
+                        : ''}
+                    </p>
+                  )}
+                  <p className="mt-1 text-ink-700">
+                    <time dateTime={r.measuredAt}>{formatDateTime(r.measuredAt)}</time> ·{' '}
+                    {readingSourceLabels[r.source]}
+                    {r.recordedBy && <> · {r.recordedBy}</>}
+                  </p>
+                  {notes && <p className="mt-1 break-words text-ink-800">{notes}</p>}
+                </li>
+              );
+            })}
+          </ol>
+          <div className="hidden overflow-x-auto rounded-lg border border-ink-100 md:block">
+            <table className="w-full border-collapse text-left text-sm">
+              <caption className="sr-only">Readings, newest first</caption>
+              <thead className="bg-ink-50 text-ink-900">
+                <tr>
+                  <th scope="col" className="px-3 py-2">
+                    When
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Parameter
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Value
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Source
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Notes
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {rows.map((r) => {
+                  const converted = r.enteredUnit !== storedUnit(r.parameter);
+                  return (
+                    <tr key={r.id} className="border-t border-ink-100 align-top">
+                      <td className="whitespace-nowrap px-3 py-2">
+                        <time dateTime={r.measuredAt}>{formatDateTime(r.measuredAt)}</time>
+                      </td>
+                      <td className="px-3 py-2">{parameterCatalogue[r.parameter].label}</td>
+                      <td className="whitespace-nowrap px-3 py-2 font-bold">
+                        {formatIn(r.parameter, r.value, storedUnit(r.parameter))}
+                        {converted && (
+                          <span className="block text-xs font-normal text-ink-700">
+                            entered {r.enteredValue} {unitSymbol(r.parameter, r.enteredUnit)}
+                            {r.sampleTempC !== null && r.referenceTempC !== null
+                              ? ` at ${r.sampleTempC} °C (ref. ${r.referenceTempC} °C)`
+                              : ''}
+                          </span>
+                        )}
+                      </td>
+                      <td className="px-3 py-2">
+                        {readingSourceLabels[r.source]}
+                        {r.recordedBy && <span className="block text-xs text-ink-700">{r.recordedBy}</span>}
+                      </td>
+                      <td className="px-3 py-2 text-ink-800">
+                        {[r.method, r.note].filter(Boolean).join(' · ')}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+        </>
       )}
       {list.hasNextPage && (
         <Button tone="secondary" onClick={() => void list.fetchNextPage()} disabled={list.isFetchingNextPage}>

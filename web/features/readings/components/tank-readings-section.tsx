@@ -4,7 +4,7 @@ import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { can, useMe } from '../../../lib/auth';
 import { useLimits } from '../api/get-limits';
-import { useLatestReadings } from '../api/get-latest-readings';
+import { useLatestReadings } from '../../../lib/queries/latest-readings';
 import { preferredUnit, rememberUnit } from '../utils/display-units';
 import { relativeTime } from '../../../lib/format';
 import { DevicesPanel } from './devices-panel';
@@ -12,7 +12,7 @@ import { LatestReadings } from './latest-readings';
 import { LimitsEditor } from './limits-editor';
 import { ReadingEntryForm } from './reading-entry-form';
 import { ReadingsChartPanel } from './readings-chart-panel';
-import { TankStatusBadge } from '../../../components/status-badges';
+import { StatusReason, TankStatusBadge } from '../../../components/status-badges';
 
 /** The order parameters are usually talked about in, most watched first. */
 const byCatalogue = (a: ParameterKey, b: ParameterKey) => parameterKeys.indexOf(a) - parameterKeys.indexOf(b);
@@ -22,7 +22,16 @@ const byCatalogue = (a: ParameterKey, b: ParameterKey) => parameterKeys.indexOf(
  * against its limits, the history chart and table, entering readings, and — for staff — the
  * limits and the devices. `canEdit` is true for the company's staff.
  */
-export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEdit: boolean }) {
+export function TankReadingsSection({
+  tankId,
+  canEdit,
+  initialParameter,
+}: {
+  tankId: string;
+  canEdit: boolean;
+  /** The parameter to chart first, e.g. the one tapped in the tank's key readings. */
+  initialParameter?: ParameterKey;
+}) {
   const me = useMe();
   // Staff tools only for those allowed them, whatever the page passes: the API would refuse anyone else.
   const setsLimits = canEdit && can(me.data, 'limits:write');
@@ -31,7 +40,7 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
   const recordsVisits = canEdit && can(me.data, 'readings:record-visit');
   const latest = useLatestReadings(tankId);
   const limits = useLimits(tankId);
-  const [selected, setSelected] = useState<ParameterKey | null>(null);
+  const [selected, setSelected] = useState<ParameterKey | null>(initialParameter ?? null);
   const [units, setUnits] = useState<Partial<Record<ParameterKey, string>>>({});
 
   if (latest.isPending) return <LoadingState label="Loading the water readings…" />;
@@ -60,13 +69,12 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
   const fromDevice = new Set(
     health.parameters.filter((p) => p.latest?.source === 'device').map((p) => p.parameter),
   );
-  const handTested = (key: ParameterKey) =>
-    parameterCatalogue[key].homeTestIntervalMs !== null && !fromDevice.has(key);
+  // Every watched parameter a person can test is offered, including those a device reports too: a
+  // hand-meter check of the probe is a normal visit task. ORP and the like (no hand test) are not.
+  const handTestable = (key: ParameterKey) => parameterCatalogue[key].homeTestIntervalMs !== null;
   const suggested = (
     shown.length > 0 ? health.parameters.filter((p) => p.watched).map((p) => p.parameter) : forWater
-  )
-    .filter(handTested)
-    .slice(0, 8);
+  ).filter(handTestable);
 
   return (
     <section aria-labelledby="readings-title" className="space-y-5">
@@ -75,6 +83,7 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
           Water readings
         </h2>
         <TankStatusBadge status={health.status} size="lg" />
+        <StatusReason reason={health.statusReason} className="basis-full" />
         {health.lastReadingAt && (
           <p className="text-sm text-ink-700">Last reading {relativeTime(health.lastReadingAt)}</p>
         )}
@@ -107,11 +116,12 @@ export function TankReadingsSection({ tankId, canEdit }: { tankId: string; canEd
       )}
 
       <ReadingEntryForm
-        key={`${recordsVisits}:${suggested.join(',')}`}
+        key={`${recordsVisits}:${suggested.join(',')}:${[...fromDevice].join(',')}`}
         tankId={tankId}
         canRecordVisits={recordsVisits}
         suggested={suggested.length > 0 ? suggested : ['temperature', 'ph']}
         available={chartable.length > 0 ? chartable : [...parameterKeys]}
+        deviceReported={[...fromDevice]}
       />
 
       {(setsLimits || managesDevices) && (

@@ -1,6 +1,12 @@
 import type { ParameterKey } from '@shared/parameters/keys';
 import { unitDecimals, unitSymbol } from '@shared/parameters/units';
-import { sampleOf, windowStats, type SeriesSample } from '@shared/readings/stats';
+import {
+  minSwingDays,
+  sampleOf,
+  trendDirection,
+  windowStats,
+  type SeriesSample,
+} from '@shared/readings/stats';
 import type { ReadingHistory } from '@shared/schemas/readings';
 import { displayValue, formatIn } from '../utils/display-units';
 import { formatCount, formatDateTime } from '../../../lib/format';
@@ -9,21 +15,17 @@ import { formatCount, formatDateTime } from '../../../lib/format';
 export function samplesOf(history: ReadingHistory, parameter: ParameterKey, unit: string): SeriesSample[] {
   const convert = (value: number) => displayValue(parameter, value, unit);
   if (history.mode === 'buckets') {
+    const widthMs = history.bucketMs ?? undefined;
     return history.buckets.map((b) => ({
       at: Date.parse(b.start),
       min: convert(b.min),
       mean: convert(b.mean),
       max: convert(b.max),
       count: b.count,
+      ...(widthMs === undefined ? {} : { widthMs }),
     }));
   }
   return history.readings.map((r) => sampleOf(Date.parse(r.measuredAt), convert(r.value)));
-}
-
-/** "+" or "−" for a value that still shows as non-zero at this precision, else nothing. */
-function signOf(value: number, decimals: number): string {
-  if (Number(Math.abs(value).toFixed(decimals)) === 0) return '';
-  return value > 0 ? '+' : '−';
 }
 
 export function WindowStats({
@@ -45,9 +47,11 @@ export function WindowStats({
   if (!stats) return null;
   const windowDays = (Date.parse(history.to) - Date.parse(history.from)) / 86_400_000;
   const trend = stats.trendPerDay;
-  // Less change over the whole window than the unit is written to counts as steady.
-  const steady = trend === null || Math.abs(trend * windowDays) < 10 ** -decimals;
-  const trendWord = steady ? 'steady' : trend! > 0 ? 'rising' : 'falling';
+  // The trend is written with one decimal more than the readings, as it is a change per day.
+  const direction =
+    trend === null
+      ? null
+      : trendDirection(trend, { perDayDecimals: decimals + 1, valueDecimals: decimals, windowDays });
   const rows: { term: string; value: string; hint?: string }[] = [
     {
       term: 'Latest',
@@ -57,19 +61,26 @@ export function WindowStats({
     { term: 'Mean', value: number(stats.mean), hint: `${formatCount(stats.count)} readings` },
     { term: 'Lowest', value: number(stats.min) },
     { term: 'Highest', value: number(stats.max) },
-    {
-      term: 'Average daily swing',
-      value: stats.averageDailySwing === null ? 'not enough readings' : number(stats.averageDailySwing),
-      hint: 'highest minus lowest, per day',
-    },
-    {
-      term: 'Trend',
-      value:
-        trend === null
-          ? 'not enough readings'
-          : `${signOf(trend, decimals + 1)}${number(Math.abs(trend), 1)} a day`,
-      hint: trend === null ? undefined : trendWord,
-    },
+    stats.averageDailySwing === null
+      ? {
+          term: 'Average daily swing',
+          value: '—',
+          hint: `needs two readings a day on at least ${minSwingDays} days`,
+        }
+      : {
+          term: 'Average daily swing',
+          value: number(stats.averageDailySwing),
+          hint: `highest minus lowest, over ${formatCount(stats.swingDays)} days`,
+        },
+    trend === null || direction === null
+      ? { term: 'Trend', value: '—', hint: 'needs readings at two times' }
+      : direction === 'steady'
+        ? { term: 'Trend', value: 'steady' }
+        : {
+            term: 'Trend',
+            value: `${direction === 'rising' ? '+' : '−'}${number(Math.abs(trend), 1)} a day`,
+            hint: direction,
+          },
   ];
   return (
     <dl className="grid grid-cols-2 gap-x-4 gap-y-3 sm:grid-cols-3 lg:grid-cols-1">

@@ -1,6 +1,6 @@
 import { tankStyleLabels } from '@shared/parameters/limit-templates';
 import type { TankDetail } from '@shared/schemas/tanks';
-import { TankStatusBadge } from '../../../components/status-badges';
+import { StatusReason, TankStatusBadge } from '../../../components/status-badges';
 import { formatDay, formatNumber, formatVolume } from '../../../lib/format';
 import { TankCover } from './tank-cover';
 
@@ -35,6 +35,7 @@ export function TankOverview({ tank }: { tank: TankDetail }) {
             </h2>
             <TankStatusBadge status={tank.status} />
           </div>
+          <StatusReason reason={tank.statusReason} className="mt-2" />
           <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3">
             <Fact term="Style">{tankStyleLabels[tank.style]}</Fact>
             <Fact term="Water">{waterLabels[tank.waterType]}</Fact>

@@ -1,5 +1,8 @@
+import { useState } from 'react';
 import type { TankDetail } from '@shared/schemas/tanks';
 import { Button } from '../../../components/button';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
+import { problemMessage } from '../../../lib/form-issues';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useTankPhotos } from '../api/get-tank-photos';
@@ -11,6 +14,11 @@ export function TankPhotos({ tank }: { tank: TankDetail }) {
   const photos = useTankPhotos(tank.id);
   const updateTank = useUpdateTank(tank.id);
   const deletePhoto = useDeletePhoto();
+  const [deleting, setDeleting] = useState<{ id: string; what: string } | null>(null);
+  const closeDialog = () => {
+    setDeleting(null);
+    deletePhoto.reset();
+  };
   return (
     <section aria-labelledby="photos-title" className="space-y-4 rounded-card bg-white p-5 shadow-card">
       <h2 id="photos-title" className="text-xl font-bold text-ink-900">
@@ -57,8 +65,8 @@ export function TankPhotos({ tank }: { tank: TankDetail }) {
                     className="w-full text-sm text-alert-700"
                     disabled={deletePhoto.isPending}
                     onClick={() => {
-                      if (window.confirm('Delete this photo? This cannot be undone.'))
-                        deletePhoto.mutate(photo.id);
+                      deletePhoto.reset();
+                      setDeleting({ id: photo.id, what });
                     }}
                   >
                     Delete<span className="sr-only"> photo: {what}</span>
@@ -69,6 +77,20 @@ export function TankPhotos({ tank }: { tank: TankDetail }) {
           })}
         </ul>
       )}
+      <ConfirmDialog
+        open={deleting !== null}
+        title="Delete this photo?"
+        confirmLabel="Delete photo"
+        pendingLabel="Deleting…"
+        pending={deletePhoto.isPending}
+        error={deletePhoto.isError ? problemMessage(deletePhoto.error) : undefined}
+        onClose={closeDialog}
+        onConfirm={() => {
+          if (deleting) deletePhoto.mutate(deleting.id, { onSuccess: closeDialog });
+        }}
+      >
+        <p>{deleting?.what}: deleting it cannot be undone.</p>
+      </ConfirmDialog>
     </section>
   );
 }

@@ -6,6 +6,8 @@ import { formatVolume } from '../../../lib/format';
 import { TankCover } from './tank-cover';
 
 const linkClass = 'inline-flex min-h-11 items-center font-bold text-brine-700';
+/** A 44-px target however short its word (WCAG 2.2 target size). */
+const editClass = `${linkClass} min-w-11 justify-center rounded-lg px-3 hover:bg-ink-50`;
 
 /** The console's list: one row per tank with its clients, as cards on a phone and a table on a desk. */
 export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
@@ -19,7 +21,7 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
             </div>
             <div className="min-w-0 flex-1">
               <div className="flex flex-wrap items-start justify-between gap-2">
-                <Link to={`/tanks/${tank.id}`} className={`${linkClass} min-h-0 text-lg`}>
+                <Link to={`/tanks/${tank.id}`} className={`${linkClass} text-lg leading-snug`}>
                   {tank.name}
                 </Link>
                 <TankStatusBadge status={tank.status} />
@@ -39,7 +41,7 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
               </dl>
               <Link
                 to={`/console/tanks/${tank.id}/edit`}
-                className={linkClass}
+                className={`${editClass} -ml-3`}
                 aria-label={`Edit ${tank.name}`}
               >
                 Edit
@@ -103,7 +105,7 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
                 <td className="px-4 py-3 text-right">
                   <Link
                     to={`/console/tanks/${tank.id}/edit`}
-                    className={linkClass}
+                    className={editClass}
                     aria-label={`Edit ${tank.name}`}
                   >
                     Edit

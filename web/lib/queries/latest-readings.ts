@@ -1,7 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TankHealthSummary } from '@shared/schemas/readings';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from '../../../lib/query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
+
+/*
+ * A tank's latest reading of each parameter, judged against its limits. The readings section and
+ * the owner's tank cards (for the last reading's age) both read it, so it lives below the features.
+ */
 
 export const getLatestReadings = (tankId: string, signal?: AbortSignal) =>
   api<TankHealthSummary>(`/tanks/${tankId}/readings/latest`, { signal });
@@ -14,4 +19,5 @@ export const latestReadingsQueryOptions = (tankId: string) =>
     refetchInterval: 60_000,
   });
 
-export const useLatestReadings = (tankId: string) => useQuery(latestReadingsQueryOptions(tankId));
+export const useLatestReadings = (tankId: string, enabled = true) =>
+  useQuery({ ...latestReadingsQueryOptions(tankId), enabled });
