@@ -59,6 +59,8 @@ const envSchema = z.object({
   /** The demo's mailbox page (the SMTP stand-in's viewer). */
   MAILBOX_PORT: port.default(3025),
   INVITATION_DAYS: z.coerce.number().int().positive().default(7),
+  /** Sign-ins started from one address in 10 minutes (an office shares one address). */
+  SIGN_IN_STARTS_PER_10_MIN: z.coerce.number().int().positive().default(20),
   /** How long audit entries are kept before the daily sweep purges them (a year and a month). */
   AUDIT_RETENTION_DAYS: z.coerce.number().int().min(1).default(400),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),

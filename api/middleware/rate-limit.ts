@@ -2,13 +2,15 @@ import type { Request, RequestHandler, Response } from 'express';
 import type pg from 'pg';
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import { depsOf } from '../deps';
+import type { Env } from '../env';
 import { HttpError, unauthorized } from '../lib/http-error';
 import { requireActor } from '../policy/index';
 
 export interface RateLimit {
   /** Tells this limit's keys apart from other limits' in the shared table. */
   name: string;
-  points: number;
+  /** The budget, or how to read it from the environment (where a deployment may set it). */
+  points: number | ((env: Env) => number);
   durationS: number;
   /** Whose budget a request spends (a person, a device); throw an HttpError to refuse it. */
   keyOf: (req: Request) => string;
@@ -57,7 +59,8 @@ export const perDevice = (req: Request) => {
  */
 export function rateLimit(limit: RateLimit): RequestHandler {
   const limiters = new WeakMap<pg.Pool, RateLimiterPostgres>();
-  const limiterFor = (pool: pg.Pool) => {
+  const pointsOf = (env: Env) => (typeof limit.points === 'number' ? limit.points : limit.points(env));
+  const limiterFor = ({ pool, env }: { pool: pg.Pool; env: Env }) => {
     let limiter = limiters.get(pool);
     if (!limiter) {
       limiter = new RateLimiterPostgres({
@@ -66,7 +69,7 @@ export function rateLimit(limit: RateLimit): RequestHandler {
         tableName: 'rate_limits',
         tableCreated: true,
         keyPrefix: limit.name,
-        points: limit.points,
+        points: pointsOf(env),
         duration: limit.durationS,
       });
       limiters.set(pool, limiter);
@@ -83,9 +86,10 @@ export function rateLimit(limit: RateLimit): RequestHandler {
   if (limit.counts === 'failures') {
     return async (req, res, next) => {
       const key = limit.keyOf(req);
-      const limiter = limiterFor(depsOf(req).pool);
+      const deps = depsOf(req);
+      const limiter = limiterFor(deps);
       const spent = await limiter.get(key);
-      if (spent && spent.consumedPoints >= limit.points) throw refuse(res, spent.msBeforeNext);
+      if (spent && spent.consumedPoints >= pointsOf(deps.env)) throw refuse(res, spent.msBeforeNext);
       req.rateLimitFailures = [
         ...(req.rateLimitFailures ?? []),
         async () => void (await limiter.penalty(key, 1)),
@@ -97,7 +101,7 @@ export function rateLimit(limit: RateLimit): RequestHandler {
   return async (req, res, next) => {
     const key = limit.keyOf(req);
     try {
-      await limiterFor(depsOf(req).pool).consume(key);
+      await limiterFor(depsOf(req)).consume(key);
     } catch (outcome) {
       if (!(outcome instanceof RateLimiterRes)) throw outcome;
       throw refuse(res, outcome.msBeforeNext);

@@ -37,6 +37,7 @@ export const invitationOpenLimit = { points: 20, durationS: 10 * 60 } as const;
 const limitSignInStarts = rateLimit({
   name: 'sign-in-start',
   ...signInStartLimit,
+  points: (env) => env.SIGN_IN_STARTS_PER_10_MIN,
   keyOf: perIp,
   message: (retryAfterS) => `Too many sign-in attempts from this address. Try again in ${retryAfterS} s.`,
 });

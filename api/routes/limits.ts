@@ -18,6 +18,6 @@ limitsRouter.put(
   '/',
   can('limits:write'),
   route({ params: tankIdParams, body: updateLimitsInput }, (ctx) =>
-    updateLimits(ctx.deps.db, ctx.actor, ctx.params.tankId, ctx.body, auditSourceOf(ctx)),
+    updateLimits(ctx.deps, ctx.actor, ctx.params.tankId, ctx.body, auditSourceOf(ctx)),
   ),
 );

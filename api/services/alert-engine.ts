@@ -154,9 +154,12 @@ async function evaluateLimit(
   tank: TankContext,
   parameter: ParameterKey,
   batch: NewReading[],
+  options: { rejudge?: boolean } = {},
 ) {
   const ruleKey = `limit:${parameter}`;
   let state = await loadState(store.tx, tank.id, ruleKey);
+  // Judging a reading already seen again (the limits changed) means forgetting that it was seen.
+  if (options.rejudge) state = { ...state, lastMeasuredAt: null };
   const events: string[] = [];
   const limits = tank.limits[parameter] ?? null;
   const { deadband } = parameterCatalogue[parameter];
@@ -400,6 +403,28 @@ export async function evaluateNewReadings(
       ]) {
         if (id) events.push(id);
       }
+    }
+    return events;
+  });
+}
+
+/**
+ * After a tank's limits change: each parameter's latest reading is judged again against the limits
+ * now in force, so an alert the old limits opened closes (or a newly crossed limit opens one) at
+ * once instead of at the next reading. Returns the new alert events.
+ */
+export async function rejudgeLatestReadings(
+  db: Db,
+  tankId: string,
+  latest: readonly NewReading[],
+): Promise<string[]> {
+  if (latest.length === 0) return [];
+  return withTankAlerts(db, tankId, async (store) => {
+    const tank = await loadTank(store.tx, tankId);
+    if (!tank) return [];
+    const events: string[] = [];
+    for (const reading of latest) {
+      events.push(...(await evaluateLimit(store, tank, reading.parameter, [reading], { rejudge: true })));
     }
     return events;
   });

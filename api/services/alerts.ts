@@ -8,7 +8,7 @@ import { conflict, notFound } from '../lib/http-error';
 import { queues } from '../lib/job-queue';
 import { visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
-import { evaluateNewReadings, type NewReading } from './alert-engine';
+import { evaluateNewReadings, rejudgeLatestReadings, type NewReading } from './alert-engine';
 import { withTankAlerts } from './alert-store';
 import { fanOutAlertEvent } from './notify';
 
@@ -183,6 +183,15 @@ export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[
  * safe, so a failure here is logged rather than turned into an error for the sender (who would
  * only send the same readings again); evaluating them again later is harmless.
  */
+/** After a limits change: the latest readings judged again under the new limits (see the engine). */
+export async function rejudgeAfterLimitsChange(deps: AppDeps, tankId: string, latest: readonly NewReading[]) {
+  try {
+    await afterAlertEvents(deps, await rejudgeLatestReadings(deps.db, tankId, latest));
+  } catch (error) {
+    deps.logger.error({ err: error, tankId }, 'alert evaluation after a limits change failed');
+  }
+}
+
 export async function raiseAlertsFor(deps: AppDeps, tankId: string, batch: readonly NewReading[]) {
   try {
     await afterAlertEvents(deps, await evaluateNewReadings(deps.db, tankId, batch));

@@ -1,4 +1,4 @@
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import { catalogueSource } from '@shared/livestock/catalogue';
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import { parameterKeys, type ParameterKey } from '@shared/parameters/keys';
@@ -13,10 +13,12 @@ import {
 } from '@shared/schemas/limits';
 import type { ParameterLimits } from '@shared/parameters/limits';
 import type { LimitsInForce } from '@shared/schemas/readings';
+import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
-import { tankLimits, type tanks } from '../db/schema/index';
+import { readings, tankLimits, type tanks } from '../db/schema/index';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
+import { rejudgeAfterLimitsChange } from './alerts';
 import { recordAudit, type AuditSource } from './audit';
 import { tankComfortRange } from './livestock';
 
@@ -115,12 +117,13 @@ export async function getLimits(db: Db, actor: Actor, tankId: string): Promise<T
  * catalogue default; the others are replaced, and a parameter left out of either is unchanged.
  */
 export async function updateLimits(
-  db: Db,
+  deps: AppDeps,
   actor: Actor,
   tankId: string,
   input: UpdateLimitsInput,
   source: AuditSource,
 ): Promise<TankLimitsView> {
+  const { db } = deps;
   const tank = await findTankFor(db, actor, tankId, 'write');
   const limits = input.limits ?? {};
   const rates = input.rates ?? {};
@@ -186,6 +189,19 @@ export async function updateLimits(
         source,
       });
     });
+    // New limits apply at once: the latest readings are judged again, so an alert the old limits
+    // opened closes (or one the new limits call for opens) without waiting for the next reading.
+    const latest = await db
+      .selectDistinctOn([readings.parameter], {
+        parameter: readings.parameter,
+        value: readings.value,
+        measuredAt: readings.measuredAt,
+        source: readings.source,
+      })
+      .from(readings)
+      .where(and(eq(readings.tankId, tank.id), inArray(readings.parameter, touched)))
+      .orderBy(readings.parameter, desc(readings.measuredAt));
+    await rejudgeAfterLimitsChange(deps, tank.id, latest);
   }
   return getLimits(db, actor, tank.id);
 }

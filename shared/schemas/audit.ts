@@ -1,6 +1,9 @@
 import { z } from 'zod';
 import { auditAction, auditTargetKind, type AuditAction, type AuditTargetKind } from '@shared/audit/actions';
-import { instant } from '@shared/time/plausible';
+import { instantWithin } from '@shared/time/plausible';
+
+// A filter may look past today (nothing matches yet), but not before 1990, which no row can hold.
+const filterInstant = instantWithin({});
 
 /** A position in the trail, newest first: the `next` of the previous page. */
 export const auditCursor = z
@@ -12,8 +15,8 @@ export const auditFilters = z.object({
   /** Part of the name or e-mail address of whoever did it. */
   actor: z.string().trim().min(1).max(200).optional(),
   targetKind: auditTargetKind.optional(),
-  from: instant.optional(),
-  to: instant.optional(),
+  from: filterInstant.optional(),
+  to: filterInstant.optional(),
 });
 export type AuditFilters = z.infer<typeof auditFilters>;
 

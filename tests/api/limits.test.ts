@@ -219,13 +219,18 @@ describe('tank limits', () => {
         ],
       });
       const before = await world.call('owner', 'GET', `/api/tanks/${tank.id}/readings/latest`);
+      const openBefore = await world.call('owner', 'GET', `/api/alerts?tankId=${tank.id}`);
       await world.call('technician', 'PUT', `/api/tanks/${tank.id}/limits`, {
         limits: { nitrate: { warnLow: null, warnHigh: 35, critLow: null, critHigh: 60 } },
       });
       const after = await world.call('owner', 'GET', `/api/tanks/${tank.id}/readings/latest`);
+      const openAfter = await world.call('owner', 'GET', `/api/alerts?tankId=${tank.id}`);
 
       expect(find(before.body, 'nitrate')!.health).toBe('warning');
       expect(find(after.body, 'nitrate')!.health).toBe('in-range');
+      // The alert the old limits opened closes with the change, not at the next reading.
+      expect(openBefore.body.map((alert: { parameter: string }) => alert.parameter)).toEqual(['nitrate']);
+      expect(openAfter.body).toEqual([]);
     });
   });
 });

@@ -4,9 +4,7 @@ import {
   FormProvider,
   useForm,
   useFormContext,
-  type FieldErrors,
   type FieldValues,
-  type Path,
   type UseFormProps,
   type UseFormReturn,
 } from 'react-hook-form';
@@ -25,14 +23,18 @@ type FormSchema = z.ZodType<FieldValues, FieldValues>;
 
 export type ZodForm<S extends FormSchema> = UseFormReturn<z.input<S>, unknown, z.output<S>>;
 
-/** A react-hook-form form checked by `schema`; errors show once a field is left or on submit. */
+/** A react-hook-form form checked by `schema`; errors show on submit and clear as they are fixed. */
 export function useZodForm<S extends FormSchema>(
   schema: S,
   options: Omit<UseFormProps<z.input<S>, unknown, z.output<S>>, 'resolver'> = {},
 ): ZodForm<S> {
   return useForm<z.input<S>, unknown, z.output<S>>({
     resolver: zodResolver(schema),
-    mode: 'onTouched',
+    // Checked on submit, then again as a refused field is corrected. Checking as a field is left
+    // would show its message and push the submit button down between press and release, so a
+    // tap on the button would miss it.
+    mode: 'onSubmit',
+    reValidateMode: 'onChange',
     ...options,
   });
 }
@@ -61,38 +63,19 @@ export function Form<TInput extends FieldValues, TOutput extends FieldValues>({
         noValidate
         {...props}
         onSubmit={(event) =>
-          void form.handleSubmit(
-            async (values) => {
-              try {
-                await onSubmit(values);
-              } catch (error) {
-                applyServerIssues(form, error, fieldFor);
-              }
-            },
-            // Focus goes to the first field the check refused, so a keyboard or screen reader
-            // lands on the problem (react-hook-form's own focusing misses fields bound by name).
-            (errors) => {
-              const first = firstErrorPath(errors);
-              if (first) form.setFocus(first as Path<TInput>);
-            },
-          )(event)
+          void form.handleSubmit(async (values) => {
+            try {
+              await onSubmit(values);
+            } catch (error) {
+              applyServerIssues(form, error, fieldFor);
+            }
+          })(event)
         }
       >
         {children}
       </form>
     </FormProvider>
   );
-}
-
-function firstErrorPath(errors: FieldErrors, prefix = ''): string | null {
-  for (const [key, value] of Object.entries(errors)) {
-    if (key === 'root' || !value || typeof value !== 'object') continue;
-    const path = prefix ? `${prefix}.${key}` : key;
-    if ('message' in value && typeof value.message === 'string') return path;
-    const inner = firstErrorPath(value as FieldErrors, path);
-    if (inner) return inner;
-  }
-  return null;
 }
 
 /** The form-wide problem (a failed request, an issue no field owns), read out when it appears. */
