@@ -1,7 +1,13 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword } from '../../api/dev/demo-people';
-import { axeViolations, openBrowser, screenshot, viewports, type BrowserSession } from '../helpers/browser';
+import {
+  axeViolations,
+  openBrowser,
+  screenshot,
+  viewports,
+  type BrowserSession,
+  signInAt,
+} from '../helpers/browser';
 
 // The e2e database is shared by every browser test file in a run: each change made here is undone here.
 describe('the audit trail screen', () => {
@@ -11,11 +17,7 @@ describe('the audit trail screen', () => {
   beforeAll(async () => {
     session = await openBrowser();
     page = await session.newPage('desktop');
-    await page.goto('/console/staff');
-    await page.getByLabel('Email').fill('mara@driftglass.test');
-    await page.getByLabel('Password').fill(demoPassword);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(/\/console\/staff$/);
+    await signInAt(page, '/console/staff', 'mara@driftglass.test');
   });
   afterAll(() => session.close());
 
@@ -83,12 +85,7 @@ describe('the audit trail screen', () => {
   });
 
   it('is not offered to a technician', async () => {
-    const technician = await session.newPage('phone');
-    await technician.goto('/console');
-    await technician.getByLabel('Email').fill('priya@driftglass.test');
-    await technician.getByLabel('Password').fill(demoPassword);
-    await technician.getByRole('button', { name: 'Sign in' }).click();
-    await technician.waitForURL(/\/console$/);
+    const technician = await signInAt(await session.newPage('phone'), '/console', 'priya@driftglass.test');
     await technician
       .getByRole('navigation', { name: 'Main' })
       .getByRole('link', { name: 'Alerts' })

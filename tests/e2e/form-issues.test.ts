@@ -1,7 +1,6 @@
 import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword } from '../../api/dev/demo-people';
-import { axeViolations, openBrowser, type BrowserSession } from '../helpers/browser';
+import { axeViolations, openBrowser, type BrowserSession, signInAt } from '../helpers/browser';
 
 /** The text of everything a field is described by: its hint and, when there is one, its problem. */
 async function descriptionOf(page: Page, field: Locator): Promise<string> {
@@ -16,11 +15,7 @@ describe('a 400 with issues on a form', () => {
   beforeAll(async () => {
     session = await openBrowser();
     page = await session.newPage('desktop');
-    await page.goto('/console/tanks/new');
-    await page.getByLabel('Email').fill('tomas@driftglass.test');
-    await page.getByLabel('Password').fill(demoPassword);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL((url) => url.pathname === '/console/tanks/new');
+    await signInAt(page, '/console/tanks/new', 'tomas@driftglass.test');
   });
   afterAll(() => session.close());
 

@@ -1,19 +1,10 @@
-import type { Locator, Page } from 'playwright-core';
+import type { Locator } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoId } from '../../api/dev/seed/index';
-import { demoPassword } from '../../api/dev/demo-people';
-import { axeViolations, openBrowser, screenshot, type BrowserSession } from '../helpers/browser';
+import { axeViolations, openBrowser, screenshot, type BrowserSession, signInAt } from '../helpers/browser';
 
 // Tomás looks after this tank; no other browser test reads its limits.
 const saltfigLagoon = demoId('saltfig-lagoon');
-
-async function signInAt(page: Page, path: string, email: string) {
-  await page.goto(path);
-  await page.getByLabel('Email').fill(email);
-  await page.getByLabel('Password').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === path);
-}
 
 /** The text under a field: its hint and, when refused, its message (the field's aria-describedby). */
 async function describedBy(field: Locator) {

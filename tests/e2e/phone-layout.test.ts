@@ -1,8 +1,14 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoId } from '../../api/dev/seed/index';
-import { demoPassword } from '../../api/dev/demo-people';
-import { axeViolations, openBrowser, screenshot, viewports, type BrowserSession } from '../helpers/browser';
+import {
+  axeViolations,
+  openBrowser,
+  screenshot,
+  viewports,
+  type BrowserSession,
+  signInAt,
+} from '../helpers/browser';
 
 /*
  * Every screen of the app (web/app/router.tsx) at a phone's 390 px: nothing may scroll sideways and
@@ -30,13 +36,7 @@ async function newPage(session: BrowserSession): Promise<Page> {
 }
 
 async function signIn(session: BrowserSession, email: string, path: string): Promise<Page> {
-  const page = await newPage(session);
-  await page.goto(path);
-  await page.getByLabel('Email').fill(email);
-  await page.getByLabel('Password').fill(demoPassword);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname === path);
-  return page;
+  return signInAt(await newPage(session), path, email);
 }
 
 /** The page's heading is up and nothing is still loading. */

@@ -1,8 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword } from '../../api/dev/demo-people';
-import { axeViolations, openBrowser, type BrowserSession } from '../helpers/browser';
+import { axeViolations, openBrowser, type BrowserSession, signInAt } from '../helpers/browser';
 
 /** The text the field points at with aria-describedby: its hint and, when it has one, its problem. */
 async function describedText(field: Locator): Promise<string> {
@@ -23,11 +22,7 @@ describe('a 400 from the API shows each problem under its own field', () => {
   beforeAll(async () => {
     session = await openBrowser();
     page = await session.newPage('desktop');
-    await page.goto('/console/staff');
-    await page.getByLabel('Email').fill('mara@driftglass.test');
-    await page.getByLabel('Password').fill(demoPassword);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(/\/console\/staff$/);
+    await signInAt(page, '/console/staff', 'mara@driftglass.test');
   });
   afterAll(() => session.close());
 

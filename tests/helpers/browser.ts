@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { inject } from 'vitest';
+import { demoPassword } from '../../api/dev/demo-people';
 import { chromiumPath } from './chromium';
 
 const require = createRequire(import.meta.url);
@@ -87,4 +88,14 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const file = path.join(artifactsDir, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/** Opens `path` on a page, signs in as a demo person through the identity provider, and waits to be back. */
+export async function signInAt(page: Page, path: string, email: string): Promise<Page> {
+  await page.goto(path);
+  await page.getByLabel('Email').fill(email);
+  await page.getByLabel('Password').fill(demoPassword);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => url.pathname === path);
+  return page;
 }
