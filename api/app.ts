@@ -102,18 +102,22 @@ function onlyOverHttps(env: AppDeps['env'], middleware: RequestHandler): Request
 }
 
 function serveClient(app: express.Express, webDist: string) {
-  app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: cacheHashedAssets }));
+  app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: setCacheHeaders }));
   const indexHtml = path.join(webDist, 'index.html');
-  // Client-side routes: any other GET that wants a page gets the app shell.
-  app.get(/^\/(?!api\/|auth\/).*/, (req, res, next) => {
+  // Client-side routes: any other GET that wants a page gets the app shell. A build file that is
+  // not there is a 404, never the shell, which the service worker would keep as that file.
+  app.get(/^\/(?!api\/|auth\/|assets\/).*/, (req, res, next) => {
     if (!req.accepts('html')) return next();
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(indexHtml);
   });
 }
 
-function cacheHashedAssets(res: express.Response, filePath: string) {
+function setCacheHeaders(res: express.Response, filePath: string) {
   if (filePath.includes(`${path.sep}assets${path.sep}`)) {
     res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+  } else if (path.basename(filePath) === 'sw.js') {
+    // Browsers look for a new service worker through this file: a cached copy would hold a release back.
+    res.setHeader('Cache-Control', 'no-cache');
   }
 }

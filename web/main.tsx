@@ -2,6 +2,7 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
+import { startServiceWorker } from './lib/service-worker';
 import './styles.css';
 
 const root = document.getElementById('root');
@@ -14,3 +15,5 @@ createRoot(root).render(
     </AppProvider>
   </StrictMode>,
 );
+
+startServiceWorker();

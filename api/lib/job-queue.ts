@@ -4,6 +4,8 @@ import type { Logger } from './logger';
 /** Every queue the app uses, created at start (pg-boss refuses to send to a missing queue). */
 export const queues = {
   fanOut: 'alert-fan-out',
+  /** Company news to a tank's people: a published visit report. */
+  newsFanOut: 'news-fan-out',
   email: 'deliver-email',
   push: 'deliver-push',
   dead: 'deliveries-dead',
@@ -44,6 +46,12 @@ export async function startJobQueue(databaseUrl: string, logger: Logger): Promis
   await boss.start();
   await ensureQueue(boss, queues.dead, { retentionSeconds: 30 * 24 * 3600 });
   await ensureQueue(boss, queues.fanOut, {
+    retryLimit: 10,
+    retryDelay: 1,
+    retryBackoff: true,
+    heartbeatSeconds,
+  });
+  await ensureQueue(boss, queues.newsFanOut, {
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,

@@ -42,13 +42,13 @@ function withoutEmailAddresses(destination: DestinationStream & { flush?: () => 
   };
 }
 
-/** Paths whose query or last segment carries a secret: the invitation link and the OIDC callback. */
-const secretSegment = /^(\/auth\/invitation\/)[^/?#]+/;
+/** Paths whose query or last segment carries a secret: the invitation link, the calendar feed, the OIDC callback. */
+const secretSegment = /^(\/auth\/invitation\/|\/api\/calendar\/)[^/?#]+/;
 const queryNamesOnly = /^\/auth\//;
 const secretQueryName = /token|code|state|secret|password|key|auth|sig|email|nonce|session/i;
 
 /**
- * A request URL fit for the log: the invitation token leaves the path; under /auth/ (the OIDC
+ * A request URL fit for the log: the invitation and calendar feed tokens leave the path; under /auth/ (the OIDC
  * callback's `code` and `state`, a login's `returnTo`) only the names of query parameters stay;
  * elsewhere the values of parameters whose names suggest a secret are dropped.
  */

@@ -1,6 +1,7 @@
 import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
 import { auditRouter } from './audit';
+import { calendarFeedRouter, calendarRouter } from './calendar';
 import { devicesRouter } from './devices';
 import { healthRouter } from './health';
 import { ingestRouter } from './ingest';
@@ -15,19 +16,23 @@ import { readingsRouter } from './readings';
 import { speciesRouter } from './species';
 import { clientsRouter, staffRouter, usersRouter } from './staff';
 import { tanksRouter } from './tanks';
+import { tankVisitsRouter, visitsRouter } from './visits';
 
 /**
  * Answer before sessions are read: health still answers when the session store cannot, and
- * device ingest authenticates by bearer token, never by cookie (so no session or CSRF check).
+ * device ingest authenticates by bearer token, never by cookie (so no session or CSRF check); a
+ * calendar feed, by the secret in its address.
  */
 export const sessionlessRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/health', healthRouter],
   ['/ingest', ingestRouter],
+  ['/calendar', calendarRouter],
 ];
 
 /** Every other API router and where it is mounted under /api. The route audit test walks both lists. */
 export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/me', meRouter],
+  ['/me/calendar-feed', calendarFeedRouter],
   ['/tanks', tanksRouter],
   ['/tanks/:tankId/equipment', equipmentRouter],
   ['/tanks/:tankId/livestock', livestockRouter],
@@ -35,6 +40,8 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/tanks/:tankId/readings', readingsRouter],
   ['/tanks/:tankId/limits', limitsRouter],
   ['/tanks/:tankId/devices', devicesRouter],
+  ['/tanks/:tankId/visits', tankVisitsRouter],
+  ['/visits', visitsRouter],
   ['/photos', photosRouter],
   ['/species', speciesRouter],
   ['/staff', staffRouter],

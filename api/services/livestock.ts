@@ -83,7 +83,7 @@ export async function listLivestock(db: Db, actor: Actor, tankId: string): Promi
   return (await describe(db, tank.companyId, rows)).sort(presentFirst);
 }
 
-async function findLivestockIn(db: Db, tank: TankRow, livestockId: string): Promise<LivestockRow> {
+export async function findLivestockIn(db: Db, tank: TankRow, livestockId: string): Promise<LivestockRow> {
   const [row] = await db
     .select()
     .from(livestock)
@@ -120,7 +120,11 @@ export interface CompatibilityResult {
   warnings: CompatibilityWarning[];
 }
 
-async function compatibilityFor(db: Db, tank: TankRow, speciesId: string): Promise<CompatibilityResult> {
+export async function compatibilityFor(
+  db: Db,
+  tank: TankRow,
+  speciesId: string,
+): Promise<CompatibilityResult> {
   const candidate = (await resolveSpecies(db, tank.companyId, [speciesId])).get(speciesId);
   if (!candidate) {
     throw invalidFields([
@@ -148,6 +152,71 @@ export async function checkLivestock(
   return compatibilityFor(db, tank, input.speciesId);
 }
 
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** Writes an animal and its first status event inside the caller's transaction. */
+export async function insertLivestock(
+  tx: Tx,
+  tank: TankRow,
+  check: CompatibilityResult,
+  input: Pick<AddLivestock, 'nickname' | 'quantity' | 'addedOn' | 'source' | 'placement' | 'status' | 'note'>,
+  actor: Actor,
+  now: Date,
+): Promise<LivestockRow> {
+  const fromCompany = check.species.source === 'company';
+  const [created] = await tx
+    .insert(livestock)
+    .values({
+      companyId: tank.companyId,
+      tankId: tank.id,
+      catalogueSpeciesId: fromCompany ? null : check.species.id,
+      companySpeciesId: fromCompany ? companySpeciesRowId(check.species.id) : null,
+      nickname: input.nickname ?? null,
+      quantity: input.quantity,
+      addedOn: input.addedOn ?? null,
+      source: input.source ?? null,
+      placement: input.placement ?? null,
+      status: input.status,
+    })
+    .returning();
+  await tx.insert(livestockStatusEvents).values({
+    livestockId: created!.id,
+    status: input.status,
+    note:
+      input.note ??
+      (check.warnings.length > 0 ? 'Added with compatibility warnings acknowledged.' : 'Added to the tank.'),
+    changedBy: actor.id,
+    changedAt: now,
+  });
+  return created!;
+}
+
+/**
+ * Records a status change in the animal's history and sets its status to the newest one (a change
+ * written up later may be older than one already recorded), inside the caller's transaction.
+ */
+export async function recordLivestockStatus(
+  tx: Tx,
+  livestockId: string,
+  change: { status: LivestockRow['status']; note: string | null; changedAt: Date },
+  actor: Actor,
+): Promise<void> {
+  await tx.insert(livestockStatusEvents).values({
+    livestockId,
+    status: change.status,
+    note: change.note,
+    changedBy: actor.id,
+    changedAt: change.changedAt,
+  });
+  const [latest] = await tx
+    .select({ status: livestockStatusEvents.status })
+    .from(livestockStatusEvents)
+    .where(eq(livestockStatusEvents.livestockId, livestockId))
+    .orderBy(desc(livestockStatusEvents.changedAt), desc(livestockStatusEvents.createdAt))
+    .limit(1);
+  await tx.update(livestock).set({ status: latest!.status }).where(eq(livestock.id, livestockId));
+}
+
 export type AddLivestockResult = { added: LivestockItem } | { blocked: CompatibilityResult };
 
 /**
@@ -165,36 +234,7 @@ export async function addLivestock(
   const check = await compatibilityFor(db, tank, input.speciesId);
   if (check.warnings.length > 0 && !input.acknowledgeWarnings) return { blocked: check };
 
-  const fromCompany = check.species.source === 'company';
-  const row = await db.transaction(async (tx) => {
-    const [created] = await tx
-      .insert(livestock)
-      .values({
-        companyId: tank.companyId,
-        tankId: tank.id,
-        catalogueSpeciesId: fromCompany ? null : check.species.id,
-        companySpeciesId: fromCompany ? companySpeciesRowId(check.species.id) : null,
-        nickname: input.nickname ?? null,
-        quantity: input.quantity,
-        addedOn: input.addedOn ?? null,
-        source: input.source ?? null,
-        placement: input.placement ?? null,
-        status: input.status,
-      })
-      .returning();
-    await tx.insert(livestockStatusEvents).values({
-      livestockId: created!.id,
-      status: input.status,
-      note:
-        input.note ??
-        (check.warnings.length > 0
-          ? 'Added with compatibility warnings acknowledged.'
-          : 'Added to the tank.'),
-      changedBy: actor.id,
-      changedAt: now,
-    });
-    return created!;
-  });
+  const row = await db.transaction((tx) => insertLivestock(tx, tank, check, input, actor, now));
   const [item] = await describe(db, tank.companyId, [row]);
   return { added: item! };
 }
@@ -224,25 +264,16 @@ export async function updateLivestock(
       ...(input.source !== undefined && { source: input.source }),
       ...(input.placement !== undefined && { placement: input.placement }),
     };
-    if (recordsStatus) {
-      await tx.insert(livestockStatusEvents).values({
-        livestockId: existing.id,
-        status: input.status!,
-        note: input.statusNote ?? null,
-        changedBy: actor.id,
-        changedAt,
-      });
-      // A change written up later may be older than one already recorded: the newest one wins.
-      const [latest] = await tx
-        .select({ status: livestockStatusEvents.status })
-        .from(livestockStatusEvents)
-        .where(eq(livestockStatusEvents.livestockId, existing.id))
-        .orderBy(desc(livestockStatusEvents.changedAt), desc(livestockStatusEvents.createdAt))
-        .limit(1);
-      Object.assign(fields, { status: latest!.status });
-    }
     if (Object.keys(fields).length > 0) {
       await tx.update(livestock).set(fields).where(eq(livestock.id, existing.id));
+    }
+    if (recordsStatus) {
+      await recordLivestockStatus(
+        tx,
+        existing.id,
+        { status: input.status!, note: input.statusNote ?? null, changedAt },
+        actor,
+      );
     }
   });
   const [item] = await describe(db, tank.companyId, [await findLivestockIn(db, tank, livestockId)]);

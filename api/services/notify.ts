@@ -1,6 +1,6 @@
 import { and, eq, gt, inArray, isNull, lte, ne, sql } from 'drizzle-orm';
 import { firstSteps } from '@shared/alerts/first-steps';
-import { inQuietHours } from '@shared/alerts/quiet-hours';
+import { inQuietHours, localClockTime } from '@shared/alerts/quiet-hours';
 import type { AlertSeverity } from '@shared/alerts/kinds';
 import {
   defaultNotificationPreferences,
@@ -9,6 +9,9 @@ import {
 } from '@shared/schemas/notifications';
 import type { LimitDirection } from '@shared/parameters/limits';
 import { isKnownTimeZone } from '@shared/time/time-zones';
+import { visitReportContent } from '@shared/schemas/visits';
+import { formatDate } from '@shared/text/dates';
+import { reportSummary } from '@shared/schemas/visit-summary';
 import type { AppDeps } from '../deps';
 import {
   alertEvents,
@@ -22,12 +25,13 @@ import {
   tankMembers,
   tanks,
   users,
+  visits,
 } from '../db/schema/index';
 import { appOrigin } from '../env';
 import { publishEvent } from '../lib/event-bus';
 import { escapeHtml } from '../lib/html';
 import { queues } from '../lib/job-queue';
-import { alertTopic } from '../lib/web-push-sender';
+import { alertTopic, type PushOutcome } from '../lib/web-push-sender';
 
 /** Who hears about an alert: the tank's owners and technician; for critical ones, whoever is on call. */
 async function recipientsFor(
@@ -256,6 +260,8 @@ async function markAttempt(deps: AppDeps, deliveryId: string, error: string) {
 const headerSafe = (value: string) => value.replace(/[\r\n]+/g, ' ').slice(0, 200);
 
 export async function deliverEmail(deps: AppDeps, deliveryId: string) {
+  const news = await loadNewsDelivery(deps, deliveryId);
+  if (news) return deliverNewsEmail(deps, news);
   const row = await loadDelivery(deps, deliveryId);
   if (!row || row.delivery.status !== 'pending') return;
   const { alert, event, delivery } = row;
@@ -296,17 +302,13 @@ ${steps ? `<h2 style="font-size:16px">First steps</h2><ol>${steps.steps.map((s) 
 export class RetryLater extends Error {}
 
 export async function deliverPush(deps: AppDeps, deliveryId: string) {
+  const news = await loadNewsDelivery(deps, deliveryId);
+  if (news) return deliverNewsPush(deps, news);
   const row = await loadDelivery(deps, deliveryId);
   if (!row || row.delivery.status !== 'pending' || !deps.push) return;
   const { alert, event, delivery } = row;
-  const [subscription] = await deps.db
-    .select()
-    .from(pushSubscriptions)
-    .where(eq(pushSubscriptions.id, delivery.destination));
-  if (!subscription) {
-    await deps.db.update(deliveries).set({ status: 'gone' }).where(eq(deliveries.id, deliveryId));
-    return;
-  }
+  const subscription = await subscriptionFor(deps, delivery);
+  if (!subscription) return;
   const steps = stepsFor(alert, event.severity);
   const payload = {
     alertId: alert.id,
@@ -326,6 +328,24 @@ export async function deliverPush(deps: AppDeps, deliveryId: string) {
       topic: alertTopic(alert.id),
     },
   );
+  await settlePush(deps, deliveryId, subscription.id, outcome);
+}
+
+/** The subscription a push delivery goes to; a forgotten one marks the delivery gone. */
+async function subscriptionFor(deps: AppDeps, delivery: typeof deliveries.$inferSelect) {
+  const [subscription] = await deps.db
+    .select()
+    .from(pushSubscriptions)
+    .where(eq(pushSubscriptions.id, delivery.destination));
+  if (!subscription) {
+    await deps.db.update(deliveries).set({ status: 'gone' }).where(eq(deliveries.id, delivery.id));
+    return null;
+  }
+  return subscription;
+}
+
+async function settlePush(deps: AppDeps, deliveryId: string, subscriptionId: string, outcome: PushOutcome) {
+  const subscription = { id: subscriptionId };
   switch (outcome.outcome) {
     case 'delivered':
       await markSent(deps, deliveryId);
@@ -371,4 +391,195 @@ export async function pendingFanOuts(deps: AppDeps, olderThanMs: number) {
     )
     .limit(100);
   return rows.map((r) => r.id);
+}
+
+/*
+ * News from the company (a published visit report) travels the same path as alerts: an in-app
+ * notification, and a delivery record plus a queued job per e-mail and push destination, keyed so
+ * that planning twice sends nothing twice. Who hears it and on which channels is the person's
+ * "visit reports" preference; quiet hours hold back e-mail and push as they do for alerts.
+ */
+
+/** The tank's owners (the people a report is written for), active ones only. */
+async function ownersOf(deps: AppDeps, tankId: string) {
+  return deps.db
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      timeZone: sql<string>`coalesce(${users.timeZone}, ${companies.timeZone})`,
+      preferences: notificationPreferences.preferences,
+    })
+    .from(tankMembers)
+    .innerJoin(users, eq(users.id, tankMembers.userId))
+    .innerJoin(companies, eq(companies.id, users.companyId))
+    .leftJoin(notificationPreferences, eq(notificationPreferences.userId, users.id))
+    .where(and(eq(tankMembers.tankId, tankId), eq(users.status, 'active')));
+}
+
+/** Seconds from `now` until the person's quiet hours end, on their own clock. */
+function secondsUntilQuietEnd(preferences: NotificationPreferences, now: Date): number {
+  const minutes = (clock: string) => Number(clock.slice(0, 2)) * 60 + Number(clock.slice(3, 5));
+  const local = minutes(localClockTime(now, preferences.timeZone));
+  const end = minutes(preferences.quietHours!.end);
+  return ((end - local + 1440) % 1440 || 1440) * 60;
+}
+
+async function loadVisitNews(deps: AppDeps, visitId: string) {
+  const [row] = await deps.db
+    .select({
+      visit: visits,
+      tankName: tanks.name,
+      tankZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
+      technicianName: users.name,
+    })
+    .from(visits)
+    .innerJoin(tanks, eq(tanks.id, visits.tankId))
+    .innerJoin(companies, eq(companies.id, tanks.companyId))
+    // The technician of the visit; whoever published it when none is named.
+    .leftJoin(users, eq(users.id, sql`coalesce(${visits.technicianId}, ${visits.publishedBy})`))
+    .where(eq(visits.id, visitId));
+  if (!row || row.visit.published === null) return null;
+  const report = visitReportContent.parse(row.visit.published);
+  const when = formatDate(new Date(report.arrivedAt ?? row.visit.windowStart), row.tankZone);
+  const summary = reportSummary(report);
+  return {
+    visit: row.visit,
+    title: `Visit report: ${row.tankName}`,
+    body: `${row.technicianName ?? 'Your technician'} visited on ${when}. ${summary}`.trim(),
+    link: `/tanks/${row.visit.tankId}?section=visits&visit=${row.visit.id}`,
+  };
+}
+
+export async function fanOutVisitReport(deps: AppDeps, visitId: string) {
+  const news = await loadVisitNews(deps, visitId);
+  if (!news) return;
+  const now = deps.clock();
+  const audience = await ownersOf(deps, news.visit.tankId);
+  let failed = 0;
+  for (const person of audience) {
+    try {
+      const { preferences } = readPreferences(person.preferences, person.timeZone);
+      const channels = preferences.visitReports;
+      if (channels.includes('in-app')) {
+        await deps.db
+          .insert(notifications)
+          .values({
+            userId: person.id,
+            visitId: news.visit.id,
+            severity: 'notice',
+            title: news.title,
+            body: news.body,
+            link: news.link,
+          })
+          .onConflictDoNothing();
+      }
+      // News is never urgent: in quiet hours the e-mail still goes (it rings nothing), and the push
+      // waits until the quiet hours end.
+      const holdPushS = inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
+      const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
+      if (channels.includes('email')) planned.push({ channel: 'email', destination: person.email });
+      if (channels.includes('push')) {
+        const subscriptions = await deps.db
+          .select({ id: pushSubscriptions.id })
+          .from(pushSubscriptions)
+          .where(eq(pushSubscriptions.userId, person.id));
+        for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
+      }
+      for (const delivery of planned) {
+        const [created] = await deps.db
+          .insert(deliveries)
+          .values({ visitId: news.visit.id, userId: person.id, ...delivery })
+          .onConflictDoNothing()
+          .returning({ id: deliveries.id });
+        if (created && deps.jobs) {
+          if (delivery.channel === 'push' && holdPushS > 0) {
+            await deps.jobs.sendAfter(queues.push, { deliveryId: created.id }, null, holdPushS);
+          } else {
+            await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
+              deliveryId: created.id,
+            });
+          }
+        }
+      }
+    } catch (error) {
+      failed += 1;
+      deps.logger.error(
+        { err: error, userId: person.id, visitId },
+        'visit report fan-out failed for one recipient',
+      );
+    }
+  }
+  if (failed === 0) await deps.db.update(visits).set({ announcedAt: now }).where(eq(visits.id, visitId));
+  await publishEvent(deps.pool, {
+    type: 'notification',
+    userIds: audience.map((p) => p.id),
+    tankId: news.visit.tankId,
+  });
+  if (failed > 0)
+    throw new Error(`visit report fan-out failed for ${failed} of ${audience.length} recipients`);
+}
+
+async function loadNewsDelivery(deps: AppDeps, deliveryId: string) {
+  const [delivery] = await deps.db
+    .select()
+    .from(deliveries)
+    .where(and(eq(deliveries.id, deliveryId), sql`${deliveries.visitId} is not null`));
+  if (!delivery || delivery.status !== 'pending') return null;
+  const news = await loadVisitNews(deps, delivery.visitId!);
+  return news ? { delivery, news } : null;
+}
+
+type NewsDelivery = NonNullable<Awaited<ReturnType<typeof loadNewsDelivery>>>;
+
+async function deliverNewsEmail(deps: AppDeps, { delivery, news }: NewsDelivery) {
+  const origin = appOrigin(deps.env);
+  const link = `${origin}${news.link}`;
+  const preferencesLink = `${origin}/settings/notifications`;
+  try {
+    await deps.mailer.send({
+      to: delivery.destination,
+      subject: headerSafe(news.title),
+      text: [
+        news.title,
+        '',
+        news.body,
+        '',
+        `Read the report: ${link}`,
+        '',
+        `Change what you hear about: ${preferencesLink}`,
+      ].join('\n'),
+      html: `<h1 style="font-size:18px">${escapeHtml(news.title)}</h1>
+<p>${escapeHtml(news.body)}</p>
+<p><a href="${escapeHtml(link)}">Read the report in Brinewatch</a></p>
+<p style="font-size:12px;color:#555"><a href="${escapeHtml(preferencesLink)}">Change what you hear about</a></p>`,
+      headers: { 'List-Unsubscribe': `<${preferencesLink}>`, 'X-Brinewatch-Visit': news.visit.id },
+    });
+  } catch (error) {
+    await markAttempt(deps, delivery.id, error instanceof Error ? error.message : String(error));
+    throw error;
+  }
+  await markSent(deps, delivery.id);
+}
+
+async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) {
+  if (!deps.push) return;
+  const subscription = await subscriptionFor(deps, delivery);
+  if (!subscription) return;
+  const outcome = await deps.push.send(
+    { endpoint: subscription.endpoint, keys: { p256dh: subscription.p256dh, auth: subscription.auth } },
+    {
+      tag: `visit-${news.visit.id}`,
+      tankId: news.visit.tankId,
+      title: news.title,
+      body: news.body,
+      url: news.link,
+    },
+    {
+      ttlSeconds: 3 * 24 * 3600,
+      urgency: 'normal',
+      topic: `visit-${news.visit.id.replaceAll('-', '').slice(0, 26)}`,
+    },
+  );
+  await settlePush(deps, delivery.id, subscription.id, outcome);
 }

@@ -1,13 +1,13 @@
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, exists, ne, or, sql, type SQL } from 'drizzle-orm';
 import { photoUrls, type PhotoItem } from '@shared/schemas/photos';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
-import { livestock, photos, tanks } from '../db/schema/index';
+import { livestock, photos, tanks, visitPhotos } from '../db/schema/index';
 import { processUpload } from '../lib/images';
 import { newPhotoKey, type ObjectStorage, type StoredObject } from '../lib/object-storage';
 import type { Logger } from '../lib/logger';
 import { notFound } from '../lib/http-error';
-import { findTankFor, visibleTanks } from '../policy/index';
+import { findTankFor, isStaff, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
 import { recordAudit, type AuditSource } from './audit';
 import { invalidFields } from './tanks';
@@ -55,6 +55,7 @@ export interface PhotoUpload {
   livestockId?: string;
   caption?: string;
   cover: boolean;
+  subject?: 'tank' | 'visit';
 }
 
 /** Stores the upload's objects, then records it: the objects come first so a row never points at nothing. */
@@ -83,7 +84,7 @@ export async function uploadPhoto(
           companyId: tank.companyId,
           tankId: tank.id,
           livestockId: upload.livestockId ?? null,
-          subject: upload.livestockId ? 'livestock' : 'tank',
+          subject: upload.livestockId ? 'livestock' : (upload.subject ?? 'tank'),
           ...stored,
           caption: upload.caption || null,
           uploadedBy: actor.id,
@@ -101,12 +102,24 @@ export async function uploadPhoto(
   }
 }
 
+/**
+ * Owners see a visit's photos only once a published report uses them; staff see every photo of
+ * their company's tanks.
+ */
+function shownTo(actor: Actor): SQL | undefined {
+  if (isStaff(actor)) return undefined;
+  const published = exists(
+    sql`(select 1 from ${visitPhotos} where ${visitPhotos.photoId} = ${photos.id} and ${visitPhotos.published})`,
+  );
+  return or(ne(photos.subject, 'visit'), published);
+}
+
 export async function listTankPhotos(db: Db, actor: Actor, tankId: string): Promise<PhotoItem[]> {
   const tank = await findTankFor(db, actor, tankId, 'read');
   const rows = await db
     .select()
     .from(photos)
-    .where(eq(photos.tankId, tank.id))
+    .where(and(eq(photos.tankId, tank.id), shownTo(actor)))
     .orderBy(asc(photos.createdAt), asc(photos.id));
   return rows.map(photoItemOf);
 }
@@ -117,7 +130,7 @@ async function findVisiblePhoto(db: Db, actor: Actor, photoId: string): Promise<
     .select({ photo: photos })
     .from(photos)
     .innerJoin(tanks, eq(tanks.id, photos.tankId))
-    .where(and(eq(photos.id, photoId), visibleTanks(db, actor)));
+    .where(and(eq(photos.id, photoId), visibleTanks(db, actor), shownTo(actor)));
   if (!row) throw notFound('photo');
   return row.photo;
 }

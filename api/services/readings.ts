@@ -54,7 +54,7 @@ export function timeProblemMessage(problem: TimeProblem, existsFrom: Date): stri
 /** A stored reading as the alert engine judges it. */
 export type StoredReading = Parameters<typeof raiseAlertsFor>[2][number];
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /**
  * The one way readings are stored, whoever sends them (a person, a CSV import, a device): `write`
@@ -71,7 +71,7 @@ export async function commitReadings<T>(
   return result;
 }
 
-interface ManualRow extends ManualReadingInput {
+export interface ManualRow extends ManualReadingInput {
   source: ManualSource;
 }
 
@@ -94,6 +94,38 @@ function manualValues(tank: TankRow, actor: Actor, rows: readonly ManualRow[]) {
   }));
 }
 
+/** Issues with when readings were taken: not in the future, not before the tank existed. */
+export function manualTimeIssues(
+  tank: TankRow,
+  rows: readonly Pick<ManualRow, 'measuredAt'>[],
+  now: Date,
+  pathPrefix: string,
+): ErrorIssue[] {
+  const existsFrom = tankExistsFrom(tank);
+  return rows.flatMap((row, index) => {
+    const problem = timeProblem(new Date(row.measuredAt), existsFrom, now);
+    return problem
+      ? [{ path: `${pathPrefix}.${index}.measuredAt`, message: timeProblemMessage(problem, existsFrom) }]
+      : [];
+  });
+}
+
+/** Inserts checked readings inside the caller's transaction; the caller hands them to commitReadings. */
+export async function insertManualRows(
+  tx: Tx,
+  tank: TankRow,
+  actor: Actor,
+  rows: readonly ManualRow[],
+): Promise<(typeof readings.$inferSelect)[]> {
+  const inserted: (typeof readings.$inferSelect)[] = [];
+  // 1000 rows × 14 columns stays far below PostgreSQL's 65,535 parameters per statement.
+  for (let start = 0; start < rows.length; start += 1000) {
+    const values = manualValues(tank, actor, rows.slice(start, start + 1000));
+    inserted.push(...(await tx.insert(readings).values(values).returning()));
+  }
+  return inserted;
+}
+
 /** All or nothing: every row is checked, and any issue refuses the whole batch with every issue. */
 async function insertManual(
   deps: AppDeps,
@@ -102,29 +134,13 @@ async function insertManual(
   rows: readonly ManualRow[],
   extraIssues: ErrorIssue[] = [],
 ): Promise<Reading[]> {
-  const existsFrom = tankExistsFrom(tank);
-  const now = deps.clock();
-  const issues = [...extraIssues];
-  rows.forEach((row, index) => {
-    const problem = timeProblem(new Date(row.measuredAt), existsFrom, now);
-    if (problem) {
-      issues.push({
-        path: `body.readings.${index}.measuredAt`,
-        message: timeProblemMessage(problem, existsFrom),
-      });
-    }
-  });
+  const issues = [...extraIssues, ...manualTimeIssues(tank, rows, deps.clock(), 'body.readings')];
   if (issues.length > 0) {
     issues.sort((a, b) => a.path.localeCompare(b.path, 'en', { numeric: true }));
     throw badRequest('invalid_request', 'Some readings need attention; none were saved.', issues);
   }
   const saved = await commitReadings(deps, tank.id, async (tx) => {
-    const inserted: (typeof readings.$inferSelect)[] = [];
-    // 1000 rows × 14 columns stays far below PostgreSQL's 65,535 parameters per statement.
-    for (let start = 0; start < rows.length; start += 1000) {
-      const values = manualValues(tank, actor, rows.slice(start, start + 1000));
-      inserted.push(...(await tx.insert(readings).values(values).returning()));
-    }
+    const inserted = await insertManualRows(tx, tank, actor, rows);
     return { stored: inserted, result: inserted };
   });
   return saved.map((row) => ({

@@ -2,6 +2,7 @@ import { and, asc, eq, exists, ilike, inArray, isNull, ne, or, type SQL } from '
 import { alias } from 'drizzle-orm/pg-core';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { photoUrls } from '@shared/schemas/photos';
+import { visitOverdue } from '@shared/visits/overdue';
 import type {
   AssignableStaff,
   createTankInput,
@@ -83,6 +84,7 @@ const unknownHealth = { status: 'no-data', statusReason: 'No readings yet' } as 
 function toSummary(
   row: SummaryRow,
   owners: PersonRef[],
+  now: Date,
   { status, statusReason }: Pick<TankSummary, 'status' | 'statusReason'> = unknownHealth,
 ): TankSummary {
   const { tank } = row;
@@ -103,6 +105,8 @@ function toSummary(
     coverPhoto: row.cover ? photoRefOf(row.cover) : null,
     status,
     statusReason,
+    lastVisitAt: tank.lastVisitAt?.toISOString() ?? null,
+    visitOverdue: visitOverdue(tank, now),
   };
 }
 
@@ -130,7 +134,7 @@ export async function listTanks(
     .orderBy(asc(tanks.name), asc(tanks.id));
   const ids = rows.map((row) => row.tank.id);
   const [owners, health] = await Promise.all([ownersOf(db, ids), healthForTanks(db, ids, now)]);
-  return rows.map((row) => toSummary(row, owners.get(row.tank.id) ?? [], health.get(row.tank.id)));
+  return rows.map((row) => toSummary(row, owners.get(row.tank.id) ?? [], now, health.get(row.tank.id)));
 }
 
 export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: Date): Promise<TankDetail> {
@@ -148,7 +152,7 @@ export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: D
   const [owners, health] = await Promise.all([ownersOf(db, [tankId]), healthForTanks(db, [tankId], now)]);
   const tank = row!.tank;
   return {
-    ...toSummary(row!, owners.get(tankId) ?? [], health.get(tankId)),
+    ...toSummary(row!, owners.get(tankId) ?? [], now, health.get(tankId)),
     dimensions:
       tank.lengthCm !== null && tank.widthCm !== null && tank.heightCm !== null
         ? { lengthCm: tank.lengthCm, widthCm: tank.widthCm, heightCm: tank.heightCm }

@@ -80,7 +80,8 @@ export async function deactivateUser(db: Db, actor: Actor, userId: string, sourc
   return db.transaction(async (tx) => {
     const [updated] = await tx
       .update(users)
-      .set({ status: 'deactivated', deactivatedAt: source.at })
+      // A deactivated person's calendar address stops for good; after reactivation they issue a new one.
+      .set({ status: 'deactivated', deactivatedAt: source.at, calendarTokenHash: null })
       .where(eq(users.id, user.id))
       .returning(publicColumns);
     await tx.execute(sql`delete from session where sess->>'userId' = ${user.id}`);

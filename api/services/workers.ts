@@ -4,7 +4,8 @@ import type { AppDeps } from '../deps';
 import { deliveries } from '../db/schema/index';
 import { queues } from '../lib/job-queue';
 import { afterAlertEvents } from './alerts';
-import { deliverEmail, deliverPush, fanOutAlertEvent, pendingFanOuts } from './notify';
+import { deliverEmail, deliverPush, fanOutAlertEvent, fanOutVisitReport, pendingFanOuts } from './notify';
+import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
 
 type DeliveryJob = { deliveryId: string };
@@ -18,6 +19,9 @@ export async function startWorkers(deps: AppDeps) {
   if (!boss) throw new Error('startWorkers needs the job queue');
   await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
     for (const job of jobs) await fanOutAlertEvent(deps, job.data.eventId);
+  });
+  await boss.work<{ visitId: string }>(queues.newsFanOut, async (jobs) => {
+    for (const job of jobs) await fanOutVisitReport(deps, job.data.visitId);
   });
   await boss.work<DeliveryJob>(
     queues.email,
@@ -51,6 +55,7 @@ export async function startWorkers(deps: AppDeps) {
       const opened = job.data?.overdue ? await sweepOverdueTests(deps) : await sweepStaleDevices(deps);
       await afterAlertEvents(deps, opened);
       for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
+      for (const visitId of await unannouncedVisits(deps, 60_000)) await fanOutVisitReport(deps, visitId);
     }
   });
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });

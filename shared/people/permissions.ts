@@ -41,6 +41,13 @@ export const permissions = {
   'photos:read': everyone,
   'photos:write': staff,
   'audit:read': admins,
+  // Owners read published visit reports and the next visit of their own tanks.
+  'visits:read': everyone,
+  // Schedule visits and write reports; giving a visit to another technician is for admins.
+  'visits:write': staff,
+  'visits:assign': admins,
+  // Everyone can subscribe to their own schedule as a calendar feed.
+  'calendar:own': everyone,
 } satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

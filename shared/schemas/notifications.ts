@@ -18,6 +18,12 @@ export const notificationPreferences = z.object({
   inApp: severities,
   quietHours: quietHours.nullable(),
   timeZone,
+  /** Where news from the company reaches a person: a published visit report. */
+  visitReports: distinctList(notificationChannel, 2 * notificationChannels.length).default([
+    'in-app',
+    'email',
+    'push',
+  ]),
 });
 export type NotificationPreferences = z.infer<typeof notificationPreferences>;
 
@@ -27,6 +33,7 @@ export const defaultNotificationPreferences: NotificationPreferences = {
   inApp: ['notice', 'warning', 'critical'],
   quietHours: { start: '22:00', end: '07:00' },
   timeZone: 'UTC',
+  visitReports: ['in-app', 'email', 'push'],
 };
 
 export const pushSubscriptionInput = z.object({

@@ -6,6 +6,8 @@ export const photoIdParams = z.object({ photoId: z.uuid() });
 export const photoUploadFields = z.object({
   livestockId: z.uuid().optional(),
   caption: z.string().trim().max(300).optional(),
+  /** "visit": taken for a visit report; owners see it once a published report uses it. */
+  subject: z.enum(['tank', 'visit']).optional(),
   /** "true" makes it the tank's cover photo. */
   cover: z
     .enum(['true', 'false'])

@@ -142,6 +142,10 @@ export const tankSummary = z.object({
   status: tankStatusSchema,
   /** Why, in words: the same reason the tank page and its readings give (shared/tanks/status.ts). */
   statusReason: z.string(),
+  /** When the last published visit began; null before the first. */
+  lastVisitAt: z.iso.datetime().nullable(),
+  /** Past its service interval since the last visit (shared/visits/overdue.ts). */
+  visitOverdue: z.boolean(),
 });
 export type TankSummary = z.infer<typeof tankSummary>;
 

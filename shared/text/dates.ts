@@ -19,6 +19,10 @@ const kinds = {
   'day-month': { day: 'numeric', month: 'short' },
   'day-month-time': { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' },
   'month-year': { month: 'short', year: 'numeric' },
+  // A visit's day and window: "Tue 8 Dec", "09:00".
+  'weekday-day-month': { weekday: 'short', day: 'numeric', month: 'short' },
+  'weekday-long': { weekday: 'long', day: 'numeric', month: 'long' },
+  time: { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' },
 } satisfies Record<string, Intl.DateTimeFormatOptions>;
 type FormatKind = keyof typeof kinds;
 const formats = new Map<string, Intl.DateTimeFormat>();
@@ -59,4 +63,19 @@ export function formatDayMonth(at: Date | string | number, timeZone?: string): s
 /** "Dec 2026": a month on a chart's axis. */
 export function formatMonthYear(at: Date | string | number, timeZone?: string): string {
   return formatFor('month-year', timeZone).format(new Date(at));
+}
+
+/** "Tue 8 Dec": the day of a visit, in `timeZone`. */
+export function formatWeekday(at: Date | string | number, timeZone?: string): string {
+  return formatFor('weekday-day-month', timeZone).format(new Date(at));
+}
+
+/** "Tuesday 8 December": a day's heading in a schedule, in `timeZone`. */
+export function formatWeekdayLong(at: Date | string | number, timeZone?: string): string {
+  return formatFor('weekday-long', timeZone).format(new Date(at));
+}
+
+/** "09:00" on a 24-hour clock, in `timeZone`. */
+export function formatTime(at: Date | string | number, timeZone?: string): string {
+  return formatFor('time', timeZone).format(new Date(at));
 }

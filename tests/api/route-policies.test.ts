@@ -28,6 +28,7 @@ const allRoutes = [
 const publicRoutes = [
   'GET /api/health',
   'GET /api/me/access',
+  'GET /api/calendar/:token.ics',
   'GET /auth/login',
   'GET /auth/callback',
   'POST /auth/logout',

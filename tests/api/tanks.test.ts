@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TankDetail, TankSummary } from '@shared/schemas/tanks';
 import { tankMembers, tanks } from '../../api/db/schema/index';
 import { issuePaths, signedIn, type ApiSession } from '../helpers/api-session';
+import { days } from '../helpers/clock';
 import { createCompany, createPerson, createTank, type TestPerson } from '../helpers/factories';
 import { startTestStack, type TestStack } from '../helpers/stack';
 
@@ -228,6 +229,58 @@ describe('tanks API', () => {
     it("answers an owner asking for someone else's tank with 404", async () => {
       expect((await as.coOwner.get(`/api/tanks/${ownerTank.id}`)).status).toBe(404);
       expect((await as.owner.get(`/api/tanks/${ownerTank.id}`)).status).toBe(200);
+    });
+
+    it("flags a tank overdue for service when its last visit is older than its interval, by the server's clock", async () => {
+      const { db } = stack.database;
+      // A company of its own, so the lists above keep their tanks.
+      const company = await createCompany(db);
+      const admin = await createPerson(db, {
+        companyId: company.id,
+        role: 'admin',
+        issuer: stack.idp.issuer,
+      });
+      const now = stack.clock.now().getTime();
+      const visitedLongAgo = new Date(now - days(15));
+      const visitedRecently = new Date(now - days(3));
+      await createTank(db, {
+        companyId: company.id,
+        name: 'Visited long ago',
+        serviceIntervalDays: 14,
+        lastVisitAt: visitedLongAgo,
+      });
+      await createTank(db, {
+        companyId: company.id,
+        name: 'Visited recently',
+        serviceIntervalDays: 14,
+        lastVisitAt: visitedRecently,
+      });
+      await createTank(db, { companyId: company.id, name: 'Never visited', serviceIntervalDays: 14 });
+      const overdue = (list: TankSummary[]) =>
+        list.map((tank) => [tank.name, tank.lastVisitAt, tank.visitOverdue]);
+
+      try {
+        const session = await signedIn(stack, admin);
+        const today = await session.get<TankSummary[]>('/api/tanks');
+        // Twelve days earlier, the long-ago visit was three days old and the recent one not yet made.
+        stack.clock.advance(-days(12));
+        const earlier = await session.get<TankSummary[]>('/api/tanks');
+
+        expect(today.status).toBe(200);
+        expect(overdue(today.body)).toEqual([
+          ['Never visited', null, false],
+          ['Visited long ago', visitedLongAgo.toISOString(), true],
+          ['Visited recently', visitedRecently.toISOString(), false],
+        ]);
+        expect(earlier.status).toBe(200);
+        expect(overdue(earlier.body)).toEqual([
+          ['Never visited', null, false],
+          ['Visited long ago', visitedLongAgo.toISOString(), false],
+          ['Visited recently', visitedRecently.toISOString(), false],
+        ]);
+      } finally {
+        stack.clock.reset();
+      }
     });
   });
 

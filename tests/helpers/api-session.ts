@@ -14,6 +14,7 @@ export interface ApiSession {
   get<T = unknown>(path: string): Promise<ApiAnswer<T>>;
   post<T = unknown>(path: string, body?: unknown): Promise<ApiAnswer<T>>;
   patch<T = unknown>(path: string, body: unknown): Promise<ApiAnswer<T>>;
+  put<T = unknown>(path: string, body: unknown): Promise<ApiAnswer<T>>;
   delete<T = unknown>(path: string): Promise<ApiAnswer<T>>;
   /** A multipart form as the app's upload form sends it. */
   upload<T = unknown>(path: string, form: FormData): Promise<ApiAnswer<T>>;
@@ -47,6 +48,7 @@ export async function signedIn(stack: TestStack, person: TestPerson): Promise<Ap
     get: (path) => call('GET', path),
     post: (path, body) => call('POST', path, body),
     patch: (path, body) => call('PATCH', path, body),
+    put: (path, body) => call('PUT', path, body),
     delete: (path) => call('DELETE', path),
     upload: (path, form) => call('POST', path, form),
   };

@@ -99,3 +99,23 @@ export async function signInAt(page: Page, path: string, email: string): Promise
   await page.waitForURL((url) => url.pathname === path);
   return page;
 }
+
+/** Calls the API from inside the signed-in page, as the app does (same cookies, same CSRF header). */
+export async function apiInPage<T>(page: Page, method: string, path: string, body?: unknown): Promise<T> {
+  return page.evaluate(
+    async ({ method, path, body }) => {
+      const response = await fetch(`/api${path}`, {
+        method,
+        headers: {
+          Accept: 'application/json',
+          'X-Requested-With': 'brinewatch',
+          ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+        },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      });
+      if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`);
+      return response.json();
+    },
+    { method, path, body },
+  ) as Promise<T>;
+}

@@ -1,6 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigation } from 'react-router';
 import { BrandMark } from '../components/brand-mark';
+import { OfflineNotice } from '../components/offline-notice';
 import { can, useMe } from '../lib/auth';
 import { UserMenu } from '../features/auth/components/user-menu';
 import { NotificationBell } from '../features/notifications/components/notification-bell';
@@ -27,7 +28,9 @@ function MainNav() {
   const links: { to: string; label: string; end?: boolean }[] = [];
   // Staff work from the company console; a client sees their own tanks.
   if (can(me, 'clients:read')) {
-    links.push({ to: '/console', label: 'Tanks', end: true }, { to: '/console/clients', label: 'Clients' });
+    links.push({ to: '/console', label: 'Tanks', end: true });
+    if (can(me, 'visits:write')) links.push({ to: '/console/schedule', label: 'Schedule' });
+    links.push({ to: '/console/clients', label: 'Clients' });
     links.push({ to: '/console/alerts', label: 'Alerts' });
     if (can(me, 'staff:read')) links.push({ to: '/console/staff', label: 'Staff' });
     if (can(me, 'audit:read')) links.push({ to: '/console/audit', label: 'Audit trail' });
@@ -75,6 +78,7 @@ export function RootLayout() {
         {navigation.state === 'loading' && (
           <div className="h-0.5 animate-pulse bg-brine-300" role="progressbar" aria-label="Loading page" />
         )}
+        <OfflineNotice />
       </header>
       <main id="main" className="flex-1">
         <Outlet />

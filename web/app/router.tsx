@@ -77,6 +77,18 @@ const router = createBrowserRouter([
                 }),
               },
               {
+                path: 'schedule',
+                element: <RequirePermission permission="visits:write" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-schedule')).ConsoleScheduleRoute,
+                    }),
+                  },
+                ],
+              },
+              {
                 path: 'clients',
                 lazy: async () => ({
                   Component: (await import('./routes/console-clients')).ConsoleClientsRoute,
@@ -109,6 +121,17 @@ const router = createBrowserRouter([
                     }),
                   },
                 ],
+              },
+            ],
+          },
+          {
+            path: 'visits/:visitId',
+            // Writing a report is staff work; owners read published reports on the tank page.
+            element: <RequirePermission permission="visits:write" />,
+            children: [
+              {
+                index: true,
+                lazy: async () => ({ Component: (await import('./routes/visit-report')).VisitReportRoute }),
               },
             ],
           },

@@ -7,6 +7,8 @@ interface ConfirmDialogProps {
   title: string;
   children: ReactNode;
   confirmLabel: string;
+  /** The safe choice; "Cancel" unless that word would name the change itself ("Cancel visit"). */
+  cancelLabel?: string;
   pendingLabel: string;
   pending: boolean;
   /** Why the last try failed; the dialog stays open so the person can try again or cancel. */
@@ -25,6 +27,7 @@ export function ConfirmDialog({
   title,
   children,
   confirmLabel,
+  cancelLabel = 'Cancel',
   pendingLabel,
   pending,
   error,
@@ -66,7 +69,7 @@ export function ConfirmDialog({
       )}
       <div className="mt-6 flex flex-col-reverse gap-2 sm:flex-row sm:justify-end">
         <Button data-dialog-cancel tone="secondary" onClick={onClose}>
-          Cancel
+          {cancelLabel}
         </Button>
         <Button tone="danger" onClick={onConfirm} disabled={pending}>
           {pending ? pendingLabel : confirmLabel}

@@ -6,6 +6,9 @@ import {
   formatDayMonth,
   formatDayMonthTime,
   formatMonthYear,
+  formatTime,
+  formatWeekday,
+  formatWeekdayLong,
 } from '@shared/text/dates';
 
 /*
@@ -30,7 +33,26 @@ export function relativeTime(iso: string | number, now = Date.now()): string {
   return relative.format(-Math.floor(elapsed / day), 'day');
 }
 
-export { formatDate, formatDateTime, formatDayMonth, formatDayMonthTime, formatMonthYear };
+export {
+  formatDate,
+  formatDateTime,
+  formatDayMonth,
+  formatDayMonthTime,
+  formatMonthYear,
+  formatTime,
+  formatWeekday,
+  formatWeekdayLong,
+};
+
+/** "09:00–10:00": a visit's window on the wall clock of `timeZone` (the tank's). */
+export function formatTimeWindow(start: string, end: string, timeZone: string): string {
+  return `${formatTime(start, timeZone)}–${formatTime(end, timeZone)}`;
+}
+
+/** "Tue 8 Dec, 09:00–10:00": when a visit is planned, in the tank's zone. */
+export function formatVisitWindow(start: string, end: string, timeZone: string): string {
+  return `${formatWeekday(start, timeZone)}, ${formatTimeWindow(start, end, timeZone)}`;
+}
 
 /** A calendar day ("2025-04-12") as people read it; no time zone can move a calendar day. */
 export function formatDay(isoDay: string | null): string {
@@ -40,12 +62,17 @@ export function formatDay(isoDay: string | null): string {
 
 /** Today's calendar day ("2026-12-01") in a time zone. */
 export function todayIn(timeZone: string): string {
+  return dayIn(new Date(), timeZone);
+}
+
+/** The calendar day ("2026-12-01") a moment falls on in a time zone; the runtime's own without one. */
+export function dayIn(at: Date | string | number, timeZone?: string): string {
   return new Intl.DateTimeFormat('en-CA', {
-    timeZone,
+    ...(timeZone ? { timeZone } : {}),
     year: 'numeric',
     month: '2-digit',
     day: '2-digit',
-  }).format(new Date());
+  }).format(new Date(at));
 }
 
 /** The value a datetime-local input wants: local time, to the minute. */

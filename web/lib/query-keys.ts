@@ -25,6 +25,16 @@ export const tankKeys = {
     [...tankKeys.detail(tankId), 'livestock-check', speciesId] as const,
   comfortRange: (tankId: string) => [...tankKeys.detail(tankId), 'comfort-range'] as const,
   technicians: () => [...tankKeys.all, 'technicians'] as const,
+  visits: (tankId: string) => [...tankKeys.detail(tankId), 'visits'] as const,
+};
+
+/** A visit and its report; the schedule lists hang under `visitKeys.schedules()`. */
+export const visitKeys = {
+  all: ['visits'] as const,
+  schedules: () => [...visitKeys.all, 'schedule'] as const,
+  schedule: (query: object) => [...visitKeys.schedules(), query] as const,
+  detail: (visitId: string) => [...visitKeys.all, 'detail', visitId] as const,
+  version: (visitId: string, version: number) => [...visitKeys.detail(visitId), 'version', version] as const,
 };
 
 export const speciesKeys = {
@@ -59,4 +69,10 @@ export const notificationKeys = {
 export const auditKeys = {
   all: ['audit'] as const,
   list: (filters: object) => [...auditKeys.all, 'list', filters] as const,
+};
+
+/** The signed-in person's calendar feed: whether it is on (its address is shown once, never read back). */
+export const calendarKeys = {
+  all: ['calendar-feed'] as const,
+  status: () => [...calendarKeys.all, 'status'] as const,
 };

@@ -1,15 +1,176 @@
 /*
- * Brinewatch's service worker: shows alert notifications pushed by the server and opens the tank
- * when one is tapped. Plain script, no imports; the page registers it from /sw.js (scope /).
- * Payload: { alertId, tankId, severity, status, title, body, url }.
+ * Brinewatch's service worker. Plain script, no imports; web/lib/service-worker.ts registers it from
+ * /sw.js (scope /) on every page load of a production build. Two jobs:
+ * - the app shell opens without a connection (technicians write reports at the tank, often with a
+ *   poor one): pages come from the network first, else from the last index.html kept; Vite's hashed
+ *   build files and the icons come from the cache once fetched. /api and /auth are never touched:
+ *   their answers belong to one person and one moment, and work not yet sent lives in the page's
+ *   own store (web/lib/offline-store.ts), not here.
+ * - shows alert notifications pushed by the server and opens the tank when one is tapped.
+ *   Payload: { alertId, tankId, severity, status, title, body, url } for an alert, or
+ *   { tag, tankId, title, body, url } for company news (a published visit report).
  */
 
-self.addEventListener('install', () => {
-  self.skipWaiting();
+// Raise the version when what is kept changes shape: activate then drops every older cache.
+const cacheName = 'brinewatch-shell-v1';
+const cachePrefix = 'brinewatch-';
+const shellUrl = '/';
+// A page that has not answered by then is shown from the kept shell instead (a few seconds is
+// common practice); the network's answer, if it comes, still refreshes the kept copy.
+const slowPageMs = 4000;
+
+self.addEventListener('install', (event) => {
+  event.waitUntil(
+    (async () => {
+      try {
+        const cache = await caches.open(cacheName);
+        await cache.add(new Request(shellUrl, { cache: 'reload' }));
+      } catch {
+        // Installed without a connection: push must work all the same, and the next page load keeps the shell.
+      }
+      await self.skipWaiting();
+    })(),
+  );
 });
 
 self.addEventListener('activate', (event) => {
-  event.waitUntil(self.clients.claim());
+  event.waitUntil(
+    (async () => {
+      const names = await caches.keys();
+      await Promise.all(
+        names
+          .filter((name) => name.startsWith(cachePrefix) && name !== cacheName)
+          .map((name) => caches.delete(name)),
+      );
+      await self.clients.claim();
+    })(),
+  );
+});
+
+function isUnder(pathname, folder) {
+  return pathname === folder || pathname.startsWith(`${folder}/`);
+}
+
+/**
+ * Files Vite names by their content (scripts, styles and the fonts it bundles): a name never changes
+ * meaning, so a kept copy is always right.
+ */
+function isBuildFile(url) {
+  return url.origin === self.location.origin && url.pathname.startsWith('/assets/');
+}
+
+/** Files from web/public: same name, new content after a release, so they are refreshed behind the kept copy. */
+function isPublicFile(url) {
+  return (
+    url.pathname === '/favicon.svg' ||
+    url.pathname === '/manifest.webmanifest' ||
+    url.pathname.startsWith('/icons/')
+  );
+}
+
+function isKeepable(response) {
+  return response.status === 200 && response.type === 'basic';
+}
+
+function isShell(response) {
+  return (
+    isKeepable(response) &&
+    !response.redirected &&
+    (response.headers.get('content-type') || '').startsWith('text/html')
+  );
+}
+
+/**
+ * Every app address answers with the same index.html, so the newest one from any page is kept as
+ * the shell. The copy is taken before the page can start reading the body.
+ */
+function pageFromNetworkFirst(event) {
+  const fromNetwork = fetch(event.request);
+  event.waitUntil(
+    fromNetwork
+      .then(async (response) => {
+        if (!isShell(response)) return;
+        const copy = response.clone();
+        const cache = await caches.open(cacheName);
+        await cache.put(shellUrl, copy);
+      })
+      .catch(() => undefined),
+  );
+  return (async () => {
+    const cache = await caches.open(cacheName);
+    const shell = await cache.match(shellUrl);
+    if (!shell) return fromNetwork;
+    let timer;
+    const slow = new Promise((resolve) => {
+      timer = setTimeout(resolve, slowPageMs, null);
+    });
+    try {
+      return (await Promise.race([fromNetwork, slow])) || shell;
+    } catch {
+      return shell;
+    } finally {
+      clearTimeout(timer);
+    }
+  })();
+}
+
+async function fromCacheFirst(event) {
+  const cache = await caches.open(cacheName);
+  const kept = await cache.match(event.request);
+  if (kept) return kept;
+  const response = await fetch(event.request);
+  if (isKeepable(response)) event.waitUntil(cache.put(event.request, response.clone()));
+  return response;
+}
+
+async function keptThenRefreshed(event) {
+  const cache = await caches.open(cacheName);
+  const kept = await cache.match(event.request);
+  const fresh = fetch(event.request).then(async (response) => {
+    if (isKeepable(response)) await cache.put(event.request, response.clone());
+    return response;
+  });
+  if (!kept) return fresh;
+  event.waitUntil(fresh.catch(() => undefined));
+  return kept;
+}
+
+self.addEventListener('fetch', (event) => {
+  const { request } = event;
+  if (request.method !== 'GET') return;
+  const url = new URL(request.url);
+  if (url.origin !== self.location.origin) return;
+  if (isUnder(url.pathname, '/api') || isUnder(url.pathname, '/auth')) return;
+  if (request.mode === 'navigate') event.respondWith(pageFromNetworkFirst(event));
+  else if (isBuildFile(url)) event.respondWith(fromCacheFirst(event));
+  else if (isPublicFile(url)) event.respondWith(keptThenRefreshed(event));
+});
+
+/**
+ * A first visit loads its files before this worker controls the page, so the page names them once
+ * the worker is ready (web/lib/service-worker.ts) and they are kept like any later build file.
+ */
+self.addEventListener('message', (event) => {
+  const message = event.data;
+  if (!message || message.type !== 'keep-build-files' || !Array.isArray(message.urls)) return;
+  const urls = message.urls
+    .filter((href) => typeof href === 'string')
+    .map((href) => new URL(href, self.location.origin))
+    .filter(isBuildFile);
+  event.waitUntil(
+    (async () => {
+      const cache = await caches.open(cacheName);
+      for (const url of urls) {
+        if (await cache.match(url)) continue;
+        try {
+          const response = await fetch(url);
+          if (isKeepable(response)) await cache.put(url, response);
+        } catch {
+          // Gone offline meanwhile: this file is kept the next time it is fetched.
+        }
+      }
+    })(),
+  );
 });
 
 function readPayload(event) {
@@ -31,7 +192,7 @@ self.addEventListener('push', (event) => {
     icon: '/favicon.svg',
     badge: '/favicon.svg',
     // One notification per alert: a later update (escalated, resolved) replaces the earlier one.
-    tag: payload.alertId || undefined,
+    tag: payload.alertId || (typeof payload.tag === 'string' ? payload.tag : undefined),
     // Ring again for news about the same alert, except the quiet news that it is over.
     renotify: Boolean(payload.alertId) && !resolved,
     requireInteraction: critical && !resolved,

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import {
+  check,
   doublePrecision,
   index,
   integer,
@@ -19,6 +20,7 @@ import { companies } from './companies';
 import { parameterKey } from './readings';
 import { tanks } from './tanks';
 import { users } from './users';
+import { visits } from './visits';
 
 export const alertKind = pgEnum('alert_kind', alertKinds);
 export const alertSeverity = pgEnum('alert_severity', alertSeverities);
@@ -150,9 +152,9 @@ export const deliveries = pgTable(
   'deliveries',
   {
     id: id(),
-    alertEventId: uuid('alert_event_id')
-      .notNull()
-      .references(() => alertEvents.id, { onDelete: 'cascade' }),
+    /** What is being told: an alert event, or a published visit report (exactly one). */
+    alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
+    visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
     userId: uuid('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -166,6 +168,8 @@ export const deliveries = pgTable(
   },
   (t) => [
     uniqueIndex('deliveries_once_key').on(t.alertEventId, t.channel, t.destination),
+    uniqueIndex('deliveries_visit_once_key').on(t.visitId, t.channel, t.destination),
+    check('deliveries_one_subject', sql`(${t.alertEventId} is null) <> (${t.visitId} is null)`),
     index('deliveries_status_idx').on(t.status, t.createdAt),
   ],
 );
@@ -180,6 +184,7 @@ export const notifications = pgTable(
       .references(() => users.id, { onDelete: 'cascade' }),
     alertId: uuid('alert_id').references(() => alerts.id, { onDelete: 'cascade' }),
     alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
+    visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
     severity: alertSeverity('severity').notNull(),
     title: text('title').notNull(),
     body: text('body').notNull(),
@@ -190,6 +195,7 @@ export const notifications = pgTable(
   (t) => [
     index('notifications_user_idx').on(t.userId, t.createdAt),
     uniqueIndex('notifications_once_key').on(t.userId, t.alertEventId),
+    uniqueIndex('notifications_visit_once_key').on(t.userId, t.visitId),
   ],
 );
 

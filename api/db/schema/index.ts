@@ -8,3 +8,4 @@ export * from './readings';
 export * from './sessions';
 export * from './tanks';
 export * from './users';
+export * from './visits';

@@ -49,6 +49,8 @@ export const tanks = pgTable(
     setUpOn: date('set_up_on'),
     assignedTechnicianId: uuid('assigned_technician_id').references(() => users.id, { onDelete: 'set null' }),
     serviceIntervalDays: integer('service_interval_days').notNull().default(14),
+    /** When the last published visit report's visit began; set by publishing. */
+    lastVisitAt: timestamp('last_visit_at', { withTimezone: true }),
     notes: text('notes'),
     coverPhotoId: uuid('cover_photo_id').references((): AnyPgColumn => photos.id, { onDelete: 'set null' }),
     /** IANA zone when the tank is not where the company is. */

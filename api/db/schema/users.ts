@@ -22,10 +22,13 @@ export const users = pgTable(
     status: userStatus('status').notNull().default('active'),
     timeZone: text('time_zone'),
     deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
+    /** SHA-256 of the secret in the person's calendar feed address; reset by issuing a new one. */
+    calendarTokenHash: text('calendar_token_hash'),
     ...timestamps,
   },
   (t) => [
     uniqueIndex('users_identity_key').on(t.issuer, t.subject),
+    uniqueIndex('users_calendar_token_key').on(t.calendarTokenHash),
     index('users_company_idx').on(t.companyId, t.role),
   ],
 );

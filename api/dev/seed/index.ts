@@ -19,6 +19,7 @@ import {
   users,
 } from '../../db/schema/index';
 import { seedDemoPhotos } from './photos';
+import { seedDemoVisits } from './visits';
 import { demoEquipment, demoLivestock, demoTanks } from './scenario';
 
 export { demoTanks } from './scenario';
@@ -219,6 +220,8 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   }
   // A year of readings; it needs the tanks, owners and staff above, and skips itself once done.
   await seedDemoReadings(db, now);
+  // The visit reports reuse the readings taken at visits, and take the anemone out before alerts are judged.
+  await seedDemoVisits(db, { companyId: driftglass, people: userId, now });
   if (options.raiseAlerts !== false) await raiseDemoAlerts(db, driftglass, now);
 }
 

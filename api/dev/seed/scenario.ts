@@ -569,6 +569,8 @@ export const demoLivestock: Record<DemoTankKey, DemoLivestock[]> = {
       speciesId: 'yellow-watchman-goby',
       placement: 'Burrow under the centre rock',
       addedDaysAgo: 760,
+      // With the anemone gone from the tank, the reef's livestock keeps five portraits.
+      photo: true,
       history: [added('u-tomas', 760)],
     },
     {

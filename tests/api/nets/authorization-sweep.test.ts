@@ -53,6 +53,11 @@ const expected: Record<string, Row> = {
 
   'GET /api/me': everyoneSignedIn(200),
   'GET /api/me/access': public_(200),
+  'GET /api/me/calendar-feed': everyoneSignedIn(200),
+  'POST /api/me/calendar-feed': everyoneSignedIn(201),
+  'DELETE /api/me/calendar-feed': everyoneSignedIn(204),
+  // The secret in the address is the credential: a token nobody was given is a 404 to anyone.
+  'GET /api/calendar/:token.ics': public_(404),
 
   'GET /api/tanks': everyoneSignedIn(200),
   'POST /api/tanks': staffOnly(201),
@@ -102,6 +107,16 @@ const expected: Record<string, Row> = {
   'GET /api/tanks/:tankId/devices': tankAStaffWrite(200),
   'POST /api/tanks/:tankId/devices': tankAStaffWrite(201),
   'DELETE /api/tanks/:tankId/devices/:deviceId': tankAStaffWrite(200),
+
+  'GET /api/tanks/:tankId/visits': tankARead,
+  // Staff plan and write visits; another company's admin sees an empty schedule of their own.
+  'GET /api/visits': staffOnly(200),
+  'POST /api/visits': tankAStaffWrite(201),
+  'GET /api/visits/:visitId': tankARead,
+  'PATCH /api/visits/:visitId': tankAStaffWrite(200),
+  'PUT /api/visits/:visitId/report': tankAStaffWrite(200),
+  'POST /api/visits/:visitId/publish': tankAStaffWrite(200),
+  'GET /api/visits/:visitId/versions/:version': tankARead,
 
   'GET /api/photos/:photoId': tankARead,
   'GET /api/photos/:photoId/thumbnail': tankARead,

@@ -178,6 +178,7 @@ const routeQueryKeys: Record<string, string[]> = {
   'GET /api/tanks/:tankId/readings/export': ['parameter', 'source', 'from', 'to'],
   'GET /api/audit': ['action', 'actor', 'targetKind', 'from', 'to', 'before', 'limit'],
   'GET /api/audit/export': ['action', 'actor', 'targetKind', 'from', 'to'],
+  'GET /api/visits': ['from', 'to', 'technicianId', 'tankId'],
   'GET /auth/login': ['returnTo'],
   'POST /api/tanks/:tankId/livestock': ['dryRun'],
 };

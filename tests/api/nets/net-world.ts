@@ -2,7 +2,17 @@ import { randomBytes } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Router } from 'express';
 import { defaultNotificationPreferences } from '@shared/schemas/notifications';
-import { alerts, devices, invitations, onCallShifts, photos, users } from '../../../api/db/schema/index';
+import { visitReportContent } from '@shared/schemas/visits';
+import {
+  alerts,
+  devices,
+  invitations,
+  onCallShifts,
+  photos,
+  users,
+  visitReportVersions,
+  visits,
+} from '../../../api/db/schema/index';
 import { hashToken } from '../../../api/lib/tokens';
 import type { PolicyMarked } from '../../../api/policy/index';
 import { authRouter } from '../../../api/routes/auth';
@@ -247,6 +257,46 @@ export async function createNetWorld() {
     userId: async () => (await person(company.id, 'technician', `Target ${unique()}`)).id,
     speciesId: () => Promise.resolve('trochus-snail'),
     token: () => Promise.resolve(randomBytes(24).toString('hex')),
+    /**
+     * A visit of tank A whose report was published, edited and published again (version 2), and
+     * edited once more since (version 3, not yet published).
+     */
+    visitId: async () => {
+      const publishedAt = new Date(Date.now() - 2 * 3_600_000);
+      const report = (notes: string) =>
+        visitReportContent.parse({ arrivedAt: new Date(Date.now() - 3 * 3_600_000).toISOString(), notes });
+      const [row] = await db
+        .insert(visits)
+        .values({
+          companyId: company.id,
+          tankId: tankA.id,
+          technicianId: people.technician.id,
+          kind: 'routine',
+          status: 'published',
+          windowStart: new Date(Date.now() - 3 * 3_600_000),
+          windowEnd: new Date(Date.now() - 2 * 3_600_000),
+          draft: report('Cleaned the glass, the overflow and the sump.'),
+          version: 3,
+          published: report('Cleaned the glass and the overflow.'),
+          publishedVersion: 2,
+          publishedAt,
+          publishedBy: people.technician.id,
+          editedAt: new Date(),
+          announcedAt: publishedAt,
+          createdBy: people.technician.id,
+        })
+        .returning();
+      await db.insert(visitReportVersions).values({
+        visitId: row!.id,
+        version: 1,
+        content: report('Cleaned the glass.'),
+        publishedAt,
+        publishedBy: people.technician.id,
+      });
+      return row!.id;
+    },
+    /** The earlier published version every visit above keeps. */
+    version: () => Promise.resolve('1'),
   } satisfies Record<string, () => Promise<string>>;
   type ParamName = keyof typeof freshObject;
 
@@ -379,6 +429,7 @@ export async function createNetWorld() {
 }
 
 const minutesAgo = (n: number) => new Date(Date.now() - n * 60_000).toISOString();
+const daysAhead = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
 
 export interface ValidRequest {
   body?: unknown;
@@ -460,6 +511,27 @@ export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = 
       endsAt: new Date(Date.now() + 4 * 86_400_000).toISOString(),
     },
   }),
+  'GET /api/visits': () => ({ query: `from=${daysAhead(0)}&to=${daysAhead(7)}` }),
+  'POST /api/visits': (world) => ({
+    body: {
+      tankId: world.tankA.id,
+      kind: 'urgent',
+      date: daysAhead(1),
+      startTime: '09:00',
+      endTime: '10:00',
+    },
+  }),
+  'PATCH /api/visits/:visitId': () => ({ body: { note: 'Bring the spare heater.' } }),
+  'PUT /api/visits/:visitId/report': () => ({
+    body: {
+      version: 3,
+      content: {
+        arrivedAt: minutesAgo(180),
+        notes: 'Cleaned the glass, the overflow, the sump and the pumps.',
+      },
+    },
+  }),
+  'POST /api/visits/:visitId/publish': () => ({ body: { version: 3 } }),
   'POST /api/ingest/readings': () => ({
     body: { readings: [{ parameter: 'temperature', value: 25.3, unit: '°C', measuredAt: minutesAgo(5) }] },
   }),

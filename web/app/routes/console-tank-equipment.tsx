@@ -1,7 +1,7 @@
 import { Link, useParams } from 'react-router';
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
-import { useEquipment } from '../../features/equipment/api/get-equipment';
+import { useEquipment } from '../../lib/queries/equipment';
 import { EquipmentEditor } from '../../features/equipment/components/equipment-editor';
 import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
 import { useTank } from '../../features/tanks/api/get-tank';

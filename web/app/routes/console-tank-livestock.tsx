@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
-import { useLivestock } from '../../features/livestock/api/get-livestock';
+import { useLivestock } from '../../lib/queries/livestock';
 import { AddLivestockForm } from '../../features/livestock/components/add-livestock-form';
 import { LivestockManager } from '../../features/livestock/components/livestock-manager';
 import { NewSpeciesForm } from '../../features/livestock/components/new-species-form';

@@ -3,7 +3,7 @@ import { Link, useSearchParams } from 'react-router';
 import type { TankListQuery } from '@shared/schemas/tanks';
 import { Page } from '../../components/page';
 import { EmptyState, ErrorState, LoadingState } from '../../components/states';
-import { useTechnicians } from '../../features/tanks/api/get-technicians';
+import { useTechnicians } from '../../lib/queries/technicians';
 import { TankFilters } from '../../features/tanks/components/tank-filters';
 import { TankTable } from '../../features/tanks/components/tank-table';
 import { byTrouble } from '../../features/tanks/utils/trouble-order';

@@ -1,6 +1,7 @@
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
 import { useNotificationPreferences } from '../../features/settings/api/get-notification-preferences';
+import { CalendarFeedCard } from '../../features/settings/components/calendar-feed-card';
 import { NotificationPreferencesForm } from '../../features/settings/components/notification-preferences-form';
 import { PushDeviceCard } from '../../features/settings/components/push-device-card';
 
@@ -24,7 +25,10 @@ export function NotificationSettingsRoute() {
         ) : (
           <NotificationPreferencesForm initial={preferences.data} />
         )}
-        <PushDeviceCard />
+        <div className="grid min-w-0 gap-6">
+          <PushDeviceCard />
+          <CalendarFeedCard />
+        </div>
       </div>
     </Page>
   );

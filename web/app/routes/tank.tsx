@@ -1,4 +1,5 @@
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
+import { z } from 'zod';
 import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { Page } from '../../components/page';
 import { SectionNav } from '../../components/section-nav';
@@ -8,9 +9,9 @@ import { can, useMe } from '../../lib/auth';
 import { todayIn } from '../../lib/format';
 import { EquipmentList } from '../../features/equipment/components/equipment-list';
 import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
-import { useEquipment } from '../../features/equipment/api/get-equipment';
+import { useEquipment } from '../../lib/queries/equipment';
 import { useComfortRange } from '../../features/livestock/api/get-comfort-range';
-import { useLivestock } from '../../features/livestock/api/get-livestock';
+import { useLivestock } from '../../lib/queries/livestock';
 import { ComfortRangePanel } from '../../features/livestock/components/comfort-range-panel';
 import { LivestockGallery } from '../../features/livestock/components/livestock-gallery';
 import { KeyReadings } from '../../features/readings/components/key-readings';
@@ -18,6 +19,8 @@ import { TankReadingsSection } from '../../features/readings/components/tank-rea
 import { useTank } from '../../features/tanks/api/get-tank';
 import { TankAtAGlance } from '../../features/tanks/components/tank-at-a-glance';
 import { TankOverview } from '../../features/tanks/components/tank-overview';
+import { NextVisitLine } from '../../features/visits/components/next-visit-card';
+import { TankVisitsSection } from '../../features/visits/components/tank-visits-section';
 
 const actionClass =
   'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
@@ -132,6 +135,7 @@ function EquipmentSection({
 const sections = [
   { key: 'summary', label: 'Summary' },
   { key: 'readings', label: 'Readings and charts' },
+  { key: 'visits', label: 'Visits' },
   { key: 'livestock', label: 'Livestock' },
   { key: 'equipment', label: 'Equipment' },
   { key: 'about', label: 'About the tank' },
@@ -155,6 +159,8 @@ export function TankRoute() {
   const asked = params.get('section');
   const section: SectionKey = isSection(asked) ? asked : 'summary';
   const chosenParameter = parameterKey.safeParse(params.get('parameter'));
+  // A notification links to one visit's report: ?section=visits&visit=<id>.
+  const visitParam = z.uuid().safeParse(params.get('visit'));
   const sectionHref = (key: SectionKey) =>
     key === 'summary' ? `/tanks/${tankId}` : `/tanks/${tankId}?section=${key}`;
 
@@ -187,6 +193,7 @@ export function TankRoute() {
         ) : undefined
       }
     >
+      <NextVisitLine tankId={tankId} href={sectionHref('visits')} />
       <SectionNav
         label="Tank sections"
         current={section}
@@ -218,6 +225,25 @@ export function TankRoute() {
             canEdit={isStaff}
             initialParameter={chosenParameter.success ? chosenParameter.data : undefined}
           />
+        )}
+        {section === 'visits' && (
+          <Section
+            id="visits-title"
+            title="Visits"
+            description="What each visit did, and when the next one is."
+          >
+            <TankVisitsSection
+              tank={{
+                id: tankId,
+                name: tank.data.name,
+                siteLabel: tank.data.siteLabel,
+                companyName: tank.data.company.name,
+              }}
+              isStaff={isStaff}
+              visitId={visitParam.success ? visitParam.data : null}
+              hrefFor={(visitId) => `${sectionHref('visits')}&visit=${visitId}`}
+            />
+          </Section>
         )}
         {section === 'livestock' && (
           <LivestockSection tankId={tankId} timeZone={timeZone} isStaff={isStaff} />

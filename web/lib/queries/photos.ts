@@ -9,10 +9,12 @@ import { tankKeys } from '../query-keys';
  */
 
 export interface PhotoUploadInput {
-  file: File;
+  file: File | Blob;
   caption?: string;
   livestockId?: string;
   cover?: boolean;
+  /** "visit": taken for a visit report, shown to owners once the report is published. */
+  subject?: 'tank' | 'visit';
 }
 
 export function uploadPhoto(tankId: string, input: PhotoUploadInput) {
@@ -20,6 +22,7 @@ export function uploadPhoto(tankId: string, input: PhotoUploadInput) {
   if (input.caption) form.append('caption', input.caption);
   if (input.livestockId) form.append('livestockId', input.livestockId);
   if (input.cover) form.append('cover', 'true');
+  if (input.subject) form.append('subject', input.subject);
   form.append('photo', input.file);
   return api<PhotoItem>(`/tanks/${tankId}/photos`, { method: 'POST', body: form });
 }

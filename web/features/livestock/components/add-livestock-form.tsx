@@ -10,7 +10,7 @@ import { blankAsNull, decimalText } from '../../../lib/form-values';
 import { capitalise } from '../../../lib/format';
 import { useAddLivestock } from '../api/add-livestock';
 import { useLivestockCheck } from '../api/check-livestock';
-import { CompatibilityWarnings } from './compatibility-warnings';
+import { CompatibilityWarnings } from '../../../components/compatibility-warnings';
 import { HandlingCaution, stingCaution } from './handling-caution';
 import { SpeciesPicker } from './species-picker';
 

@@ -5,7 +5,7 @@ import { alertSeverities, type AlertSeverity } from '@shared/alerts/kinds';
 import { notificationPreferences, type NotificationPreferences } from '@shared/schemas/notifications';
 import { SeverityBadge } from '../../../components/alert-badges';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
-import { CheckboxField, SelectField, TextField } from '../../../components/form-fields';
+import { CheckboxField, CheckboxGroupField, SelectField, TextField } from '../../../components/form-fields';
 import { useSaveNotificationPreferences } from '../api/save-notification-preferences';
 
 type Channel = 'push' | 'email' | 'inApp';
@@ -27,8 +27,9 @@ const severityHelp: Record<AlertSeverity, string> = {
  * on brings the last times back; only when they are on are the times checked and sent.
  */
 const { push, email, inApp, timeZone } = notificationPreferences.shape;
+const visitReports = notificationPreferences.shape.visitReports.unwrap();
 const clockTimes = notificationPreferences.shape.quietHours.unwrap().shape;
-const choices = { push, email, inApp, timeZone };
+const choices = { push, email, inApp, timeZone, visitReports };
 const preferencesForm = z
   .discriminatedUnion('holdBack', [
     z.object({
@@ -56,6 +57,7 @@ const formValues = (preferences: NotificationPreferences): PreferencesFormValues
   email: preferences.email,
   inApp: preferences.inApp,
   timeZone: preferences.timeZone,
+  visitReports: preferences.visitReports,
   holdBack: preferences.quietHours !== null,
   quietHours: preferences.quietHours ?? { start: '22:00', end: '07:00' },
 });
@@ -180,6 +182,19 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
           With every channel off for critical alerts, you would only see them on the tank’s page.
         </p>
       )}
+
+      <CheckboxGroupField
+        name="visitReports"
+        label="Visit reports"
+        hint="When the company publishes the report of a visit to your tank."
+        className="mt-6 rounded-lg border border-ink-100 p-3"
+        columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
+        options={[
+          { value: 'push', label: 'Push' },
+          { value: 'email', label: 'E-mail' },
+          { value: 'in-app', label: 'In the app' },
+        ]}
+      />
 
       <fieldset className="mt-6">
         <legend className="text-lg font-bold text-ink-900">Quiet hours</legend>

@@ -1,5 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { pushSubscriptionInput } from '@shared/schemas/notifications';
+import { registerServiceWorker } from '../../../lib/service-worker';
 import { deletePushSubscription } from '../api/delete-push-subscription';
 import { getPushPublicKey } from '../api/get-push-public-key';
 import { savePushSubscription } from '../api/save-push-subscription';
@@ -7,7 +8,6 @@ import {
   currentSubscription,
   pushAvailability,
   PushSetupError,
-  registerServiceWorker,
   subscribeThisDevice,
   type PushAvailability,
 } from '../utils/web-push';

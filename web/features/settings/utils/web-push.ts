@@ -1,6 +1,6 @@
 /*
- * This device's side of web push: the service worker at /sw.js and the browser's push
- * subscription. Nothing here talks to the Brinewatch API.
+ * This device's side of web push: the browser's push subscription, held by the service worker
+ * (registered in web/lib/service-worker.ts). Nothing here talks to the Brinewatch API.
  */
 
 export type PushAvailability = 'available' | 'unsupported' | 'insecure';
@@ -12,8 +12,6 @@ export function pushAvailability(): PushAvailability {
   }
   return 'available';
 }
-
-export const registerServiceWorker = () => navigator.serviceWorker.register('/sw.js', { scope: '/' });
 
 /** A VAPID public key arrives as base64url; the push manager wants its bytes. */
 export function keyBytes(base64url: string): Uint8Array<ArrayBuffer> {

@@ -27,7 +27,7 @@ import {
 } from '../../../components/form-fields';
 import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
 import { useClients } from '../../../lib/queries/people';
-import { useTechnicians } from '../api/get-technicians';
+import { useTechnicians } from '../../../lib/queries/technicians';
 import { VolumeFields } from './volume-fields';
 
 const waterTypeLabels: Record<WaterType, string> = {

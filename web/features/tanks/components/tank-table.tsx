@@ -1,13 +1,39 @@
 import { Link } from 'react-router';
 import { tankStyleLabels } from '@shared/parameters/limit-templates';
 import type { TankSummary } from '@shared/schemas/tanks';
+import { Badge } from '../../../components/badge';
 import { TankStatusBadge } from '../../../components/status-badges';
-import { formatVolume } from '../../../lib/format';
+import { formatDate, formatVolume } from '../../../lib/format';
 import { TankCover } from './tank-cover';
 
 const linkClass = 'inline-flex min-h-11 items-center font-bold text-brine-700';
 /** A 44-px target however short its word (WCAG 2.2 target size). */
 const editClass = `${linkClass} min-w-11 justify-center rounded-lg px-3 hover:bg-ink-50`;
+
+/** Past the tank's service interval since its last visit; a clock face beside the words. */
+function OverdueBadge() {
+  return (
+    <Badge
+      tone="border border-watch-700/30 bg-watch-100 text-watch-700"
+      mark={
+        <svg viewBox="0 0 16 16" className="h-4 w-4" focusable="false">
+          <circle cx="8" cy="8" r="6.5" fill="none" stroke="currentColor" strokeWidth="2" />
+          <path
+            d="M8 4.5V8l2.5 1.5"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="2"
+            strokeLinecap="round"
+          />
+        </svg>
+      }
+    >
+      Overdue for service
+    </Badge>
+  );
+}
+
+const lastVisit = (tank: TankSummary) => (tank.lastVisitAt ? formatDate(tank.lastVisitAt) : 'none yet');
 
 /** The console's list: one row per tank with its clients, as cards on a phone and a table on a desk. */
 export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
@@ -26,6 +52,11 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
                 </Link>
                 <TankStatusBadge status={tank.status} />
               </div>
+              {tank.visitOverdue && (
+                <div className="mt-1">
+                  <OverdueBadge />
+                </div>
+              )}
               {tank.siteLabel && <p className="text-sm text-ink-700">{tank.siteLabel}</p>}
               <dl className="mt-1 text-sm">
                 <div className="flex gap-1">
@@ -37,6 +68,10 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
                 <div className="flex gap-1">
                   <dt className="font-bold text-ink-700">Technician:</dt>
                   <dd className="text-ink-950">{tank.assignedTechnician?.name ?? 'nobody assigned'}</dd>
+                </div>
+                <div className="flex gap-1">
+                  <dt className="font-bold text-ink-700">Last visit:</dt>
+                  <dd className="text-ink-950">{lastVisit(tank)}</dd>
                 </div>
               </dl>
               <Link
@@ -97,10 +132,14 @@ export function TankTable({ tanks }: { tanks: readonly TankSummary[] }) {
                   {tank.siteLabel && <p className="text-ink-700">{tank.siteLabel}</p>}
                 </td>
                 <td className="px-4 py-3 text-sm text-ink-950">
-                  {tank.assignedTechnician?.name ?? 'Nobody assigned'}
+                  <p>{tank.assignedTechnician?.name ?? 'Nobody assigned'}</p>
+                  <p className="text-ink-700">Last visit: {lastVisit(tank)}</p>
                 </td>
                 <td className="whitespace-nowrap px-4 py-3">
-                  <TankStatusBadge status={tank.status} />
+                  <div className="flex flex-col items-start gap-1">
+                    <TankStatusBadge status={tank.status} />
+                    {tank.visitOverdue && <OverdueBadge />}
+                  </div>
                 </td>
                 <td className="px-4 py-3 text-right">
                   <Link

@@ -1,7 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { EquipmentItem } from '@shared/schemas/equipment';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from '../../../lib/query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
+
+/*
+ * A tank's equipment: its own screen, the tank page and the visit report all read it, so it lives
+ * below the features.
+ */
 
 export const getEquipment = (tankId: string, signal?: AbortSignal) =>
   api<EquipmentItem[]>(`/tanks/${tankId}/equipment`, { signal });
@@ -12,4 +17,5 @@ export const equipmentQueryOptions = (tankId: string) =>
     queryFn: ({ signal }) => getEquipment(tankId, signal),
   });
 
-export const useEquipment = (tankId: string) => useQuery(equipmentQueryOptions(tankId));
+export const useEquipment = (tankId: string, enabled = true) =>
+  useQuery({ ...equipmentQueryOptions(tankId), enabled });

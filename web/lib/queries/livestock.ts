@@ -1,7 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { LivestockItem } from '@shared/schemas/livestock';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from '../../../lib/query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
+
+/*
+ * A tank's livestock: its own screen, the tank page and the visit report all read it, so it lives
+ * below the features.
+ */
 
 export const getLivestock = (tankId: string, signal?: AbortSignal) =>
   api<LivestockItem[]>(`/tanks/${tankId}/livestock`, { signal });
@@ -12,4 +17,5 @@ export const livestockQueryOptions = (tankId: string) =>
     queryFn: ({ signal }) => getLivestock(tankId, signal),
   });
 
-export const useLivestock = (tankId: string) => useQuery(livestockQueryOptions(tankId));
+export const useLivestock = (tankId: string, enabled = true) =>
+  useQuery({ ...livestockQueryOptions(tankId), enabled });
