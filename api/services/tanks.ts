@@ -1,4 +1,4 @@
-import { and, asc, eq, exists, ilike, inArray, isNull, ne, or, type SQL } from 'drizzle-orm';
+import { and, asc, eq, exists, gt, ilike, inArray, isNull, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { photoUrls } from '@shared/schemas/photos';
@@ -15,7 +15,7 @@ import type {
 } from '@shared/schemas/tanks';
 import type { z } from 'zod';
 import type { Db } from '../db/client';
-import { companies, photos, tankMembers, tanks, users } from '../db/schema/index';
+import { companies, photos, tankMembers, tanks, users, visits } from '../db/schema/index';
 import { HttpError, type ErrorIssue } from '../lib/http-error';
 import { findTankFor, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
@@ -81,11 +81,47 @@ type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>
 /** Every tank gets a row from `healthForTanks`; this only covers one deleted mid-request. */
 const unknownHealth = { status: 'no-data', statusReason: 'No readings yet' } as const;
 
+type NextVisit = TankSummary['nextVisit'];
+
+/** Each tank's next planned visit (one statement for the whole list). */
+async function nextVisitsOf(db: Db, tankIds: string[], now: Date): Promise<Map<string, NextVisit>> {
+  if (tankIds.length === 0) return new Map();
+  const rows = await db
+    .selectDistinctOn([visits.tankId], {
+      tankId: visits.tankId,
+      windowStart: visits.windowStart,
+      windowEnd: visits.windowEnd,
+      timeZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
+    })
+    .from(visits)
+    .innerJoin(tanks, eq(tanks.id, visits.tankId))
+    .innerJoin(companies, eq(companies.id, tanks.companyId))
+    .where(
+      and(
+        inArray(visits.tankId, tankIds),
+        inArray(visits.status, ['scheduled', 'in-progress']),
+        gt(visits.windowEnd, now),
+      ),
+    )
+    .orderBy(visits.tankId, asc(visits.windowStart));
+  return new Map(
+    rows.map((row) => [
+      row.tankId,
+      {
+        windowStart: row.windowStart.toISOString(),
+        windowEnd: row.windowEnd.toISOString(),
+        timeZone: row.timeZone,
+      },
+    ]),
+  );
+}
+
 function toSummary(
   row: SummaryRow,
   owners: PersonRef[],
   now: Date,
   { status, statusReason }: Pick<TankSummary, 'status' | 'statusReason'> = unknownHealth,
+  nextVisit: NextVisit = null,
 ): TankSummary {
   const { tank } = row;
   return {
@@ -107,6 +143,7 @@ function toSummary(
     statusReason,
     lastVisitAt: tank.lastVisitAt?.toISOString() ?? null,
     visitOverdue: visitOverdue(tank, now),
+    nextVisit,
   };
 }
 
@@ -133,8 +170,20 @@ export async function listTanks(
     .where(and(...conditions))
     .orderBy(asc(tanks.name), asc(tanks.id));
   const ids = rows.map((row) => row.tank.id);
-  const [owners, health] = await Promise.all([ownersOf(db, ids), healthForTanks(db, ids, now)]);
-  return rows.map((row) => toSummary(row, owners.get(row.tank.id) ?? [], now, health.get(row.tank.id)));
+  const [owners, health, next] = await Promise.all([
+    ownersOf(db, ids),
+    healthForTanks(db, ids, now),
+    nextVisitsOf(db, ids, now),
+  ]);
+  return rows.map((row) =>
+    toSummary(
+      row,
+      owners.get(row.tank.id) ?? [],
+      now,
+      health.get(row.tank.id),
+      next.get(row.tank.id) ?? null,
+    ),
+  );
 }
 
 export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: Date): Promise<TankDetail> {
@@ -149,10 +198,14 @@ export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: D
     .leftJoin(technician, eq(technician.id, tanks.assignedTechnicianId))
     .leftJoin(photos, eq(photos.id, tanks.coverPhotoId))
     .where(eq(tanks.id, tankId));
-  const [owners, health] = await Promise.all([ownersOf(db, [tankId]), healthForTanks(db, [tankId], now)]);
+  const [owners, health, next] = await Promise.all([
+    ownersOf(db, [tankId]),
+    healthForTanks(db, [tankId], now),
+    nextVisitsOf(db, [tankId], now),
+  ]);
   const tank = row!.tank;
   return {
-    ...toSummary(row!, owners.get(tankId) ?? [], now, health.get(tankId)),
+    ...toSummary(row!, owners.get(tankId) ?? [], now, health.get(tankId), next.get(tankId) ?? null),
     dimensions:
       tank.lengthCm !== null && tank.widthCm !== null && tank.heightCm !== null
         ? { lengthCm: tank.lengthCm, widthCm: tank.widthCm, heightCm: tank.heightCm }

@@ -146,6 +146,10 @@ export const tankSummary = z.object({
   lastVisitAt: z.iso.datetime().nullable(),
   /** Past its service interval since the last visit (shared/visits/overdue.ts). */
   visitOverdue: z.boolean(),
+  /** The next planned visit, with the tank's zone its window is planned in. */
+  nextVisit: z
+    .object({ windowStart: z.iso.datetime(), windowEnd: z.iso.datetime(), timeZone: z.string() })
+    .nullable(),
 });
 export type TankSummary = z.infer<typeof tankSummary>;
 

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TankDetail, TankSummary } from '@shared/schemas/tanks';
-import { tankMembers, tanks } from '../../api/db/schema/index';
+import { tankMembers, tanks, visits } from '../../api/db/schema/index';
 import { issuePaths, signedIn, type ApiSession } from '../helpers/api-session';
 import { days } from '../helpers/clock';
 import { createCompany, createPerson, createTank, type TestPerson } from '../helpers/factories';
@@ -281,6 +281,44 @@ describe('tanks API', () => {
       } finally {
         stack.clock.reset();
       }
+    });
+    it('names each tank its next planned visit, skipping cancelled and finished ones', async () => {
+      const { db } = stack.database;
+      const company = await createCompany(db, { timeZone: 'Europe/London' });
+      const admin = await createPerson(db, {
+        companyId: company.id,
+        role: 'admin',
+        issuer: stack.idp.issuer,
+      });
+      const planned = await createTank(db, { companyId: company.id, name: 'Planned' });
+      const unplanned = await createTank(db, { companyId: company.id, name: 'Unplanned' });
+      const now = stack.clock.now().getTime();
+      const at = (fromNowDays: number, hours = 1) => ({
+        windowStart: new Date(now + days(fromNowDays)),
+        windowEnd: new Date(now + days(fromNowDays) + hours * 3_600_000),
+      });
+      await db.insert(visits).values([
+        { companyId: company.id, tankId: planned.id, kind: 'routine', ...at(2), status: 'cancelled' },
+        { companyId: company.id, tankId: planned.id, kind: 'routine', ...at(5) },
+        { companyId: company.id, tankId: planned.id, kind: 'aquascaping', ...at(9) },
+        { companyId: company.id, tankId: planned.id, kind: 'routine', ...at(-3), status: 'published' },
+        { companyId: company.id, tankId: unplanned.id, kind: 'routine', ...at(-1), status: 'published' },
+      ]);
+
+      const session = await signedIn(stack, admin);
+      const list = await session.get<TankSummary[]>('/api/tanks');
+      const detail = await session.get<TankDetail>(`/api/tanks/${planned.id}`);
+
+      const expected = {
+        windowStart: at(5).windowStart.toISOString(),
+        windowEnd: at(5).windowEnd.toISOString(),
+        timeZone: 'Europe/London',
+      };
+      expect(list.body.map((tank) => [tank.name, tank.nextVisit])).toEqual([
+        ['Planned', expected],
+        ['Unplanned', null],
+      ]);
+      expect(detail.body.nextVisit).toEqual(expected);
     });
   });
 

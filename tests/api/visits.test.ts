@@ -873,8 +873,7 @@ describe('service visits', () => {
       const { db } = stack.database;
       const issuer = stack.idp.issuer;
       const sleeper = await signedIn(stack, await createPerson(db, { companyId, role: 'owner', issuer }));
-      const clock = (offsetMin: number) =>
-        wallTimeOf(new Date(Date.now() + offsetMin * 60_000), london).time;
+      const clock = (offsetMin: number) => wallTimeOf(new Date(Date.now() + offsetMin * 60_000), london).time;
       // Quiet from an hour ago to an hour from now, on the owner's own clock.
       const saved = await sleeper.put('/api/notifications/preferences', {
         push: ['critical'],

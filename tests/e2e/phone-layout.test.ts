@@ -1,6 +1,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoId } from '../../api/dev/seed/index';
+import { demoVisitId } from '../../api/dev/seed/visits';
 import {
   axeViolations,
   openBrowser,
@@ -17,7 +18,7 @@ import {
 
 const ownersTank = demoId('ashdown-reef');
 const staffTank = demoId('quayside-reef');
-const tankSections = ['summary', 'readings', 'livestock', 'equipment', 'about'] as const;
+const tankSections = ['summary', 'readings', 'visits', 'livestock', 'equipment', 'about'] as const;
 
 /** Uncaught errors in the page, by page: a screen that threw is not a screen that fits. */
 const pageErrors = new WeakMap<Page, string[]>();
@@ -189,6 +190,8 @@ describe('every screen at 390 px', () => {
       '/console/alerts',
       '/console/audit',
       '/console/staff',
+      '/console/schedule',
+      `/visits/${demoVisitId('quayside-reef', 'chiller')}`,
       '/settings/notifications',
     ]) {
       await checkPhone(page, path);

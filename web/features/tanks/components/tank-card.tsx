@@ -2,7 +2,7 @@ import { Link } from 'react-router';
 import type { TankStatus } from '@shared/parameters/health';
 import type { TankSummary } from '@shared/schemas/tanks';
 import { TankStatusBadge } from '../../../components/status-badges';
-import { formatDateTime, relativeTime, useNow } from '../../../lib/format';
+import { formatDateTime, formatVisitWindow, relativeTime, useNow } from '../../../lib/format';
 import { useLatestReadings } from '../../../lib/queries/latest-readings';
 import { lastReadingAt, statusReason } from '../utils/status-reason';
 import { TankCover } from './tank-cover';
@@ -63,6 +63,18 @@ export function TankCard({ tank }: { tank: TankSummary }) {
           <LastReading tank={tank} now={now} />
           {tank.siteLabel && <> · {tank.siteLabel}</>}
         </p>
+        {tank.nextVisit && (
+          <p className="text-sm text-ink-900">
+            <span className="font-bold">Next visit:</span>{' '}
+            <time dateTime={tank.nextVisit.windowStart}>
+              {formatVisitWindow(
+                tank.nextVisit.windowStart,
+                tank.nextVisit.windowEnd,
+                tank.nextVisit.timeZone,
+              )}
+            </time>
+          </p>
+        )}
       </div>
     </article>
   );

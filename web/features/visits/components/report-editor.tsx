@@ -94,7 +94,7 @@ function ReportForm({
     <Form
       form={form}
       aria-label="Visit report"
-      className="grid gap-4"
+      className="grid grid-cols-[minmax(0,1fr)] gap-4"
       fieldFor={reportFieldFor}
       onSubmit={async () => {
         setPublished(null);

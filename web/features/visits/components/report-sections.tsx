@@ -49,12 +49,12 @@ export function ReportSection({
 }) {
   const id = useId();
   return (
-    <section aria-labelledby={id} className="rounded-card bg-white p-4 shadow-card sm:p-6">
+    <section aria-labelledby={id} className="min-w-0 rounded-card bg-white p-4 shadow-card sm:p-6">
       <h2 id={id} className="text-lg font-bold text-ink-900">
         {title}
       </h2>
       {hint && <p className="mt-1 text-sm text-ink-700">{hint}</p>}
-      <div className="mt-3 grid gap-4">{children}</div>
+      <div className="mt-3 grid grid-cols-[minmax(0,1fr)] gap-4">{children}</div>
     </section>
   );
 }
