@@ -4,8 +4,10 @@ import type { Logger } from './logger';
 /** Every queue the app uses, created at start (pg-boss refuses to send to a missing queue). */
 export const queues = {
   fanOut: 'alert-fan-out',
-  /** Company news to a tank's people: a published visit report. */
+  /** Company news to a tank's people: a published visit report or a care tip. */
   newsFanOut: 'news-fan-out',
+  /** A care tip sent at its set time. */
+  tipSend: 'tip-send',
   email: 'deliver-email',
   push: 'deliver-push',
   dead: 'deliveries-dead',
@@ -52,6 +54,13 @@ export async function startJobQueue(databaseUrl: string, logger: Logger): Promis
     heartbeatSeconds,
   });
   await ensureQueue(boss, queues.newsFanOut, {
+    retryLimit: 10,
+    retryDelay: 1,
+    retryBackoff: true,
+    heartbeatSeconds,
+  });
+  // The claim on the tip makes a second run a no-op; the minute sweep sends any job lost on the way.
+  await ensureQueue(boss, queues.tipSend, {
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,

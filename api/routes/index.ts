@@ -1,6 +1,7 @@
 import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
 import { auditRouter } from './audit';
+import { careTipsRouter, tankTipSuggestionsRouter } from './care-tips';
 import { calendarFeedRouter, calendarRouter } from './calendar';
 import { devicesRouter } from './devices';
 import { healthRouter } from './health';
@@ -16,6 +17,7 @@ import { readingsRouter } from './readings';
 import { speciesRouter } from './species';
 import { clientsRouter, staffRouter, usersRouter } from './staff';
 import { tanksRouter } from './tanks';
+import { timelineRouter } from './timeline';
 import { tankVisitsRouter, visitsRouter } from './visits';
 
 /**
@@ -41,7 +43,10 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/tanks/:tankId/limits', limitsRouter],
   ['/tanks/:tankId/devices', devicesRouter],
   ['/tanks/:tankId/visits', tankVisitsRouter],
+  ['/tanks/:tankId/tip-suggestions', tankTipSuggestionsRouter],
+  ['/tanks/:tankId/timeline', timelineRouter],
   ['/visits', visitsRouter],
+  ['/care-tips', careTipsRouter],
   ['/photos', photosRouter],
   ['/species', speciesRouter],
   ['/staff', staffRouter],

@@ -1,21 +1,26 @@
-import { and, eq, gt, inArray, isNull, lte, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, isNull, lte, ne, sql } from 'drizzle-orm';
 import { firstSteps } from '@shared/alerts/first-steps';
 import { inQuietHours, localClockTime } from '@shared/alerts/quiet-hours';
 import type { AlertSeverity } from '@shared/alerts/kinds';
 import {
   defaultNotificationPreferences,
   notificationPreferences as preferencesSchema,
+  type NotificationChannel,
   type NotificationPreferences,
 } from '@shared/schemas/notifications';
 import type { LimitDirection } from '@shared/parameters/limits';
 import { isKnownTimeZone } from '@shared/time/time-zones';
 import { visitReportContent } from '@shared/schemas/visits';
 import { formatDate } from '@shared/text/dates';
+import { markdownToPlainText, renderMarkdown } from '@shared/text/markdown';
 import { reportSummary } from '@shared/schemas/visit-summary';
 import type { AppDeps } from '../deps';
 import {
   alertEvents,
   alerts,
+  careTipReaders,
+  careTips,
+  careTipTanks,
   companies,
   deliveries,
   notificationPreferences,
@@ -394,10 +399,10 @@ export async function pendingFanOuts(deps: AppDeps, olderThanMs: number) {
 }
 
 /*
- * News from the company (a published visit report) travels the same path as alerts: an in-app
- * notification, and a delivery record plus a queued job per e-mail and push destination, keyed so
- * that planning twice sends nothing twice. Who hears it and on which channels is the person's
- * "visit reports" preference; quiet hours hold back e-mail and push as they do for alerts.
+ * News from the company (a published visit report, a care tip) travels the same path as alerts: an
+ * in-app notification, and a delivery record plus a queued job per e-mail and push destination,
+ * keyed so that planning twice sends nothing twice. Who hears it and on which channels is the
+ * person's "visit reports" or "care tips" preference; in quiet hours the e-mail goes and the push waits.
  */
 
 /** The tank's owners (the people a report is written for), active ones only. */
@@ -417,6 +422,8 @@ async function ownersOf(deps: AppDeps, tankId: string) {
     .where(and(eq(tankMembers.tankId, tankId), eq(users.status, 'active')));
 }
 
+type NewsReader = Awaited<ReturnType<typeof ownersOf>>[number];
+
 /** Seconds from `now` until the person's quiet hours end, on their own clock. */
 function secondsUntilQuietEnd(preferences: NotificationPreferences, now: Date): number {
   const minutes = (clock: string) => Number(clock.slice(0, 2)) * 60 + Number(clock.slice(3, 5));
@@ -425,7 +432,28 @@ function secondsUntilQuietEnd(preferences: NotificationPreferences, now: Date): 
   return ((end - local + 1440) % 1440 || 1440) * 60;
 }
 
-async function loadVisitNews(deps: AppDeps, visitId: string) {
+/** One piece of news as each channel tells it. */
+interface News {
+  /** The row it is about, as notifications and deliveries name it. */
+  subject: { visitId: string } | { tipId: string };
+  /** Names it in push tags and topics ("visit-…", "tip-…"). */
+  tag: string;
+  tankId: string;
+  title: string;
+  /** What the notification and the push say. */
+  body: string;
+  link: string;
+  /** The e-mail opens with this in place of the body, where the Markdown under it says the rest. */
+  mailLead?: string;
+  /** Markdown the e-mail carries whole (a report's notes, a tip), under its heading if it has one. */
+  notes: string;
+  notesHeading: string | null;
+  /** What the e-mail's link offers ("Read the report"). */
+  readLabel: string;
+  mailHeader: readonly [name: string, value: string];
+}
+
+async function loadVisitNews(deps: AppDeps, visitId: string): Promise<News | null> {
   const [row] = await deps.db
     .select({
       visit: visits,
@@ -444,64 +472,85 @@ async function loadVisitNews(deps: AppDeps, visitId: string) {
   const when = formatDate(new Date(report.arrivedAt ?? row.visit.windowStart), row.tankZone);
   const summary = reportSummary(report);
   return {
-    visit: row.visit,
+    subject: { visitId: row.visit.id },
+    tag: `visit-${row.visit.id}`,
+    tankId: row.visit.tankId,
     title: `Visit report: ${row.tankName}`,
     body: `${row.technicianName ?? 'Your technician'} visited on ${when}. ${summary}`.trim(),
     link: `/tanks/${row.visit.tankId}?section=visits&visit=${row.visit.id}`,
+    notes: report.notes.trim(),
+    notesHeading: 'Notes',
+    readLabel: 'Read the report',
+    mailHeader: ['X-Brinewatch-Visit', row.visit.id],
   };
+}
+
+/**
+ * Tells one person a piece of news on the channels they chose for its kind. Every row is keyed
+ * (notification per person and subject, delivery per subject, channel and destination), so telling
+ * them again sends nothing twice.
+ */
+async function tellPerson(
+  deps: AppDeps,
+  person: NewsReader,
+  channels: readonly NotificationChannel[],
+  news: News,
+  now: Date,
+) {
+  const { preferences } = readPreferences(person.preferences, person.timeZone);
+  if (channels.includes('in-app')) {
+    await deps.db
+      .insert(notifications)
+      .values({
+        userId: person.id,
+        ...news.subject,
+        severity: 'notice',
+        title: news.title,
+        body: news.body,
+        link: news.link,
+      })
+      .onConflictDoNothing();
+  }
+  // News is never urgent: in quiet hours the e-mail still goes (it rings nothing), and the push
+  // waits until the quiet hours end.
+  const holdPushS = inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
+  const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
+  if (channels.includes('email')) planned.push({ channel: 'email', destination: person.email });
+  if (channels.includes('push')) {
+    const subscriptions = await deps.db
+      .select({ id: pushSubscriptions.id })
+      .from(pushSubscriptions)
+      .where(eq(pushSubscriptions.userId, person.id));
+    for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
+  }
+  for (const delivery of planned) {
+    const [created] = await deps.db
+      .insert(deliveries)
+      .values({ ...news.subject, userId: person.id, ...delivery })
+      .onConflictDoNothing()
+      .returning({ id: deliveries.id });
+    if (created && deps.jobs) {
+      if (delivery.channel === 'push' && holdPushS > 0) {
+        await deps.jobs.sendAfter(queues.push, { deliveryId: created.id }, null, holdPushS);
+      } else {
+        await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
+          deliveryId: created.id,
+        });
+      }
+    }
+  }
 }
 
 export async function fanOutVisitReport(deps: AppDeps, visitId: string) {
   const news = await loadVisitNews(deps, visitId);
   if (!news) return;
   const now = deps.clock();
-  const audience = await ownersOf(deps, news.visit.tankId);
+  const audience = await ownersOf(deps, news.tankId);
   let failed = 0;
   for (const person of audience) {
     try {
       const { preferences } = readPreferences(person.preferences, person.timeZone);
-      const channels = preferences.visitReports;
-      if (channels.includes('in-app')) {
-        await deps.db
-          .insert(notifications)
-          .values({
-            userId: person.id,
-            visitId: news.visit.id,
-            severity: 'notice',
-            title: news.title,
-            body: news.body,
-            link: news.link,
-          })
-          .onConflictDoNothing();
-      }
-      // News is never urgent: in quiet hours the e-mail still goes (it rings nothing), and the push
-      // waits until the quiet hours end.
-      const holdPushS = inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
-      const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
-      if (channels.includes('email')) planned.push({ channel: 'email', destination: person.email });
-      if (channels.includes('push')) {
-        const subscriptions = await deps.db
-          .select({ id: pushSubscriptions.id })
-          .from(pushSubscriptions)
-          .where(eq(pushSubscriptions.userId, person.id));
-        for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
-      }
-      for (const delivery of planned) {
-        const [created] = await deps.db
-          .insert(deliveries)
-          .values({ visitId: news.visit.id, userId: person.id, ...delivery })
-          .onConflictDoNothing()
-          .returning({ id: deliveries.id });
-        if (created && deps.jobs) {
-          if (delivery.channel === 'push' && holdPushS > 0) {
-            await deps.jobs.sendAfter(queues.push, { deliveryId: created.id }, null, holdPushS);
-          } else {
-            await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
-              deliveryId: created.id,
-            });
-          }
-        }
-      }
+      await tellPerson(deps, person, preferences.visitReports, news, now);
     } catch (error) {
       failed += 1;
       deps.logger.error(
@@ -514,19 +563,122 @@ export async function fanOutVisitReport(deps: AppDeps, visitId: string) {
   await publishEvent(deps.pool, {
     type: 'notification',
     userIds: audience.map((p) => p.id),
-    tankId: news.visit.tankId,
+    tankId: news.tankId,
   });
   if (failed > 0)
     throw new Error(`visit report fan-out failed for ${failed} of ${audience.length} recipients`);
+}
+
+/** Short enough for a notification list and a push payload (RFC 8291 leaves about 3,900 bytes). */
+const newsBodyLength = 280;
+
+function firstWords(text: string, max: number): string {
+  const flat = text.replace(/\s+/g, ' ').trim();
+  if (flat.length <= max) return flat;
+  const cut = flat.slice(0, max - 1);
+  const lastSpace = cut.lastIndexOf(' ');
+  return `${(lastSpace > max / 2 ? cut.slice(0, lastSpace) : cut).replace(/[\s,;:.–-]+$/, '')}…`;
+}
+
+/**
+ * A delivered tip as one reader hears of it (sent, or one-tapped to their tank before its set time):
+ * the link opens the first of their tanks it reached. A withdrawn tip is no news any more, so its
+ * pending e-mails and pushes are not sent.
+ */
+async function loadTipNews(deps: AppDeps, tipId: string, userId: string): Promise<News | null> {
+  const [tip] = await deps.db
+    .select({ tip: careTips, companyName: companies.name })
+    .from(careTips)
+    .innerJoin(companies, eq(companies.id, careTips.companyId))
+    .where(eq(careTips.id, tipId));
+  if (!tip || tip.tip.status === 'withdrawn' || tip.tip.status === 'draft') return null;
+  const [tank] = await deps.db
+    .select({ id: tanks.id, name: tanks.name })
+    .from(careTipTanks)
+    .innerJoin(tanks, eq(tanks.id, careTipTanks.tankId))
+    .where(
+      and(
+        eq(careTipTanks.tipId, tipId),
+        sql`exists (select 1 from ${careTipReaders} r where r.tip_id = ${careTipTanks.tipId}
+          and r.tank_id = ${careTipTanks.tankId} and r.user_id = ${userId})`,
+      ),
+    )
+    .orderBy(asc(careTipTanks.deliveredAt), asc(tanks.name), asc(tanks.id))
+    .limit(1);
+  if (!tank) return null;
+  return {
+    subject: { tipId },
+    tag: `tip-${tipId}`,
+    tankId: tank.id,
+    title: `Care tip: ${tip.tip.title}`,
+    body: firstWords(markdownToPlainText(tip.tip.body), newsBodyLength),
+    link: `/tanks/${tank.id}?section=timeline&tip=${tipId}`,
+    mailLead: `${tip.companyName} sent this care tip for ${tank.name}.`,
+    notes: tip.tip.body,
+    notesHeading: null,
+    readLabel: 'Read the tip',
+    mailHeader: ['X-Brinewatch-Tip', tipId],
+  };
+}
+
+/**
+ * Tells everyone a tip reached, once per person however many of their tanks it reached (the
+ * notification's once-key is person and tip), by their "care tips" preference. Run again after a
+ * later delivery, it tells only the people new to it.
+ */
+export async function fanOutCareTip(deps: AppDeps, tipId: string) {
+  const now = deps.clock();
+  const readers = await deps.db
+    .selectDistinct({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      timeZone: sql<string>`coalesce(${users.timeZone}, ${companies.timeZone})`,
+      preferences: notificationPreferences.preferences,
+    })
+    .from(careTipReaders)
+    .innerJoin(careTips, eq(careTips.id, careTipReaders.tipId))
+    .innerJoin(users, eq(users.id, careTipReaders.userId))
+    .innerJoin(companies, eq(companies.id, users.companyId))
+    .leftJoin(notificationPreferences, eq(notificationPreferences.userId, users.id))
+    .where(
+      and(eq(careTipReaders.tipId, tipId), ne(careTips.status, 'withdrawn'), eq(users.status, 'active')),
+    );
+  let failed = 0;
+  for (const person of readers) {
+    try {
+      const news = await loadTipNews(deps, tipId, person.id);
+      if (!news) continue;
+      const { preferences } = readPreferences(person.preferences, person.timeZone);
+      await tellPerson(deps, person, preferences.careTips, news, now);
+    } catch (error) {
+      failed += 1;
+      deps.logger.error(
+        { err: error, userId: person.id, tipId },
+        'care tip fan-out failed for one recipient',
+      );
+    }
+  }
+  if (readers.length > 0) {
+    await publishEvent(deps.pool, { type: 'notification', userIds: readers.map((p) => p.id) });
+  }
+  if (failed > 0) throw new Error(`care tip fan-out failed for ${failed} of ${readers.length} recipients`);
 }
 
 async function loadNewsDelivery(deps: AppDeps, deliveryId: string) {
   const [delivery] = await deps.db
     .select()
     .from(deliveries)
-    .where(and(eq(deliveries.id, deliveryId), sql`${deliveries.visitId} is not null`));
+    .where(
+      and(
+        eq(deliveries.id, deliveryId),
+        sql`(${deliveries.visitId} is not null or ${deliveries.tipId} is not null)`,
+      ),
+    );
   if (!delivery || delivery.status !== 'pending') return null;
-  const news = await loadVisitNews(deps, delivery.visitId!);
+  const news = delivery.visitId
+    ? await loadVisitNews(deps, delivery.visitId)
+    : await loadTipNews(deps, delivery.tipId!, delivery.userId);
   return news ? { delivery, news } : null;
 }
 
@@ -536,6 +688,10 @@ async function deliverNewsEmail(deps: AppDeps, { delivery, news }: NewsDelivery)
   const origin = appOrigin(deps.env);
   const link = `${origin}${news.link}`;
   const preferencesLink = `${origin}/settings/notifications`;
+  // A mail client has no session for our photos, and no page to resolve a relative link against.
+  const forMail = { origin };
+  const lead = news.mailLead ?? news.body;
+  const heading = news.notesHeading;
   try {
     await deps.mailer.send({
       to: delivery.destination,
@@ -543,23 +699,33 @@ async function deliverNewsEmail(deps: AppDeps, { delivery, news }: NewsDelivery)
       text: [
         news.title,
         '',
-        news.body,
+        lead,
         '',
-        `Read the report: ${link}`,
+        ...(news.notes
+          ? [...(heading ? [`${heading}:`, ''] : []), markdownToPlainText(news.notes, forMail), '']
+          : []),
+        `${news.readLabel}: ${link}`,
         '',
         `Change what you hear about: ${preferencesLink}`,
       ].join('\n'),
       html: `<h1 style="font-size:18px">${escapeHtml(news.title)}</h1>
-<p>${escapeHtml(news.body)}</p>
-<p><a href="${escapeHtml(link)}">Read the report in Brinewatch</a></p>
+<p>${escapeHtml(lead)}</p>
+${news.notes ? `${heading ? `<h2 style="font-size:16px">${escapeHtml(heading)}</h2>\n` : ''}${renderMarkdown(news.notes, forMail)}` : ''}
+<p><a href="${escapeHtml(link)}">${escapeHtml(news.readLabel)} in Brinewatch</a></p>
 <p style="font-size:12px;color:#555"><a href="${escapeHtml(preferencesLink)}">Change what you hear about</a></p>`,
-      headers: { 'List-Unsubscribe': `<${preferencesLink}>`, 'X-Brinewatch-Visit': news.visit.id },
+      headers: { 'List-Unsubscribe': `<${preferencesLink}>`, [news.mailHeader[0]]: news.mailHeader[1] },
     });
   } catch (error) {
     await markAttempt(deps, delivery.id, error instanceof Error ? error.message : String(error));
     throw error;
   }
   await markSent(deps, delivery.id);
+}
+
+/** "visit-<id>" as a push topic: RFC 8030 §5.4 allows at most 32 URL-safe characters. */
+function topicOf(tag: string): string {
+  const [kind, ...id] = tag.split('-');
+  return `${kind}-${id.join('')}`.slice(0, 32);
 }
 
 async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) {
@@ -569,17 +735,13 @@ async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) 
   const outcome = await deps.push.send(
     { endpoint: subscription.endpoint, keys: { p256dh: subscription.p256dh, auth: subscription.auth } },
     {
-      tag: `visit-${news.visit.id}`,
-      tankId: news.visit.tankId,
+      tag: news.tag,
+      tankId: news.tankId,
       title: news.title,
       body: news.body,
       url: news.link,
     },
-    {
-      ttlSeconds: 3 * 24 * 3600,
-      urgency: 'normal',
-      topic: `visit-${news.visit.id.replaceAll('-', '').slice(0, 26)}`,
-    },
+    { ttlSeconds: 3 * 24 * 3600, urgency: 'normal', topic: topicOf(news.tag) },
   );
   await settlePush(deps, delivery.id, subscription.id, outcome);
 }

@@ -2,7 +2,7 @@ import { and, asc, eq, exists, ne, or, sql, type SQL } from 'drizzle-orm';
 import { photoUrls, type PhotoItem } from '@shared/schemas/photos';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
-import { livestock, photos, tanks, visitPhotos } from '../db/schema/index';
+import { careTips, careTipTanks, livestock, photos, tanks, visitPhotos } from '../db/schema/index';
 import { processUpload } from '../lib/images';
 import { newPhotoKey, type ObjectStorage, type StoredObject } from '../lib/object-storage';
 import type { Logger } from '../lib/logger';
@@ -124,13 +124,29 @@ export async function listTankPhotos(db: Db, actor: Actor, tankId: string): Prom
   return rows.map(photoItemOf);
 }
 
+/**
+ * A care tip's photo is also shown to whoever the tip reached (a tank they see received it, and it
+ * was not withdrawn), though it was taken at another tank.
+ */
+function onTipReaching(db: Db, actor: Actor): SQL {
+  const reached = db
+    .select({ one: sql`1` })
+    .from(careTips)
+    .innerJoin(careTipTanks, eq(careTipTanks.tipId, careTips.id))
+    .innerJoin(tanks, eq(tanks.id, careTipTanks.tankId))
+    .where(and(eq(careTips.photoId, photos.id), ne(careTips.status, 'withdrawn'), visibleTanks(db, actor)));
+  return exists(reached);
+}
+
 /** A photo under exactly its tank's access rule: anyone who cannot see the tank gets a 404. */
 async function findVisiblePhoto(db: Db, actor: Actor, photoId: string): Promise<PhotoRow> {
   const [row] = await db
     .select({ photo: photos })
     .from(photos)
     .innerJoin(tanks, eq(tanks.id, photos.tankId))
-    .where(and(eq(photos.id, photoId), visibleTanks(db, actor), shownTo(actor)));
+    .where(
+      and(eq(photos.id, photoId), or(and(visibleTanks(db, actor), shownTo(actor)), onTipReaching(db, actor))),
+    );
   if (!row) throw notFound('photo');
   return row.photo;
 }

@@ -4,7 +4,15 @@ import type { AppDeps } from '../deps';
 import { deliveries } from '../db/schema/index';
 import { queues } from '../lib/job-queue';
 import { afterAlertEvents } from './alerts';
-import { deliverEmail, deliverPush, fanOutAlertEvent, fanOutVisitReport, pendingFanOuts } from './notify';
+import { deliverTip, sendDueTips } from './care-tips';
+import {
+  deliverEmail,
+  deliverPush,
+  fanOutAlertEvent,
+  fanOutCareTip,
+  fanOutVisitReport,
+  pendingFanOuts,
+} from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
 
@@ -20,8 +28,15 @@ export async function startWorkers(deps: AppDeps) {
   await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
     for (const job of jobs) await fanOutAlertEvent(deps, job.data.eventId);
   });
-  await boss.work<{ visitId: string }>(queues.newsFanOut, async (jobs) => {
-    for (const job of jobs) await fanOutVisitReport(deps, job.data.visitId);
+  await boss.work<{ visitId: string } | { tipId: string }>(queues.newsFanOut, async (jobs) => {
+    for (const job of jobs) {
+      if ('tipId' in job.data) await fanOutCareTip(deps, job.data.tipId);
+      else await fanOutVisitReport(deps, job.data.visitId);
+    }
+  });
+  // A tip at its set time; the claim in deliverTip makes a second run (or the sweep's) a no-op.
+  await boss.work<{ tipId: string }>(queues.tipSend, async (jobs) => {
+    for (const job of jobs) await deliverTip(deps, job.data.tipId, undefined, { dueOnly: true });
   });
   await boss.work<DeliveryJob>(
     queues.email,
@@ -56,6 +71,7 @@ export async function startWorkers(deps: AppDeps) {
       await afterAlertEvents(deps, opened);
       for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
       for (const visitId of await unannouncedVisits(deps, 60_000)) await fanOutVisitReport(deps, visitId);
+      await sendDueTips(deps);
     }
   });
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });

@@ -23,6 +23,24 @@ export const livestockGroups = [
 export const livestockGroup = z.enum(livestockGroups);
 export type LivestockGroup = z.infer<typeof livestockGroup>;
 
+export const livestockGroupLabels: Readonly<Record<LivestockGroup, string>> = {
+  fish: 'Fish',
+  'sps-coral': 'Small-polyp stony coral',
+  'lps-coral': 'Large-polyp stony coral',
+  'soft-coral': 'Soft coral',
+  zoanthid: 'Zoanthid',
+  mushroom: 'Mushroom coral',
+  anemone: 'Anemone',
+  clam: 'Clam',
+  shrimp: 'Shrimp',
+  snail: 'Snail',
+  crab: 'Crab',
+  urchin: 'Urchin',
+  starfish: 'Starfish',
+  plant: 'Plant',
+  'other-invertebrate': 'Other invertebrate',
+};
+
 /** Groups that live fixed in place (or nearly so) and can be stung by a neighbour. */
 export const sessileGroups: readonly LivestockGroup[] = [
   'sps-coral',

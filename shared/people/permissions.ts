@@ -48,6 +48,9 @@ export const permissions = {
   'visits:assign': admins,
   // Everyone can subscribe to their own schedule as a calendar feed.
   'calendar:own': everyone,
+  // Owners read the tips their tanks received and mark them helpful; staff write and send them.
+  'care-tips:read': everyone,
+  'care-tips:write': staff,
 } satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

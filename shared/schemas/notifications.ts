@@ -24,6 +24,8 @@ export const notificationPreferences = z.object({
     'email',
     'push',
   ]),
+  /** Where care tips the company sends for a person's tanks reach them. */
+  careTips: distinctList(notificationChannel, 2 * notificationChannels.length).default(['in-app', 'email']),
 });
 export type NotificationPreferences = z.infer<typeof notificationPreferences>;
 
@@ -34,6 +36,7 @@ export const defaultNotificationPreferences: NotificationPreferences = {
   quietHours: { start: '22:00', end: '07:00' },
   timeZone: 'UTC',
   visitReports: ['in-app', 'email', 'push'],
+  careTips: ['in-app', 'email'],
 };
 
 export const pushSubscriptionInput = z.object({

@@ -29,7 +29,4 @@ export const photoItem = z.object({
 });
 export type PhotoItem = z.infer<typeof photoItem>;
 
-export const photoUrls = (id: string) => ({
-  url: `/api/photos/${id}`,
-  thumbnailUrl: `/api/photos/${id}/thumbnail`,
-});
+export { photoUrls } from '@shared/photos/urls';

@@ -1,18 +1,22 @@
-import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNotNull, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findSpecies } from '@shared/livestock/catalogue';
 import { checkCompatibility } from '@shared/livestock/compatibility';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { addDays, equipmentInput } from '@shared/schemas/equipment';
+import { careTipInput } from '@shared/schemas/care-tips';
 import { visitReportContent } from '@shared/schemas/visits';
 import { routineRule, wallTimeOf } from '@shared/visits/recurrence';
 import { demoId, demoLivestockId, seedDemo } from '../../api/dev/seed/index';
 import { demoEquipment, demoLivestock, demoTanks } from '../../api/dev/seed/scenario';
 import { demoVisitId, demoVisitSeriesId } from '../../api/dev/seed/visits';
 import {
+  careTips,
+  deliveries,
   livestock,
   livestockStatusEvents,
+  notifications,
   tanks,
   users,
   visitItems,
@@ -50,7 +54,12 @@ describe('demo seed', () => {
                  (select count(*)::int from visit_series) as series,
                  (select count(*)::int from visit_items) as items,
                  (select count(*)::int from visit_report_versions) as versions,
-                 (select count(*)::int from visit_photos) as "visitPhotos"`,
+                 (select count(*)::int from visit_photos) as "visitPhotos",
+                 (select count(*)::int from care_tips) as tips,
+                 (select count(*)::int from care_tips where status = 'scheduled') as "scheduledTips",
+                 (select count(*)::int from care_tip_tanks) as "tipTanks",
+                 (select count(*)::int from care_tip_readers) as "tipReaders",
+                 (select count(*)::int from care_tip_helpful) as "helpfulMarks"`,
     );
     return result.rows[0];
   };
@@ -80,6 +89,12 @@ describe('demo seed', () => {
       versions: 1,
       // Each tank's latest report shows its cover photo; the anemone's report its portrait too.
       visitPhotos: 6,
+      // Five tips sent over past months (to 3, 1, 5, 5 and 1 tanks, each with one owner) and one to come.
+      tips: 6,
+      scheduledTips: 1,
+      tipTanks: 15,
+      tipReaders: 15,
+      helpfulMarks: 4,
     });
     expect(await counts()).toEqual(first);
     // The photos were drawn once; the second run found them in storage.
@@ -123,6 +138,23 @@ describe('demo seed', () => {
       { waterType: 'marine' },
     );
     expect(warnings.map((warning) => warning.kind)).toContain('stings-neighbours');
+  });
+
+  it('writes care tips staff could have written, with the electrical cautions, and sends none at seed time', async () => {
+    const rows = await database.db.select().from(careTips).orderBy(asc(careTips.createdAt));
+    for (const row of rows)
+      expect([row.title, careTipInput.safeParse(row).success]).toEqual([row.title, true]);
+    const electrical = rows.filter((row) => /wall|socket/i.test(row.title));
+    expect(electrical).toHaveLength(2);
+    for (const row of electrical) {
+      expect(row.body).toContain('::: caution');
+      expect(row.body).toContain('licensed electrician');
+    }
+    const scheduled = rows.filter((row) => row.status === 'scheduled');
+    expect(scheduled.map((row) => row.sendAt!.getTime() > Date.now())).toEqual([true]);
+    // Past tips were told when they went out; nothing is planned for them now.
+    expect(await database.db.select().from(notifications).where(isNotNull(notifications.tipId))).toEqual([]);
+    expect(await database.db.select().from(deliveries).where(isNotNull(deliveries.tipId))).toEqual([]);
   });
   describe('service visits', () => {
     const dayMs = 86_400_000;

@@ -869,6 +869,66 @@ describe('service visits', () => {
       expect(stack.mail.messages().filter((m) => m.to.includes(appOnly.person.email))).toEqual([]);
     });
 
+    it("puts the report's notes in the e-mail: rendered HTML and plain text, links absolute, no images", async () => {
+      const { db } = stack.database;
+      const owner = await signedIn(
+        stack,
+        await createPerson(db, { companyId, role: 'owner', issuer: stack.idp.issuer }),
+      );
+      expect(
+        (
+          await owner.put('/api/notifications/preferences', {
+            push: ['critical'],
+            email: ['critical'],
+            inApp: ['notice', 'warning', 'critical'],
+            quietHours: null,
+            timeZone: london,
+            visitReports: ['email'],
+          })
+        ).status,
+      ).toBe(200);
+      const tank = await newReef('Annotated reef', { owners: [owner.person] });
+      const visit = await scheduled(tank);
+      const photo = '0b9f6a1e-6c3a-4c35-9a59-2f7d0f3b1a11';
+      const notes = [
+        'Trimmed the **green star polyps**.',
+        '',
+        '::: caution',
+        'Unplug the heater before you reach in.',
+        ':::',
+        '',
+        `See [the readings](/tanks/${tank.id}?section=readings) and ![After the visit](/api/photos/${photo}).`,
+        '<script>alert(1)</script>',
+      ].join('\n');
+
+      await savedAndPublished(visit.id, report({ notes }));
+      const [planned] = await db.select().from(deliveries).where(eq(deliveries.visitId, visit.id));
+      await deliverEmail(stack.deps, planned!.id);
+      const mail = await stack.mail.waitFor((m) => m.to.includes(owner.person.email), 30_000);
+
+      const readingsLink = `${stack.origin}/tanks/${tank.id}?section=readings`;
+      expect(mail.html).toContain('<p>Trimmed the <strong>green star polyps</strong>.</p>');
+      expect(mail.html).toContain('<aside class="md-caution" role="note" aria-label="Caution">');
+      expect(mail.html).toContain(
+        `<a href="${readingsLink}" rel="noopener nofollow ugc" target="_blank">the readings</a> and After the visit.`,
+      );
+      expect(mail.html).not.toContain('<img');
+      expect(mail.html).not.toContain('<script');
+      expect(mail.html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+      expect(mail.text).toContain(
+        [
+          'Notes:',
+          '',
+          'Trimmed the green star polyps.',
+          '',
+          'Caution: Unplug the heater before you reach in.',
+          '',
+          `See the readings (${readingsLink}) and After the visit.`,
+          '<script>alert(1)</script>',
+        ].join('\n'),
+      );
+    });
+
     it('sends the e-mail in quiet hours and plans the push for when they end', async () => {
       const { db } = stack.database;
       const issuer = stack.idp.issuer;

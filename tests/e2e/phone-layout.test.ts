@@ -18,7 +18,15 @@ import {
 
 const ownersTank = demoId('ashdown-reef');
 const staffTank = demoId('quayside-reef');
-const tankSections = ['summary', 'readings', 'visits', 'livestock', 'equipment', 'about'] as const;
+const tankSections = [
+  'summary',
+  'readings',
+  'visits',
+  'timeline',
+  'livestock',
+  'equipment',
+  'about',
+] as const;
 
 /** Uncaught errors in the page, by page: a screen that threw is not a screen that fits. */
 const pageErrors = new WeakMap<Page, string[]>();
@@ -191,6 +199,8 @@ describe('every screen at 390 px', () => {
       '/console/audit',
       '/console/staff',
       '/console/schedule',
+      '/console/tips',
+      '/console/tips/new',
       `/visits/${demoVisitId('quayside-reef', 'chiller')}`,
       '/settings/notifications',
     ]) {

@@ -274,9 +274,11 @@ describe('the schedule and visit reports in the browser', () => {
     expect(await report.getByText('Bring a new impeller').count()).toBe(1);
     expect(await report.getByText('24.6 °C').count()).toBe(1);
     if (pump) expect(await report.getByText('Needs attention').count()).toBe(1);
-    // The notes keep their line breaks.
+    // The notes keep their line breaks (Markdown, rendered with a <br> for each).
     const notes = report.getByText('The cat was on the lid again.', { exact: false });
-    expect(await notes.evaluate((element) => getComputedStyle(element).whiteSpace)).toBe('pre-line');
+    expect(await notes.evaluate((element) => (element as HTMLElement).innerText)).toBe(
+      'Java fern trimmed at the back.\nThe cat was on the lid again.',
+    );
 
     // Printed: only the report, with the company, the tank and the date; no app around it, no buttons.
     const print = report.getByRole('button', { name: /^Print/ });

@@ -186,4 +186,49 @@ describe('a visit report written on a phone', () => {
     // Leave the demo as it was found: the extra visit is cancelled.
     await apiInPage(page, 'PATCH', `/visits/${next.id}`, { cancelled: true });
   });
+  it('shows both versions when the same report was changed on two devices, and keeps the one chosen', async () => {
+    const phone = await signInAt(
+      await session.newPage('phone'),
+      '/console/schedule',
+      'tomas@driftglass.test',
+    );
+    const tablet = await signInAt(
+      await session.newPage('desktop'),
+      '/console/schedule',
+      'tomas@driftglass.test',
+    );
+    const visit = await apiInPage<VisitSummary>(phone, 'POST', '/visits', {
+      tankId,
+      kind: 'routine',
+      date: todayInLondon(),
+      startTime: '00:00',
+      endTime: '23:59',
+    });
+    const stateOf = (page: Page) => page.getByRole('main').locator('header [role="status"]');
+    // Both open the report at the same version.
+    for (const page of [phone, tablet]) {
+      await page.goto(`/visits/${visit.id}`);
+      await page.getByRole('heading', { level: 1, name: tankName }).waitFor();
+    }
+    await tablet.getByLabel('Notes', { exact: true }).fill('Written on the tablet.');
+    await expect.poll(() => stateOf(tablet).textContent(), { timeout: 30_000 }).toBe('Saved');
+
+    await phone.getByLabel('Notes', { exact: true }).fill('Written on the phone.');
+    const chooser = phone.getByRole('alert').filter({ hasText: 'also changed on another device' });
+    await chooser.waitFor({ timeout: 30_000 });
+    await chooser.getByText('Written on the tablet.').waitFor();
+    await chooser.getByText('Written on the phone.').waitFor();
+    expect((await apiInPage<VisitDetail>(phone, 'GET', `/visits/${visit.id}`)).draft?.notes).toBe(
+      'Written on the tablet.',
+    );
+    await expectAxeClean(phone, 'the version chooser');
+    await screenshot(phone, 'visit-report-conflict-phone');
+
+    await chooser.getByRole('button', { name: 'Keep this phone’s version' }).click();
+    await expect.poll(() => stateOf(phone).textContent(), { timeout: 30_000 }).toBe('Saved');
+    expect((await apiInPage<VisitDetail>(phone, 'GET', `/visits/${visit.id}`)).draft?.notes).toBe(
+      'Written on the phone.',
+    );
+    await apiInPage(phone, 'PATCH', `/visits/${visit.id}`, { cancelled: true });
+  });
 });

@@ -13,7 +13,7 @@ async function restrictedImports(code: string, filePath: string) {
 }
 
 describe('shared/ layers', () => {
-  it.each(['alerts', 'chemistry', 'livestock', 'parameters', 'people', 'readings'])(
+  it.each(['alerts', 'chemistry', 'livestock', 'parameters', 'people', 'photos', 'readings', 'text'])(
     'refuses an import of the request schemas in shared/%s',
     async (folder) => {
       const problems = await restrictedImports(

@@ -30,6 +30,7 @@ function MainNav() {
   if (can(me, 'clients:read')) {
     links.push({ to: '/console', label: 'Tanks', end: true });
     if (can(me, 'visits:write')) links.push({ to: '/console/schedule', label: 'Schedule' });
+    if (can(me, 'care-tips:write')) links.push({ to: '/console/tips', label: 'Care tips' });
     links.push({ to: '/console/clients', label: 'Clients' });
     links.push({ to: '/console/alerts', label: 'Alerts' });
     if (can(me, 'staff:read')) links.push({ to: '/console/staff', label: 'Staff' });

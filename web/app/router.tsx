@@ -89,6 +89,36 @@ const router = createBrowserRouter([
                 ],
               },
               {
+                path: 'tips',
+                element: <RequirePermission permission="care-tips:write" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-tips')).ConsoleTipsRoute,
+                    }),
+                  },
+                  {
+                    path: 'new',
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-tips')).ConsoleTipNewRoute,
+                    }),
+                  },
+                  {
+                    path: ':tipId',
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-tips')).ConsoleTipRoute,
+                    }),
+                  },
+                  {
+                    path: ':tipId/edit',
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-tips')).ConsoleTipEditRoute,
+                    }),
+                  },
+                ],
+              },
+              {
                 path: 'clients',
                 lazy: async () => ({
                   Component: (await import('./routes/console-clients')).ConsoleClientsRoute,

@@ -54,6 +54,20 @@ export function formatVisitWindow(start: string, end: string, timeZone: string):
   return `${formatWeekday(start, timeZone)}, ${formatTimeWindow(start, end, timeZone)}`;
 }
 
+/**
+ * A day's heading in a feed, in `timeZone` (a tank's): "Today", "Yesterday", "Tuesday 8 December",
+ * with the year only when it is not this one.
+ */
+export function formatDayHeading(at: string | number | Date, timeZone: string, now = Date.now()): string {
+  const onDay = dayIn(at, timeZone);
+  const today = dayIn(now, timeZone);
+  const yesterday = new Date(Date.parse(`${today}T12:00:00Z`) - day).toISOString().slice(0, 10);
+  if (onDay === today) return 'Today';
+  if (onDay === yesterday) return 'Yesterday';
+  const heading = formatWeekdayLong(at, timeZone);
+  return onDay.slice(0, 4) === today.slice(0, 4) ? heading : `${heading} ${onDay.slice(0, 4)}`;
+}
+
 /** A calendar day ("2025-04-12") as people read it; no time zone can move a calendar day. */
 export function formatDay(isoDay: string | null): string {
   if (!isoDay) return '—';

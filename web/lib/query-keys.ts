@@ -26,6 +26,9 @@ export const tankKeys = {
   comfortRange: (tankId: string) => [...tankKeys.detail(tankId), 'comfort-range'] as const,
   technicians: () => [...tankKeys.all, 'technicians'] as const,
   visits: (tankId: string) => [...tankKeys.detail(tankId), 'visits'] as const,
+  timeline: (tankId: string, kinds: readonly string[]) =>
+    [...tankKeys.detail(tankId), 'timeline', kinds] as const,
+  tipSuggestions: (tankId: string) => [...tankKeys.detail(tankId), 'tip-suggestions'] as const,
 };
 
 /** A visit and its report; the schedule lists hang under `visitKeys.schedules()`. */
@@ -40,6 +43,7 @@ export const visitKeys = {
 export const speciesKeys = {
   all: ['species'] as const,
   search: (query: object) => [...speciesKeys.all, query] as const,
+  detail: (speciesId: string) => [...speciesKeys.all, 'detail', speciesId] as const,
 };
 
 export const alertKeys = {
@@ -75,4 +79,18 @@ export const auditKeys = {
 export const calendarKeys = {
   all: ['calendar-feed'] as const,
   status: () => [...calendarKeys.all, 'status'] as const,
+};
+
+/**
+ * Care tips: the company's list and each tip for staff; the feeds owners read (all of one person's
+ * tanks, or one tank) hang under `tipKeys.feeds()`, so a helpful mark or a send updates them all.
+ */
+export const tipKeys = {
+  all: ['care-tips'] as const,
+  lists: () => [...tipKeys.all, 'list'] as const,
+  detail: (tipId: string) => [...tipKeys.all, 'detail', tipId] as const,
+  reach: (tipId: string) => [...tipKeys.detail(tipId), 'reach'] as const,
+  audienceCount: (audience: object) => [...tipKeys.all, 'audience-count', audience] as const,
+  feeds: () => [...tipKeys.all, 'feed'] as const,
+  feed: (tankId: string | null) => [...tipKeys.feeds(), tankId ?? 'all'] as const,
 };

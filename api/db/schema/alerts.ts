@@ -20,6 +20,7 @@ import { companies } from './companies';
 import { parameterKey } from './readings';
 import { tanks } from './tanks';
 import { users } from './users';
+import { careTips } from './care-tips';
 import { visits } from './visits';
 
 export const alertKind = pgEnum('alert_kind', alertKinds);
@@ -152,9 +153,10 @@ export const deliveries = pgTable(
   'deliveries',
   {
     id: id(),
-    /** What is being told: an alert event, or a published visit report (exactly one). */
+    /** What is being told: an alert event, a published visit report or a care tip (exactly one). */
     alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
     visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
+    tipId: uuid('tip_id').references(() => careTips.id, { onDelete: 'cascade' }),
     userId: uuid('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -169,7 +171,8 @@ export const deliveries = pgTable(
   (t) => [
     uniqueIndex('deliveries_once_key').on(t.alertEventId, t.channel, t.destination),
     uniqueIndex('deliveries_visit_once_key').on(t.visitId, t.channel, t.destination),
-    check('deliveries_one_subject', sql`(${t.alertEventId} is null) <> (${t.visitId} is null)`),
+    uniqueIndex('deliveries_tip_once_key').on(t.tipId, t.channel, t.destination),
+    check('deliveries_one_subject', sql`num_nonnulls(${t.alertEventId}, ${t.visitId}, ${t.tipId}) = 1`),
     index('deliveries_status_idx').on(t.status, t.createdAt),
   ],
 );
@@ -185,6 +188,7 @@ export const notifications = pgTable(
     alertId: uuid('alert_id').references(() => alerts.id, { onDelete: 'cascade' }),
     alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
     visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
+    tipId: uuid('tip_id').references(() => careTips.id, { onDelete: 'cascade' }),
     severity: alertSeverity('severity').notNull(),
     title: text('title').notNull(),
     body: text('body').notNull(),
@@ -196,6 +200,7 @@ export const notifications = pgTable(
     index('notifications_user_idx').on(t.userId, t.createdAt),
     uniqueIndex('notifications_once_key').on(t.userId, t.alertEventId),
     uniqueIndex('notifications_visit_once_key').on(t.userId, t.visitId),
+    uniqueIndex('notifications_tip_once_key').on(t.userId, t.tipId),
   ],
 );
 

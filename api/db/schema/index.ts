@@ -1,5 +1,6 @@
 export * from './alerts';
 export * from './audit';
+export * from './care-tips';
 export * from './companies';
 export * from './equipment';
 export * from './invitations';

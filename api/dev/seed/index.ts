@@ -19,6 +19,7 @@ import {
   users,
 } from '../../db/schema/index';
 import { seedDemoPhotos } from './photos';
+import { seedDemoCareTips } from './care-tips';
 import { seedDemoVisits } from './visits';
 import { demoEquipment, demoLivestock, demoTanks } from './scenario';
 
@@ -222,6 +223,7 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   await seedDemoReadings(db, now);
   // The visit reports reuse the readings taken at visits, and take the anemone out before alerts are judged.
   await seedDemoVisits(db, { companyId: driftglass, people: userId, now });
+  await seedDemoCareTips(db, { companyId: driftglass, people: userId, now });
   if (options.raiseAlerts !== false) await raiseDemoAlerts(db, driftglass, now);
 }
 

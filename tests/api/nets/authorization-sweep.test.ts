@@ -109,6 +109,7 @@ const expected: Record<string, Row> = {
   'DELETE /api/tanks/:tankId/devices/:deviceId': tankAStaffWrite(200),
 
   'GET /api/tanks/:tankId/visits': tankARead,
+  'GET /api/tanks/:tankId/timeline': tankARead,
   // Staff plan and write visits; another company's admin sees an empty schedule of their own.
   'GET /api/visits': staffOnly(200),
   'POST /api/visits': tankAStaffWrite(201),
@@ -117,6 +118,34 @@ const expected: Record<string, Row> = {
   'PUT /api/visits/:visitId/report': tankAStaffWrite(200),
   'POST /api/visits/:visitId/publish': tankAStaffWrite(200),
   'GET /api/visits/:visitId/versions/:version': tankARead,
+
+  // Staff write and send tips; another company's admin works on their own (an empty list, their
+  // own drafts) and gets 404 for ours. Owners read tips in the feed and mark those their tank got.
+  'GET /api/care-tips': staffOnly(200),
+  'POST /api/care-tips': staffOnly(201),
+  'GET /api/care-tips/feed': everyoneSignedIn(200),
+  'POST /api/care-tips/audience-count': staffOnly(200),
+  'GET /api/care-tips/:tipId': tankAStaffWrite(200),
+  'PATCH /api/care-tips/:tipId': tankAStaffWrite(200),
+  'POST /api/care-tips/:tipId/send': tankAStaffWrite(200),
+  'POST /api/care-tips/:tipId/withdraw': tankAStaffWrite(200),
+  'GET /api/care-tips/:tipId/reach': tankAStaffWrite(200),
+  'POST /api/care-tips/:tipId/send-to-tank': tankAStaffWrite(200),
+  'PUT /api/care-tips/:tipId/helpful': signedIn({
+    ownerA: 204,
+    ownerB: 404,
+    technician: 403,
+    admin: 403,
+    otherAdmin: 404,
+  }),
+  'DELETE /api/care-tips/:tipId/helpful': signedIn({
+    ownerA: 204,
+    ownerB: 404,
+    technician: 403,
+    admin: 403,
+    otherAdmin: 404,
+  }),
+  'GET /api/tanks/:tankId/tip-suggestions': tankAStaffWrite(200),
 
   'GET /api/photos/:photoId': tankARead,
   'GET /api/photos/:photoId/thumbnail': tankARead,

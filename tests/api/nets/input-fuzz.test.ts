@@ -179,6 +179,7 @@ const routeQueryKeys: Record<string, string[]> = {
   'GET /api/audit': ['action', 'actor', 'targetKind', 'from', 'to', 'before', 'limit'],
   'GET /api/audit/export': ['action', 'actor', 'targetKind', 'from', 'to'],
   'GET /api/visits': ['from', 'to', 'technicianId', 'tankId'],
+  'GET /api/care-tips/feed': ['tankId', 'cursor', 'limit'],
   'GET /auth/login': ['returnTo'],
   'POST /api/tanks/:tankId/livestock': ['dryRun'],
 };

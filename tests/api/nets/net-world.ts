@@ -5,6 +5,9 @@ import { defaultNotificationPreferences } from '@shared/schemas/notifications';
 import { visitReportContent } from '@shared/schemas/visits';
 import {
   alerts,
+  careTipReaders,
+  careTips,
+  careTipTanks,
   devices,
   invitations,
   onCallShifts,
@@ -297,6 +300,34 @@ export async function createNetWorld() {
     },
     /** The earlier published version every visit above keeps. */
     version: () => Promise.resolve('1'),
+    /**
+     * A care tip to all of company 1's tanks, scheduled for tomorrow and already sent to tank A by
+     * one tap (its owner a reader): every tip route has something to do with it.
+     */
+    tipId: async () => {
+      const [tip] = await db
+        .insert(careTips)
+        .values({
+          companyId: company.id,
+          title: 'Top up with fresh water',
+          body: 'Salt stays behind when water evaporates.',
+          category: 'maintenance',
+          audience: { kind: 'all' },
+          suggestWhen: [{ on: 'livestock-added', group: 'snail' }],
+          status: 'scheduled',
+          sendAt: new Date(Date.now() + 86_400_000),
+          createdBy: people.admin.id,
+        })
+        .returning();
+      await db.insert(careTipTanks).values({
+        tipId: tip!.id,
+        tankId: tankA.id,
+        deliveredAt: new Date(),
+        sentBy: people.technician.id,
+      });
+      await db.insert(careTipReaders).values({ tipId: tip!.id, tankId: tankA.id, userId: people.ownerA.id });
+      return tip!.id;
+    },
   } satisfies Record<string, () => Promise<string>>;
   type ParamName = keyof typeof freshObject;
 
@@ -532,6 +563,20 @@ export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = 
     },
   }),
   'POST /api/visits/:visitId/publish': () => ({ body: { version: 3 } }),
+  'POST /api/care-tips': () => ({
+    body: {
+      title: `Drip loops ${unique()}`,
+      body: 'Keep a drip loop below every socket.',
+      category: 'safety',
+      audience: { kind: 'all' },
+    },
+  }),
+  'POST /api/care-tips/audience-count': () => ({
+    body: { audience: { kind: 'style', style: 'mixed-reef' } },
+  }),
+  'PATCH /api/care-tips/:tipId': () => ({ body: { title: 'Top up with fresh water, never salt water' } }),
+  'POST /api/care-tips/:tipId/send': () => ({ body: { at: null } }),
+  'POST /api/care-tips/:tipId/send-to-tank': (world) => ({ body: { tankId: world.tankA.id } }),
   'POST /api/ingest/readings': () => ({
     body: { readings: [{ parameter: 'temperature', value: 25.3, unit: '°C', measuredAt: minutesAgo(5) }] },
   }),

@@ -21,6 +21,8 @@ import { TankAtAGlance } from '../../features/tanks/components/tank-at-a-glance'
 import { TankOverview } from '../../features/tanks/components/tank-overview';
 import { NextVisitLine } from '../../features/visits/components/next-visit-card';
 import { TankVisitsSection } from '../../features/visits/components/tank-visits-section';
+import { TankTimeline } from '../../features/timeline/components/tank-timeline';
+import { TankTipsFeed } from '../../features/care-tips/components/tip-feed';
 
 const actionClass =
   'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
@@ -136,6 +138,7 @@ const sections = [
   { key: 'summary', label: 'Summary' },
   { key: 'readings', label: 'Readings and charts' },
   { key: 'visits', label: 'Visits' },
+  { key: 'timeline', label: 'Timeline' },
   { key: 'livestock', label: 'Livestock' },
   { key: 'equipment', label: 'Equipment' },
   { key: 'about', label: 'About the tank' },
@@ -161,6 +164,8 @@ export function TankRoute() {
   const chosenParameter = parameterKey.safeParse(params.get('parameter'));
   // A notification links to one visit's report: ?section=visits&visit=<id>.
   const visitParam = z.uuid().safeParse(params.get('visit'));
+  // A care tip's notification links to it on the timeline: ?section=timeline&tip=<id>.
+  const tipParam = z.uuid().safeParse(params.get('tip'));
   const sectionHref = (key: SectionKey) =>
     key === 'summary' ? `/tanks/${tankId}` : `/tanks/${tankId}?section=${key}`;
 
@@ -216,6 +221,7 @@ export function TankRoute() {
                 </Link>
               }
             />
+            <TankTipsFeed tankId={tankId} companyName={tank.data.company.name} />
           </div>
         )}
         {section === 'readings' && (
@@ -243,6 +249,15 @@ export function TankRoute() {
               visitId={visitParam.success ? visitParam.data : null}
               hrefFor={(visitId) => `${sectionHref('visits')}&visit=${visitId}`}
             />
+          </Section>
+        )}
+        {section === 'timeline' && (
+          <Section
+            id="timeline-title"
+            title="Timeline"
+            description="Everything that happened to this tank, newest first: visit reports, livestock changes, alerts and care tips."
+          >
+            <TankTimeline tankId={tankId} tipId={tipParam.success ? tipParam.data : null} />
           </Section>
         )}
         {section === 'livestock' && (

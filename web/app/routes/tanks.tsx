@@ -3,9 +3,12 @@ import { EmptyState, ErrorState, LoadingState } from '../../components/states';
 import { TankCard } from '../../features/tanks/components/tank-card';
 import { byTrouble } from '../../features/tanks/utils/trouble-order';
 import { useTanks } from '../../lib/queries/tanks';
+import { useMe } from '../../lib/auth';
+import { DashboardTipsFeed } from '../../features/care-tips/components/tip-feed';
 
 export function MyTanksRoute() {
   const tanks = useTanks();
+  const { data: me } = useMe();
   return (
     <Page
       title="My tanks"
@@ -27,6 +30,11 @@ export function MyTanksRoute() {
             </li>
           ))}
         </ul>
+      )}
+      {me && tanks.data && tanks.data.length > 0 && (
+        <div className="mt-8">
+          <DashboardTipsFeed companyName={me.company.name} />
+        </div>
       )}
     </Page>
   );

@@ -11,6 +11,7 @@ import { capitalise } from '../../../lib/format';
 import { useAddLivestock } from '../api/add-livestock';
 import { useLivestockCheck } from '../api/check-livestock';
 import { CompatibilityWarnings } from '../../../components/compatibility-warnings';
+import { TipSuggestions } from '../../../components/tip-suggestions';
 import { HandlingCaution, stingCaution } from './handling-caution';
 import { SpeciesPicker } from './species-picker';
 
@@ -108,6 +109,7 @@ export function AddLivestockForm({ tankId, waterType }: { tankId: string; waterT
           {added} added to the tank.
         </p>
       )}
+      {added && <TipSuggestions tankId={tankId} />}
       <SpeciesPicker waterType={waterType} selected={species} onSelect={choose} />
       {species && (
         <>

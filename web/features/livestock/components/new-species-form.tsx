@@ -3,6 +3,7 @@ import { speciesInput, type SpeciesInput } from '@shared/schemas/species';
 import {
   handlingHazard,
   livestockGroup,
+  livestockGroupLabels,
   livestockGroups,
   type HandlingHazard,
   type LivestockGroup,
@@ -19,24 +20,6 @@ import {
 } from '../../../components/form-fields';
 import { blankAsUndefined, decimalText } from '../../../lib/form-values';
 import { useCreateSpecies } from '../api/create-species';
-
-const groupLabels: Record<LivestockGroup, string> = {
-  fish: 'Fish',
-  'sps-coral': 'Small-polyp stony coral',
-  'lps-coral': 'Large-polyp stony coral',
-  'soft-coral': 'Soft coral',
-  zoanthid: 'Zoanthid',
-  mushroom: 'Mushroom coral',
-  anemone: 'Anemone',
-  clam: 'Clam',
-  shrimp: 'Shrimp',
-  snail: 'Snail',
-  crab: 'Crab',
-  urchin: 'Urchin',
-  starfish: 'Starfish',
-  plant: 'Plant',
-  'other-invertebrate': 'Other invertebrate',
-};
 
 const waterLabels: Record<WaterType, string> = { marine: 'Marine', fresh: 'Fresh', brackish: 'Brackish' };
 
@@ -159,7 +142,10 @@ export function NewSpeciesForm({
         <SelectField<SpeciesFormValues>
           name="profile.group"
           label="Kind"
-          options={livestockGroups.map((value: LivestockGroup) => ({ value, label: groupLabels[value] }))}
+          options={livestockGroups.map((value: LivestockGroup) => ({
+            value,
+            label: livestockGroupLabels[value],
+          }))}
         />
       </div>
       <CheckboxGroupField<SpeciesFormValues>

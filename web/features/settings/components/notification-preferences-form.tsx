@@ -28,8 +28,9 @@ const severityHelp: Record<AlertSeverity, string> = {
  */
 const { push, email, inApp, timeZone } = notificationPreferences.shape;
 const visitReports = notificationPreferences.shape.visitReports.unwrap();
+const careTips = notificationPreferences.shape.careTips.unwrap();
 const clockTimes = notificationPreferences.shape.quietHours.unwrap().shape;
-const choices = { push, email, inApp, timeZone, visitReports };
+const choices = { push, email, inApp, timeZone, visitReports, careTips };
 const preferencesForm = z
   .discriminatedUnion('holdBack', [
     z.object({
@@ -58,6 +59,7 @@ const formValues = (preferences: NotificationPreferences): PreferencesFormValues
   inApp: preferences.inApp,
   timeZone: preferences.timeZone,
   visitReports: preferences.visitReports,
+  careTips: preferences.careTips,
   holdBack: preferences.quietHours !== null,
   quietHours: preferences.quietHours ?? { start: '22:00', end: '07:00' },
 });
@@ -187,6 +189,19 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
         name="visitReports"
         label="Visit reports"
         hint="When the company publishes the report of a visit to your tank."
+        className="mt-6 rounded-lg border border-ink-100 p-3"
+        columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
+        options={[
+          { value: 'push', label: 'Push' },
+          { value: 'email', label: 'E-mail' },
+          { value: 'in-app', label: 'In the app' },
+        ]}
+      />
+
+      <CheckboxGroupField
+        name="careTips"
+        label="Care tips"
+        hint="When the company sends advice about caring for your tank."
         className="mt-6 rounded-lg border border-ink-100 p-3"
         columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
         options={[

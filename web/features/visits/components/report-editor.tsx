@@ -6,6 +6,7 @@ import { reportSummary } from '@shared/schemas/visit-summary';
 import { Button } from '../../../components/button';
 import { Form, FormProblem, useZodForm } from '../../../components/form';
 import { ErrorState, LoadingState } from '../../../components/states';
+import { TipSuggestions } from '../../../components/tip-suggestions';
 import { applyServerIssues } from '../../../lib/form-issues';
 import { formatDateTime } from '../../../lib/format';
 import { useEquipment } from '../../../lib/queries/equipment';
@@ -169,6 +170,7 @@ function ReportForm({
           {publish.isPending ? 'Publishing…' : wasPublished ? 'Publish the changes' : 'Publish report'}
         </Button>
       </div>
+      {published && <TipSuggestions tankId={visit.tankId} />}
     </Form>
   );
 }

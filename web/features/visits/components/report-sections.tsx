@@ -27,6 +27,7 @@ import {
   TextAreaField,
   TextField,
 } from '../../../components/form-fields';
+import { Markdown } from '../../../components/markdown';
 import { SheetDialog } from '../../../components/sheet-dialog';
 import { parseDecimal } from '../../../lib/decimal';
 import { blankAsUndefined, decimalText } from '../../../lib/form-values';
@@ -70,12 +71,12 @@ export function TimesSection({ zone }: { zone: string }) {
     >
       <div className="grid gap-3 sm:grid-cols-2">
         {(['arrivedAt', 'departedAt'] as const).map((name) => (
-          <div key={name} className="flex items-end gap-2">
+          <div key={name} className="flex flex-wrap items-end gap-2">
             <TextField<ReportFormValues>
               name={name}
               label={name === 'arrivedAt' ? 'Arrived' : 'Left'}
               type="datetime-local"
-              className="min-w-0 flex-1"
+              className="min-w-[16.5rem] flex-1"
             />
             <Button
               tone="secondary"
@@ -610,12 +611,33 @@ function PickLivestock({
 }
 
 export function NotesSection() {
+  const notes = useWatch<ReportFormValues, 'notes'>({ name: 'notes' });
+  const [preview, setPreview] = useState(false);
+  const previewId = useId();
   return (
     <ReportSection
       title="Notes for the owner"
       hint="Plain words; Markdown such as **bold** and lists is kept."
     >
       <TextAreaField<ReportFormValues> name="notes" label="Notes" rows={6} />
+      <div>
+        <Button
+          tone="secondary"
+          aria-expanded={preview}
+          aria-controls={previewId}
+          onClick={() => setPreview(!preview)}
+        >
+          {preview ? 'Hide preview' : 'Preview'}
+        </Button>
+        <div id={previewId} hidden={!preview} className="mt-2 rounded-lg border border-ink-100 bg-ink-50 p-3">
+          {preview &&
+            (notes.trim() === '' ? (
+              <p className="text-sm text-ink-700">Nothing written yet.</p>
+            ) : (
+              <Markdown source={notes} />
+            ))}
+        </div>
+      </div>
     </ReportSection>
   );
 }

@@ -14,6 +14,7 @@ import {
 import { equipmentKindLabels } from '@shared/schemas/equipment';
 import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
+import { Markdown } from '../../../components/markdown';
 import { ErrorState, LoadingState } from '../../../components/states';
 import {
   formatDate,
@@ -29,8 +30,7 @@ import { useVisitVersion } from '../api/get-visit';
 
 /*
  * A published visit report as the client reads it, and as it prints: who came, when, what was done
- * with its numbers, what was found, the photos, the notes and what comes next. Notes are Markdown;
- * until the one Markdown renderer arrives they show as written, line breaks kept.
+ * with its numbers, what was found, the photos, the notes (Markdown) and what comes next.
  */
 
 const checkLooks: Readonly<Record<EquipmentCheckState, { tone: string; mark: string }>> = {
@@ -237,7 +237,7 @@ export function ReportBody({
 
       {content.notes.trim() !== '' && (
         <Part title="Notes">
-          <p className="whitespace-pre-line break-words">{content.notes}</p>
+          <Markdown source={content.notes} topHeading={5} />
         </Part>
       )}
 
