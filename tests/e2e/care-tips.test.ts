@@ -171,6 +171,21 @@ describe('care tips in the browser', () => {
       await card.getAttribute('aria-labelledby'),
     );
 
+    // The notification's link opens the tip on the tank's timeline, caution and all.
+    const inbox = await apiInPage<{ items: { title: string; link: string }[] }>(
+      owner,
+      'GET',
+      '/notifications',
+    );
+    const link = inbox.items.find((n) => n.link.includes(tipId))!.link;
+    expect(link).toBe(`/tanks/${livingRoomReef}?section=timeline&tip=${tipId}`);
+    await owner.goto(link);
+    const timeline = owner.getByRole('main');
+    await timeline.getByText(title).first().waitFor();
+    await timeline.getByRole('note', { name: 'Caution' }).first().waitFor();
+    await expectAxeClean(owner, "the tip on the tank's timeline");
+    await screenshot(owner, 'care-tip-owner-timeline-phone');
+
     // The dashboard's feed carries it too, with the tank it came for.
     await owner.goto('/tanks');
     const dashboardTips = owner.getByRole('region', { name: /^Tips from / });
