@@ -245,8 +245,21 @@ async function checkReferences(
     const [photo] = await db
       .select({ id: photos.id })
       .from(photos)
-      .where(and(eq(photos.id, input.photoId), eq(photos.companyId, actor.companyId)));
-    if (!photo) issues.push({ path: 'body.photoId', message: 'choose one of your company’s photos' });
+      .where(
+        and(
+          eq(photos.id, input.photoId),
+          eq(photos.companyId, actor.companyId),
+          // A tip shows its photo to every owner it reaches: a tank's or an animal's picture, never
+          // one from a visit report or a conversation with one client.
+          inArray(photos.subject, ['tank', 'livestock']),
+        ),
+      );
+    if (!photo) {
+      issues.push({
+        path: 'body.photoId',
+        message: 'choose a photo of one of your company’s tanks or animals',
+      });
+    }
   }
   const audience = input.audience;
   if (audience?.kind === 'species') {

@@ -120,6 +120,15 @@ export function preferencesOf(stored: unknown, timeZone: string): NotificationPr
   return readPreferences(stored, timeZone).preferences;
 }
 
+/** Every browser where a person turned push on: one delivery each. */
+async function pushDestinations(deps: AppDeps, userId: string) {
+  const subscriptions = await deps.db
+    .select({ id: pushSubscriptions.id })
+    .from(pushSubscriptions)
+    .where(eq(pushSubscriptions.userId, userId));
+  return subscriptions.map((s) => ({ channel: 'push' as const, destination: s.id }));
+}
+
 /**
  * Plans the notifications for one alert event: an in-app notification for each person who wants
  * one, and a delivery record plus a queued job per e-mail and push destination. Every record is
@@ -167,13 +176,7 @@ export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
     const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
     if (announce && preferences.email.includes(event.severity))
       planned.push({ channel: 'email', destination: person.email });
-    if (preferences.push.includes(event.severity)) {
-      const subscriptions = await deps.db
-        .select({ id: pushSubscriptions.id })
-        .from(pushSubscriptions)
-        .where(eq(pushSubscriptions.userId, person.id));
-      for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
-    }
+    if (preferences.push.includes(event.severity)) planned.push(...(await pushDestinations(deps, person.id)));
     for (const delivery of planned) {
       const [created] = await deps.db
         .insert(deliveries)
@@ -516,13 +519,7 @@ async function tellPerson(
   const holdPushS = inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
   const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
   if (channels.includes('email')) planned.push({ channel: 'email', destination: person.email });
-  if (channels.includes('push')) {
-    const subscriptions = await deps.db
-      .select({ id: pushSubscriptions.id })
-      .from(pushSubscriptions)
-      .where(eq(pushSubscriptions.userId, person.id));
-    for (const s of subscriptions) planned.push({ channel: 'push', destination: s.id });
-  }
+  if (channels.includes('push')) planned.push(...(await pushDestinations(deps, person.id)));
   for (const delivery of planned) {
     const [created] = await deps.db
       .insert(deliveries)

@@ -34,7 +34,7 @@ type TimelineRow = {
   data: Record<string, unknown>;
 };
 
-type EntryWords = Pick<TimelineEntry, 'title' | 'summary' | 'link' | 'editedAt' | 'body'>;
+type EntryWords = Pick<TimelineEntry, 'title' | 'summary' | 'link' | 'editedAt' | 'body' | 'photoId'>;
 
 interface Context {
   db: Db;
@@ -117,6 +117,7 @@ interface TipData {
   title: string;
   category: TipCategory;
   body: string;
+  photoId: string | null;
 }
 
 const severityWords: Readonly<Record<AlertSeverity, string>> = {
@@ -151,6 +152,7 @@ const sources: Record<TimelineKind, TimelineSource> = {
           link: tankLink(tank, `?section=visits&visit=${row.id}`),
           editedAt: data.editedAt,
           body: null,
+          photoId: null,
         };
       }),
   },
@@ -189,6 +191,7 @@ const sources: Record<TimelineKind, TimelineSource> = {
           link: tankLink(tank, '?section=livestock'),
           editedAt: null,
           body: null,
+          photoId: null,
         };
       });
     },
@@ -229,13 +232,14 @@ const sources: Record<TimelineKind, TimelineSource> = {
           link: tankLink(tank),
           editedAt: null,
           body: null,
+          photoId: null,
         };
       }),
   },
   tip: {
     rows: (tank) => sql`
       select t.id, r.delivered_at as at, jsonb_build_object(
-        'title', t.title, 'category', t.category, 'body', t.body) as data
+        'title', t.title, 'category', t.category, 'body', t.body, 'photoId', t.photo_id) as data
       from care_tip_tanks r
       join care_tips t on t.id = r.tip_id
       where r.tank_id = ${tank.id} and t.company_id = ${tank.companyId}
@@ -249,6 +253,7 @@ const sources: Record<TimelineKind, TimelineSource> = {
           link: tankLink(tank, `?section=timeline&tip=${row.id}`),
           editedAt: null,
           body: data.body,
+          photoId: data.photoId,
         };
       }),
   },

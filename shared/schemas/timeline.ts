@@ -96,6 +96,8 @@ export const timelineEntry = z.object({
   editedAt: z.iso.datetime().nullable(),
   /** Markdown to read in full in the feed itself (a care tip's text), or null. */
   body: z.string().nullable(),
+  /** The photo shown with that text (a care tip's), or null. */
+  photoId: z.uuid().nullable(),
 });
 export type TimelineEntry = z.infer<typeof timelineEntry>;
 

@@ -232,6 +232,23 @@ describe('care tips', () => {
       expect(tip.photoId).toBe(ours!.id);
     });
 
+    it("refuses a visit report's photo, which only that tank's owners may see", async () => {
+      const stored = await storePhotoObjects(
+        stack.deps.storage,
+        await makeImage({ width: 32, height: 24, format: 'png' }),
+        new Date(),
+      );
+      const [fromVisit] = await db()
+        .insert(photos)
+        .values({ companyId, tankId: lobby.id, subject: 'visit', ...stored })
+        .returning();
+
+      const refused = await admin.post<ErrorBody>('/api/care-tips', tipBody({ photoId: fromVisit!.id }));
+
+      expect(refused.status).toBe(400);
+      expect(issuePaths(refused.body)).toEqual(['body.photoId']);
+    });
+
     it('refuses owners (403)', async () => {
       expect((await olive.post('/api/care-tips', tipBody())).status).toBe(403);
     });

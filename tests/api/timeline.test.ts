@@ -7,6 +7,7 @@ import {
   careTips,
   careTipTanks,
   livestockStatusEvents,
+  photos,
   type tanks,
   visits,
 } from '../../api/db/schema/index';
@@ -286,6 +287,35 @@ describe('GET /api/tanks/:tankId/timeline', () => {
         link: `/tanks/${reef.id}?section=timeline&tip=${tipId}`,
         body: 'Evaporation leaves the **salt** behind: top up with fresh water, never salt water.',
       });
+    });
+
+    it('carries a tip’s photo with its entry, and no photo with any other', async () => {
+      const { db } = stack.database;
+      const tank = await createTank(db, { companyId, name: 'Photo reef' });
+      // Only the row is needed: the timeline names the photo, it never opens it.
+      const [photo] = await db
+        .insert(photos)
+        .values({
+          companyId,
+          tankId: reef.id,
+          subject: 'tank',
+          objectKey: 'timeline-photo',
+          thumbnailKey: 'timeline-photo-thumbnail',
+          contentType: 'image/webp',
+          width: 4,
+          height: 3,
+          bytes: 12,
+        })
+        .returning();
+      const tip = await tipTo(tank, at(50), { photoId: photo!.id });
+
+      const withPhoto = await timeline(staff, tank);
+      const { body } = await timeline(owner, reef);
+
+      expect(withPhoto.body.entries.map((e) => [e.kind, e.id, e.photoId])).toEqual([
+        ['tip', tip.id, photo!.id],
+      ]);
+      expect(body.entries.map((e) => e.photoId)).toEqual(body.entries.map(() => null));
     });
 
     it('shows staff the same story as the owner', async () => {

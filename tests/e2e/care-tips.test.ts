@@ -4,6 +4,7 @@ import type { AudienceCount, CareTip, TipFeedItem } from '@shared/schemas/care-t
 import { demoId } from '../../api/dev/seed/index';
 import {
   apiInPage,
+  artifactsDir,
   axeViolations,
   openBrowser,
   screenshot,
@@ -14,13 +15,14 @@ import {
 
 /*
  * A care tip from the composer to the owner's phone: an admin writes it with a caution box, sees
- * the caution in the preview (side by side on a desktop, behind a tab on a phone), sends it to the
- * tanks keeping Duncan coral — in the demo only the living room reef — and its owner, on a 390 px
- * phone, is notified, reads it on the tank page, marks it helpful; the admin sees who it reached,
- * then withdraws it and it leaves the owner's feed.
+ * the caution in the preview (side by side on a desktop, behind a tab on a phone), picks one of the
+ * reef's photos, sends it to the tanks keeping Duncan coral — in the demo only the living room
+ * reef — and its owner, on a 390 px phone, is notified, reads it on the tank page with its photo,
+ * marks it helpful; the admin sees who it reached, then withdraws it and it leaves the owner's feed.
  */
 
 const livingRoomReef = demoId('ashdown-reef');
+const reefCoverPhoto = demoId('photo:ashdown-reef:cover');
 const duncan = { kind: 'species', speciesId: 'duncan-coral' } as const;
 
 async function expectAxeClean(page: Page, where: string) {
@@ -83,9 +85,19 @@ describe('care tips in the browser', () => {
     expect(expected.tanks).toBe(1);
     const reach = `Reaches 1 tank and ${expected.owners} owner${expected.owners === 1 ? '' : 's'}`;
     await composer.getByText(reach).waitFor();
+
+    // One of the reef's photos goes with it, chosen from the tank's pictures.
+    const photoPart = composer.getByRole('region', { name: 'Photo', exact: true });
+    await photoPart.getByRole('combobox', { name: 'Tank' }).selectOption(livingRoomReef);
+    await photoPart
+      .getByRole('group', { name: 'Photos of Living room reef' })
+      .getByRole('radio', { name: 'Living room reef after the last visit' })
+      .check();
+    await photoPart.getByRole('button', { name: 'Remove photo' }).waitFor();
     await expectAxeClean(admin, 'the composer at 1280 px');
     await expectNoSidewaysScroll(admin, 'the composer at 1280 px');
     await screenshot(admin, 'care-tip-composer-desktop');
+    await photoPart.screenshot({ path: `${artifactsDir}/care-tip-composer-photo-desktop.png` });
 
     // On a phone the preview sits behind its own tab.
     await admin.setViewportSize(viewports.phone);
@@ -95,6 +107,7 @@ describe('care tips in the browser', () => {
     await expectAxeClean(admin, 'the composer at 390 px');
     await expectNoSidewaysScroll(admin, 'the composer at 390 px');
     await screenshot(admin, 'care-tip-composer-phone');
+    await photoPart.screenshot({ path: `${artifactsDir}/care-tip-composer-photo-phone.png` });
     await composer.getByRole('radio', { name: 'Write', exact: true }).check();
     await admin.setViewportSize(viewports.desktop);
 
@@ -104,7 +117,13 @@ describe('care tips in the browser', () => {
     const tipId = new URL(admin.url()).pathname.split('/').at(-1)!;
     await admin.getByText('Sent. The owners of the tanks it reaches are told.').waitFor();
     const sent = await apiInPage<CareTip>(admin, 'GET', `/care-tips/${tipId}`);
-    expect(sent).toMatchObject({ title, status: 'sent', category: 'livestock', audience: duncan });
+    expect(sent).toMatchObject({
+      title,
+      status: 'sent',
+      category: 'livestock',
+      audience: duncan,
+      photoId: reefCoverPhoto,
+    });
     expect(sent.reached.tanks).toBe(1);
 
     // The list shows it sent, with how far it went.
@@ -146,6 +165,16 @@ describe('care tips in the browser', () => {
     await card.waitFor();
     await card.getByRole('note', { name: 'Caution' }).waitFor();
     expect(await card.textContent()).toContain('fed twice a week');
+    // Its photo: the thumbnail, loaded, opening the full photo.
+    const photo = card.getByRole('img', { name: title, exact: true });
+    await photo.scrollIntoViewIfNeeded();
+    expect(await photo.getAttribute('src')).toBe(`/api/photos/${reefCoverPhoto}/thumbnail`);
+    await expect
+      .poll(() => photo.evaluate((img: HTMLImageElement) => (img.complete ? img.naturalWidth : 0)))
+      .toBeGreaterThan(0);
+    expect(await card.getByRole('link', { name: title }).getAttribute('href')).toBe(
+      `/api/photos/${reefCoverPhoto}`,
+    );
     await expectAxeClean(owner, "the owner's tank page with the tip");
     await expectNoSidewaysScroll(owner, "the owner's tank page with the tip");
     await card.scrollIntoViewIfNeeded();
@@ -183,6 +212,10 @@ describe('care tips in the browser', () => {
     const timeline = owner.getByRole('main');
     await timeline.getByText(title).first().waitFor();
     await timeline.getByRole('note', { name: 'Caution' }).first().waitFor();
+    const timelinePhoto = timeline
+      .getByRole('article', { name: title })
+      .getByRole('img', { name: title, exact: true });
+    expect(await timelinePhoto.getAttribute('src')).toBe(`/api/photos/${reefCoverPhoto}/thumbnail`);
     await expectAxeClean(owner, "the tip on the tank's timeline");
     await screenshot(owner, 'care-tip-owner-timeline-phone');
 

@@ -20,6 +20,12 @@ const looks = {
     option:
       'relative inline-flex min-h-12 cursor-pointer items-center gap-2 rounded-lg border-2 border-ink-300 bg-white px-4 py-2 font-bold text-ink-900 hover:border-ink-700 has-checked:border-ink-800 has-checked:bg-ink-800 has-checked:text-white has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-brine-500',
   },
+  // Pictures in a grid, each a whole tile with its tick in a corner (choosing a photo).
+  photos: {
+    list: 'mt-2 grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-4',
+    option:
+      'relative block min-h-12 cursor-pointer overflow-hidden rounded-lg border-2 border-ink-300 bg-white text-ink-900 hover:border-ink-700 has-checked:border-brine-700 has-checked:ring-3 has-checked:ring-brine-700 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-brine-500',
+  },
   // A compact row of 44-px tiles, for view switches (chart window, units).
   compact: {
     list: 'flex flex-wrap gap-1',
@@ -29,8 +35,9 @@ const looks = {
 } as const;
 
 /**
- * The one radio group: a fieldset of real radio inputs drawn as large targets. In the `tiles` and
- * `compact` looks the input lies transparent over its whole tile, so a tap anywhere lands on it.
+ * The one radio group: a fieldset of real radio inputs drawn as large targets. In the `tiles`,
+ * `photos` and `compact` looks the input lies transparent over its whole tile, so a tap anywhere
+ * lands on it.
  */
 export function RadioGroup<V extends string>({
   legend,
@@ -107,7 +114,14 @@ export function RadioGroup<V extends string>({
               </>
             ) : (
               <>
-                <span aria-hidden="true" className="hidden peer-checked:inline">
+                <span
+                  aria-hidden="true"
+                  className={
+                    look === 'photos'
+                      ? 'absolute top-1.5 right-1.5 z-10 hidden h-8 w-8 items-center justify-center rounded-full bg-brine-700 font-bold text-white shadow-card peer-checked:flex'
+                      : 'hidden peer-checked:inline'
+                  }
+                >
                   ✓
                 </span>
                 {choice.label}

@@ -1,12 +1,22 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PhotoItem } from '@shared/schemas/photos';
 import { api } from '../api-client';
 import { tankKeys } from '../query-keys';
 
 /*
  * Uploading a photo: the tank's own photos and each animal's gallery both send them, so the call
- * lives here beside the shared uploader rather than in one feature.
+ * lives here beside the shared uploader rather than in one feature. A tank's photos are listed
+ * here too: its page shows them and the care tip composer picks one of them.
  */
+
+export const getTankPhotos = (tankId: string, signal?: AbortSignal) =>
+  api<PhotoItem[]>(`/tanks/${tankId}/photos`, { signal });
+
+export const tankPhotosQueryOptions = (tankId: string) =>
+  queryOptions({ queryKey: tankKeys.photos(tankId), queryFn: ({ signal }) => getTankPhotos(tankId, signal) });
+
+export const useTankPhotos = (tankId: string, enabled = true) =>
+  useQuery({ ...tankPhotosQueryOptions(tankId), enabled });
 
 export interface PhotoUploadInput {
   file: File | Blob;

@@ -13,6 +13,7 @@ const entry = (at: string, timeZone: string): TimelineEntry => ({
   timeZone,
   editedAt: null,
   body: null,
+  photoId: null,
 });
 
 describe('groupByDay', () => {

@@ -1,10 +1,11 @@
-import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { useFormContext, useFormState, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router';
 import { livestockGroupLabels, livestockGroups } from '@shared/livestock/species';
 import { tipCategories, tipCategoryLabels, type CareTip } from '@shared/schemas/care-tips';
 import { visitTaskLabels, visitTasks } from '@shared/schemas/visits';
 import { Button } from '../../../components/button';
+import { SectionCard } from '../../../components/section-card';
 import { Form, FormProblem, useZodForm } from '../../../components/form';
 import { CheckboxGroupField, RadioGroupField, TextField } from '../../../components/form-fields';
 import { formatDateTime, localInputValue } from '../../../lib/format';
@@ -13,27 +14,7 @@ import { useSendCareTip } from '../api/send-care-tip';
 import { tipFieldFor, tipFormSchema, tipFormValues, type TipFormValues } from '../utils/tip-form';
 import { AudienceFields } from './audience-fields';
 import { BodyEditor } from './body-editor';
-
-function ComposerSection({
-  title,
-  hint,
-  children,
-}: {
-  title: string;
-  hint?: ReactNode;
-  children: ReactNode;
-}) {
-  const id = useId();
-  return (
-    <section aria-labelledby={id} className="min-w-0 rounded-card bg-white p-4 shadow-card sm:p-6">
-      <h2 id={id} className="text-lg font-bold text-ink-900">
-        {title}
-      </h2>
-      {hint && <p className="mt-1 text-sm text-ink-700">{hint}</p>}
-      <div className="mt-3 grid grid-cols-[minmax(0,1fr)] gap-4">{children}</div>
-    </section>
-  );
-}
+import { PhotoFields } from './photo-fields';
 
 /** When staff are offered the tip for one tap; folded away until wanted. */
 function TriggerFields() {
@@ -180,7 +161,7 @@ export function TipComposer({ tip }: { tip: CareTip | null }) {
         );
       }}
     >
-      <ComposerSection title="The tip">
+      <SectionCard title="The tip">
         <TextField<TipFormValues> name="title" label="Title" maxLength={160} autoComplete="off" />
         <RadioGroupField<TipFormValues>
           name="category"
@@ -189,19 +170,25 @@ export function TipComposer({ tip }: { tip: CareTip | null }) {
           options={tipCategories.map((value) => ({ value, label: tipCategoryLabels[value] }))}
         />
         <BodyEditor />
-      </ComposerSection>
-      <ComposerSection title="Who it is for">
+      </SectionCard>
+      <SectionCard
+        title="Photo"
+        hint="Optional: one of a tank’s photos. Photos are uploaded on the tank’s page, not here."
+      >
+        <PhotoFields />
+      </SectionCard>
+      <SectionCard title="Who it is for">
         <AudienceFields />
-      </ComposerSection>
-      <ComposerSection
+      </SectionCard>
+      <SectionCard
         title="Suggest it to staff"
         hint="Offered for one tap to staff at a tank that has not received it yet."
       >
         <TriggerFields />
-      </ComposerSection>
-      <ComposerSection title="Send">
+      </SectionCard>
+      <SectionCard title="Send">
         <SendFields status={tip?.status ?? null} />
-      </ComposerSection>
+      </SectionCard>
     </Form>
   );
 }

@@ -1,12 +1,14 @@
-import { useId, type ReactNode } from 'react';
+import { useId } from 'react';
 import { livestockGroupLabels } from '@shared/livestock/species';
 import { tankStyleLabels } from '@shared/parameters/limit-templates';
 import { triggerWords, type CareTip, type TipAudience } from '@shared/schemas/care-tips';
 import { equipmentKindLabels } from '@shared/schemas/equipment';
 import { visitTaskLabels } from '@shared/schemas/visits';
 import { Markdown } from '../../../components/markdown';
+import { SectionCard } from '../../../components/section-card';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { TipCategoryBadge, TipStatusBadge } from '../../../components/tip-badges';
+import { TipPhoto } from '../../../components/tip-photo';
 import { formatCount, formatDateTime } from '../../../lib/format';
 import { useSpecies } from '../../../lib/queries/species';
 import { useTanks } from '../../../lib/queries/tanks';
@@ -15,18 +17,6 @@ import { tipMoment } from './care-tip-list';
 
 const plural = (count: number, one: string, many: string) =>
   `${formatCount(count)} ${count === 1 ? one : many}`;
-
-function Card({ title, children }: { title: string; children: ReactNode }) {
-  const id = useId();
-  return (
-    <section aria-labelledby={id} className="min-w-0 rounded-card bg-white p-4 shadow-card sm:p-6">
-      <h2 id={id} className="text-lg font-bold text-ink-900">
-        {title}
-      </h2>
-      <div className="mt-3">{children}</div>
-    </section>
-  );
-}
 
 function AudienceWords({ audience }: { audience: TipAudience }) {
   const species = useSpecies(audience.kind === 'species' ? audience.speciesId : null);
@@ -131,16 +121,17 @@ export function TipDetail({ tip, notice }: { tip: CareTip; notice: string | null
       </div>
       <div className="grid gap-4">
         <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-          <Card title="As owners read it">
+          <SectionCard title="As owners read it">
             <article>
               <div className="flex flex-wrap gap-2">
                 <TipCategoryBadge category={tip.category} />
               </div>
               <p className="mt-2 text-lg font-bold text-ink-900">{tip.title}</p>
+              {tip.photoId && <TipPhoto photoId={tip.photoId} title={tip.title} className="mt-3" />}
               <Markdown source={tip.body} className="mt-2" />
             </article>
-          </Card>
-          <Card title="About it">
+          </SectionCard>
+          <SectionCard title="About it">
             <dl className="grid gap-3">
               <div>
                 <dt className="text-sm font-bold text-ink-700">Where it stands</dt>
@@ -180,12 +171,12 @@ export function TipDetail({ tip, notice }: { tip: CareTip; notice: string | null
                 </div>
               )}
             </dl>
-          </Card>
+          </SectionCard>
         </div>
         {tip.status !== 'draft' && tip.status !== 'scheduled' && (
-          <Card title="Who it reached">
+          <SectionCard title="Who it reached">
             <Reach tip={tip} />
-          </Card>
+          </SectionCard>
         )}
       </div>
     </div>

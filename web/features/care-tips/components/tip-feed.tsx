@@ -5,6 +5,7 @@ import { FieldError } from '../../../components/form-fields';
 import { Markdown } from '../../../components/markdown';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { TipCategoryBadge } from '../../../components/tip-badges';
+import { TipPhoto } from '../../../components/tip-photo';
 import { can, useMe } from '../../../lib/auth';
 import { problemMessage } from '../../../lib/form-issues';
 import { formatDate, formatDateTime } from '../../../lib/format';
@@ -84,6 +85,7 @@ function TipCard({
         </p>
       )}
       <div id={`${id}-body`} hidden={!open}>
+        {item.photoId && <TipPhoto photoId={item.photoId} title={item.title} className="mt-3" />}
         <Markdown source={item.body} className="mt-2" />
         {canMark && <HelpfulToggle item={item} />}
       </div>

@@ -28,8 +28,9 @@ const tipFormFields = z.object({
   title: fields.title,
   body: fields.body,
   category: z.enum(tipCategories, { error: 'choose a category' }),
-  /** Kept as it was: this version of the composer does not pick photos. */
   photoId: z.uuid().nullable(),
+  /** The tank whose photos are shown to choose from; only the photo itself is sent. */
+  photoTankId: z.string(),
   audienceKind: z.enum(audienceKinds, { error: 'choose who it is for' }),
   style: z.string(),
   speciesId: z.string(),
@@ -126,6 +127,7 @@ export function tipFormValues(tip: CareTip | null): TipFormValues {
     body: tip?.body ?? '',
     category: tip?.category ?? ('' as TipFormValues['category']),
     photoId: tip?.photoId ?? null,
+    photoTankId: '',
     audienceKind: audience.kind,
     style: audience.kind === 'style' ? audience.style : '',
     speciesId: audience.kind === 'species' ? audience.speciesId : '',
@@ -149,6 +151,6 @@ export function tipFieldFor(path: string): string | null {
     return field === 'style' || field === 'speciesId' || field === 'equipmentKind' ? field : 'audienceKind';
   }
   if (path.startsWith('suggestWhen')) return 'suggestGroups';
-  if (path === 'title' || path === 'body' || path === 'category') return path;
+  if (path === 'title' || path === 'body' || path === 'category' || path === 'photoId') return path;
   return null;
 }

@@ -5,7 +5,7 @@ import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { problemMessage } from '../../../lib/form-issues';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { useDeletePhoto } from '../api/delete-photo';
-import { useTankPhotos } from '../api/get-tank-photos';
+import { useTankPhotos } from '../../../lib/queries/photos';
 import { useUpdateTank } from '../api/update-tank';
 import { PhotoUploader } from '../../../components/photo-uploader';
 

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link } from 'react-router';
 import { timelineKindNames, type TimelineEntry } from '@shared/schemas/timeline';
 import { Markdown } from '../../../components/markdown';
+import { TipPhoto } from '../../../components/tip-photo';
 import { formatDateTime, formatTime } from '../../../lib/format';
 import { KindIcon, kindTones } from './kind-icon';
 
@@ -62,6 +63,7 @@ export function TimelineEntryItem({ entry, highlighted }: { entry: TimelineEntry
             <summary className="flex min-h-11 cursor-pointer items-center font-bold text-brine-700">
               Read the whole tip
             </summary>
+            {entry.photoId && <TipPhoto photoId={entry.photoId} title={entry.title} className="mt-1" />}
             <Markdown source={entry.body} className="mt-1 text-ink-900" />
           </details>
         )}

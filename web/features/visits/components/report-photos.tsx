@@ -7,7 +7,7 @@ import { ApiError } from '../../../lib/api-client';
 import { forgetLocal, keepLocally, localKeys, readLocal } from '../../../lib/offline-store';
 import { uploadPhoto } from '../../../lib/queries/photos';
 import type { ReportFormValues } from '../utils/report-form';
-import { ReportSection } from './report-sections';
+import { SectionCard } from '../../../components/section-card';
 
 /*
  * Before and after photos. A photo taken without a connection is kept on the phone (IndexedDB) and
@@ -110,7 +110,7 @@ export function PhotosSection({ tankId, visitId }: { tankId: string; visitId: st
   };
 
   return (
-    <ReportSection title="Photos" hint="Before and after; owners see them once the report is published.">
+    <SectionCard title="Photos" hint="Before and after; owners see them once the report is published.">
       {(fields.length > 0 || waiting.length > 0) && (
         <ul className="grid grid-cols-2 gap-2 sm:grid-cols-4" aria-label="Report photos">
           {fields.map((field, index) => (
@@ -183,6 +183,6 @@ export function PhotosSection({ tankId, visitId }: { tankId: string; visitId: st
           {problem}
         </p>
       )}
-    </ReportSection>
+    </SectionCard>
   );
 }

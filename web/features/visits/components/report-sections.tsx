@@ -1,4 +1,4 @@
-import { useId, useState, type ReactNode } from 'react';
+import { useId, useState } from 'react';
 import { z } from 'zod';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { concentrationAfterWaterChanges } from '@shared/chemistry/index';
@@ -15,6 +15,7 @@ import {
   type LivestockChange,
 } from '@shared/schemas/visits';
 import { Button } from '../../../components/button';
+import { SectionCard } from '../../../components/section-card';
 import { CompatibilityWarnings } from '../../../components/compatibility-warnings';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import {
@@ -38,37 +39,12 @@ import { useLivestock } from '../../../lib/queries/livestock';
 import { useCompatibility, useSpeciesSearch } from '../api/get-report-context';
 import { litresFor, percentFor, wallText, type ReportFormValues } from '../utils/report-form';
 
-/** One titled block of the report; on a phone each reads as its own card. */
-export function ReportSection({
-  title,
-  hint,
-  children,
-}: {
-  title: string;
-  hint?: ReactNode;
-  children: ReactNode;
-}) {
-  const id = useId();
-  return (
-    <section aria-labelledby={id} className="min-w-0 rounded-card bg-white p-4 shadow-card sm:p-6">
-      <h2 id={id} className="text-lg font-bold text-ink-900">
-        {title}
-      </h2>
-      {hint && <p className="mt-1 text-sm text-ink-700">{hint}</p>}
-      <div className="mt-3 grid grid-cols-[minmax(0,1fr)] gap-4">{children}</div>
-    </section>
-  );
-}
-
 const nowIn = (zone: string) => wallText(new Date().toISOString(), zone);
 
 export function TimesSection({ zone }: { zone: string }) {
   const { setValue } = useFormContext<ReportFormValues>();
   return (
-    <ReportSection
-      title="Time on site"
-      hint={`Times are the tank’s local time (${zone.replace(/_/g, ' ')}).`}
-    >
+    <SectionCard title="Time on site" hint={`Times are the tank’s local time (${zone.replace(/_/g, ' ')}).`}>
       <div className="grid gap-3 sm:grid-cols-2">
         {(['arrivedAt', 'departedAt'] as const).map((name) => (
           <div key={name} className="flex flex-wrap items-end gap-2">
@@ -88,7 +64,7 @@ export function TimesSection({ zone }: { zone: string }) {
           </div>
         ))}
       </div>
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -96,14 +72,14 @@ export function TimesSection({ zone }: { zone: string }) {
 export function CarriedItemsSection({ items }: { items: readonly CarriedItem[] }) {
   if (items.length === 0) return null;
   return (
-    <ReportSection title="Carried from earlier visits" hint="Tick what you finished today.">
+    <SectionCard title="Carried from earlier visits" hint="Tick what you finished today.">
       <CheckboxGroupField<ReportFormValues>
         name="closedItemIds"
         label="Open items"
         columns="mt-1 grid gap-2"
         options={items.map((item) => ({ value: item.id, label: item.text }))}
       />
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -118,7 +94,7 @@ export function ChecklistSection({
 }) {
   const tasks = useWatch<ReportFormValues, 'tasksDone'>({ name: 'tasksDone' });
   return (
-    <ReportSection title="What was done" hint="Tick each task; the ones with details open below it.">
+    <SectionCard title="What was done" hint="Tick each task; the ones with details open below it.">
       <CheckboxGroupField<ReportFormValues>
         name="tasksDone"
         label="Tasks"
@@ -130,7 +106,7 @@ export function ChecklistSection({
       )}
       {tasks.includes('dosing-refill') && <DosingFields />}
       {tasks.includes('equipment-check') && <EquipmentFields tankId={tankId} />}
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -304,7 +280,7 @@ export function ReadingsSection({
   const readings = useWatch<ReportFormValues, 'readings'>({ name: 'readings' });
   const parameters = parametersFor(waterType);
   return (
-    <ReportSection
+    <SectionCard
       title="Readings taken"
       hint="Stored with the tank’s readings when the report is published, and checked against its limits."
     >
@@ -347,7 +323,7 @@ export function ReadingsSection({
       >
         Add a reading
       </Button>
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -374,7 +350,7 @@ export function LivestockSection({ tankId, waterType }: { tankId: string; waterT
       : 'Livestock';
   };
   return (
-    <ReportSection
+    <SectionCard
       title="Livestock"
       hint="Written to the tank’s livestock and its history when the report is published."
     >
@@ -434,7 +410,7 @@ export function LivestockSection({ tankId, waterType }: { tankId: string; waterT
           }}
         />
       )}
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -615,10 +591,7 @@ export function NotesSection() {
   const [preview, setPreview] = useState(false);
   const previewId = useId();
   return (
-    <ReportSection
-      title="Notes for the owner"
-      hint="Plain words; Markdown such as **bold** and lists is kept."
-    >
+    <SectionCard title="Notes for the owner" hint="Plain words; Markdown such as **bold** and lists is kept.">
       <TextAreaField<ReportFormValues> name="notes" label="Notes" rows={6} />
       <div>
         <Button
@@ -638,7 +611,7 @@ export function NotesSection() {
             ))}
         </div>
       </div>
-    </ReportSection>
+    </SectionCard>
   );
 }
 
@@ -648,7 +621,7 @@ export function NextSection() {
     formState: { errors },
   } = useFormContext<ReportFormValues>();
   return (
-    <ReportSection
+    <SectionCard
       title="Next time"
       hint="Items stay on the tank’s checklist until a later visit ticks them off."
     >
@@ -682,6 +655,6 @@ export function NextSection() {
         </div>
         {errors.nextVisit?.message && <FieldError>{errors.nextVisit.message}</FieldError>}
       </fieldset>
-    </ReportSection>
+    </SectionCard>
   );
 }
