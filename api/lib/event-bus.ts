@@ -6,10 +6,12 @@ const channel = 'brinewatch_events';
 
 /** What travels between API processes: who should hear about it, and what to refetch. */
 export interface AppEvent {
-  type: 'alert' | 'notification';
+  type: 'alert' | 'notification' | 'conversation' | 'urgent';
   userIds: string[];
   tankId?: string;
   alertId?: string;
+  conversationId?: string;
+  requestId?: string;
 }
 
 /** Sends an event to every API process (PostgreSQL NOTIFY; the payload stays far below 8 kB). */

@@ -2,11 +2,11 @@ import type { AppDeps } from '../deps';
 import type { AppEvent } from '../lib/event-bus';
 import type { Actor } from './actors';
 
-/** What a screen needs to know to refetch: which tank and alert changed. */
-export type LiveEventData = Pick<AppEvent, 'tankId' | 'alertId'>;
+/** What a screen needs to know to refetch: which tank, alert, conversation or urgent request changed. */
+export type LiveEventData = Pick<AppEvent, 'tankId' | 'alertId' | 'conversationId' | 'requestId'>;
 
 /**
- * Every alert or notification event (from any API process, through LISTEN/NOTIFY) addressed to
+ * Every alert, notification, conversation or urgent-request event (from any API process, through LISTEN/NOTIFY) addressed to
  * this person, as a small "refetch this" message. Returns how to stop listening, or null where
  * this process has no listener (API-only tests).
  */
@@ -18,6 +18,11 @@ export function subscribeToEvents(
   if (!deps.events) return null;
   return deps.events.on((event) => {
     if (!event.userIds.includes(actor.id)) return;
-    onEvent(event.type, { tankId: event.tankId, alertId: event.alertId });
+    onEvent(event.type, {
+      tankId: event.tankId,
+      alertId: event.alertId,
+      conversationId: event.conversationId,
+      requestId: event.requestId,
+    });
   });
 }

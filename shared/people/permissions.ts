@@ -51,6 +51,16 @@ export const permissions = {
   // Owners read the tips their tanks received and mark them helpful; staff write and send them.
   'care-tips:read': everyone,
   'care-tips:write': staff,
+  // A conversation per tank between its owners and the staff; internal notes and the inbox are staff-only.
+  'conversations:read': everyone,
+  'conversations:write': everyone,
+  'conversations:notes': staff,
+  'conversations:inbox': staff,
+  // Owners ask for urgent visits (staff may file one for a client who phoned); staff move them on.
+  'urgent:request': everyone,
+  'urgent:read': everyone,
+  'urgent:manage': staff,
+  'urgent:settings': admins,
 } satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

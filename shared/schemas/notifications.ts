@@ -26,6 +26,21 @@ export const notificationPreferences = z.object({
   ]),
   /** Where care tips the company sends for a person's tanks reach them. */
   careTips: distinctList(notificationChannel, 2 * notificationChannels.length).default(['in-app', 'email']),
+  /**
+   * Where a new message in a tank's conversation reaches a person: in the app, a push per message,
+   * and one e-mail once a message has waited unread for 10 minutes.
+   */
+  messages: distinctList(notificationChannel, 2 * notificationChannels.length).default([
+    'in-app',
+    'email',
+    'push',
+  ]),
+  /** Where each change of an urgent visit request reaches the owners who follow it. */
+  urgentUpdates: distinctList(notificationChannel, 2 * notificationChannels.length).default([
+    'in-app',
+    'email',
+    'push',
+  ]),
 });
 export type NotificationPreferences = z.infer<typeof notificationPreferences>;
 
@@ -37,6 +52,8 @@ export const defaultNotificationPreferences: NotificationPreferences = {
   timeZone: 'UTC',
   visitReports: ['in-app', 'email', 'push'],
   careTips: ['in-app', 'email'],
+  messages: ['in-app', 'email', 'push'],
+  urgentUpdates: ['in-app', 'email', 'push'],
 };
 
 export const pushSubscriptionInput = z.object({

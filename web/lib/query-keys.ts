@@ -94,3 +94,24 @@ export const tipKeys = {
   feeds: () => [...tipKeys.all, 'feed'] as const,
   feed: (tankId: string | null) => [...tipKeys.feeds(), tankId ?? 'all'] as const,
 };
+
+/**
+ * Conversations: one thread per tank (its pages), the staff inbox and the unread counts in the
+ * header. A live "conversation" event invalidates them all; only what is on screen refetches.
+ */
+export const conversationKeys = {
+  all: ['conversations'] as const,
+  thread: (tankId: string) => [...conversationKeys.all, 'thread', tankId] as const,
+  summary: (tankId: string) => [...conversationKeys.all, 'summary', tankId] as const,
+  inbox: (query: object) => [...conversationKeys.all, 'inbox', query] as const,
+  unread: () => [...conversationKeys.all, 'unread'] as const,
+};
+
+/** Urgent visit requests: the staff board, each request, a tank's requests and the company's settings. */
+export const urgentKeys = {
+  all: ['urgent-requests'] as const,
+  board: (query: object) => [...urgentKeys.all, 'board', query] as const,
+  detail: (requestId: string) => [...urgentKeys.all, 'detail', requestId] as const,
+  tank: (tankId: string) => [...urgentKeys.all, 'tank', tankId] as const,
+  settings: () => ['urgent-settings'] as const,
+};

@@ -22,6 +22,8 @@ import { tanks } from './tanks';
 import { users } from './users';
 import { careTips } from './care-tips';
 import { visits } from './visits';
+import { conversationMessages, conversations } from './conversations';
+import { urgentRequestEvents } from './urgent-requests';
 
 export const alertKind = pgEnum('alert_kind', alertKinds);
 export const alertSeverity = pgEnum('alert_severity', alertSeverities);
@@ -153,10 +155,16 @@ export const deliveries = pgTable(
   'deliveries',
   {
     id: id(),
-    /** What is being told: an alert event, a published visit report or a care tip (exactly one). */
+    /**
+     * What is being told (exactly one): an alert event, a published visit report, a care tip, a
+     * conversation message (a push per message; the unread e-mail names the newest it covers) or a
+     * change of an urgent visit request.
+     */
     alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
     visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
     tipId: uuid('tip_id').references(() => careTips.id, { onDelete: 'cascade' }),
+    messageId: uuid('message_id').references(() => conversationMessages.id, { onDelete: 'cascade' }),
+    urgentEventId: uuid('urgent_event_id').references(() => urgentRequestEvents.id, { onDelete: 'cascade' }),
     userId: uuid('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -172,7 +180,12 @@ export const deliveries = pgTable(
     uniqueIndex('deliveries_once_key').on(t.alertEventId, t.channel, t.destination),
     uniqueIndex('deliveries_visit_once_key').on(t.visitId, t.channel, t.destination),
     uniqueIndex('deliveries_tip_once_key').on(t.tipId, t.channel, t.destination),
-    check('deliveries_one_subject', sql`num_nonnulls(${t.alertEventId}, ${t.visitId}, ${t.tipId}) = 1`),
+    uniqueIndex('deliveries_message_once_key').on(t.messageId, t.channel, t.destination),
+    uniqueIndex('deliveries_urgent_once_key').on(t.urgentEventId, t.channel, t.destination),
+    check(
+      'deliveries_one_subject',
+      sql`num_nonnulls(${t.alertEventId}, ${t.visitId}, ${t.tipId}, ${t.messageId}, ${t.urgentEventId}) = 1`,
+    ),
     index('deliveries_status_idx').on(t.status, t.createdAt),
   ],
 );
@@ -189,6 +202,9 @@ export const notifications = pgTable(
     alertEventId: uuid('alert_event_id').references(() => alertEvents.id, { onDelete: 'cascade' }),
     visitId: uuid('visit_id').references(() => visits.id, { onDelete: 'cascade' }),
     tipId: uuid('tip_id').references(() => careTips.id, { onDelete: 'cascade' }),
+    /** One per person and conversation, brought back to unread by each new message. */
+    conversationId: uuid('conversation_id').references(() => conversations.id, { onDelete: 'cascade' }),
+    urgentEventId: uuid('urgent_event_id').references(() => urgentRequestEvents.id, { onDelete: 'cascade' }),
     severity: alertSeverity('severity').notNull(),
     title: text('title').notNull(),
     body: text('body').notNull(),
@@ -201,10 +217,12 @@ export const notifications = pgTable(
     uniqueIndex('notifications_once_key').on(t.userId, t.alertEventId),
     uniqueIndex('notifications_visit_once_key').on(t.userId, t.visitId),
     uniqueIndex('notifications_tip_once_key').on(t.userId, t.tipId),
+    uniqueIndex('notifications_conversation_key').on(t.userId, t.conversationId),
+    uniqueIndex('notifications_urgent_once_key').on(t.userId, t.urgentEventId),
   ],
 );
 
-/** Who answers out of hours: critical alerts also go to whoever is on call now. */
+/** Who answers out of hours: critical alerts and urgent visit requests go to whoever is on call now. */
 export const onCallShifts = pgTable(
   'on_call_shifts',
   {

@@ -1,22 +1,42 @@
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
 import { useMe } from '../../lib/auth';
-import { alertKeys, notificationKeys, tankKeys } from '../../lib/query-keys';
+import { alertKeys, conversationKeys, notificationKeys, tankKeys, urgentKeys } from '../../lib/query-keys';
 
-export type LiveEventType = 'alert' | 'notification';
+export type LiveEventType = 'alert' | 'notification' | 'conversation' | 'urgent';
 
 /** What the server says changed; the client refetches rather than trusting a payload. */
 export interface LiveEventData {
+  type?: LiveEventType;
   tankId?: string;
   alertId?: string;
+  conversationId?: string;
+  requestId?: string;
 }
 
 const streamUrl = '/api/events';
 /** After the stream gives up for good (a refused or failed connection), try again this much later. */
 const reopenAfterMs = 30_000;
 
-/** Marks stale what an alert change touches: every alert list and detail, the tanks, and the inbox. */
-export function refreshAfterLiveEvent(queryClient: QueryClient) {
+/**
+ * Marks stale what an event touches. A message refreshes the conversations (threads, inbox, unread
+ * counts) and the notification inbox; an urgent request's change, the requests and the tank's page
+ * (its timeline); anything else (an alert, a notification, a reconnect) everything below.
+ */
+export function refreshAfterLiveEvent(queryClient: QueryClient, data: LiveEventData = {}) {
+  if (data.type === 'conversation') {
+    void queryClient.invalidateQueries({ queryKey: conversationKeys.all });
+    void queryClient.invalidateQueries({ queryKey: notificationKeys.inbox });
+    return;
+  }
+  if (data.type === 'urgent') {
+    void queryClient.invalidateQueries({ queryKey: urgentKeys.all });
+    void queryClient.invalidateQueries({ queryKey: notificationKeys.inbox });
+    if (data.tankId) void queryClient.invalidateQueries({ queryKey: tankKeys.detail(data.tankId) });
+    return;
+  }
+  void queryClient.invalidateQueries({ queryKey: conversationKeys.all });
+  void queryClient.invalidateQueries({ queryKey: urgentKeys.all });
   void queryClient.invalidateQueries({ queryKey: alertKeys.all });
   void queryClient.invalidateQueries({ queryKey: notificationKeys.inbox });
   // An alert changes with the readings behind it, and tank lists and pages show both. Alert
@@ -25,16 +45,20 @@ export function refreshAfterLiveEvent(queryClient: QueryClient) {
   void queryClient.invalidateQueries({ queryKey: tankKeys.all });
 }
 
-function parseData(raw: unknown): LiveEventData {
-  if (typeof raw !== 'string') return {};
+function parseData(type: LiveEventType, raw: unknown): LiveEventData {
+  if (typeof raw !== 'string') return { type };
+  const text = (value: unknown) => (typeof value === 'string' ? value : undefined);
   try {
     const data = JSON.parse(raw) as Record<string, unknown>;
     return {
-      tankId: typeof data.tankId === 'string' ? data.tankId : undefined,
-      alertId: typeof data.alertId === 'string' ? data.alertId : undefined,
+      type,
+      tankId: text(data.tankId),
+      alertId: text(data.alertId),
+      conversationId: text(data.conversationId),
+      requestId: text(data.requestId),
     };
   } catch {
-    return {};
+    return { type };
   }
 }
 
@@ -52,8 +76,8 @@ export function openLiveEvents(onChange: (data?: LiveEventData) => void): () => 
   const connect = () => {
     source = new EventSource(streamUrl);
     source.addEventListener('ready', () => onChange());
-    for (const type of ['alert', 'notification'] satisfies LiveEventType[]) {
-      source.addEventListener(type, (event) => onChange(parseData((event as MessageEvent).data)));
+    for (const type of ['alert', 'notification', 'conversation', 'urgent'] satisfies LiveEventType[]) {
+      source.addEventListener(type, (event) => onChange(parseData(type, (event as MessageEvent).data)));
     }
     source.addEventListener('error', () => {
       if (source?.readyState !== EventSource.CLOSED || stopped) return;
@@ -76,6 +100,6 @@ export function useLiveEvents() {
   const personId = me?.id;
   useEffect(() => {
     if (!personId || typeof EventSource === 'undefined') return;
-    return openLiveEvents(() => refreshAfterLiveEvent(queryClient));
+    return openLiveEvents((data) => refreshAfterLiveEvent(queryClient, data));
   }, [personId, queryClient]);
 }

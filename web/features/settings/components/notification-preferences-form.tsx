@@ -29,8 +29,10 @@ const severityHelp: Record<AlertSeverity, string> = {
 const { push, email, inApp, timeZone } = notificationPreferences.shape;
 const visitReports = notificationPreferences.shape.visitReports.unwrap();
 const careTips = notificationPreferences.shape.careTips.unwrap();
+const messages = notificationPreferences.shape.messages.unwrap();
+const urgentUpdates = notificationPreferences.shape.urgentUpdates.unwrap();
 const clockTimes = notificationPreferences.shape.quietHours.unwrap().shape;
-const choices = { push, email, inApp, timeZone, visitReports, careTips };
+const choices = { push, email, inApp, timeZone, visitReports, careTips, messages, urgentUpdates };
 const preferencesForm = z
   .discriminatedUnion('holdBack', [
     z.object({
@@ -53,6 +55,13 @@ const preferencesForm = z
   }));
 type PreferencesFormValues = z.input<typeof preferencesForm>;
 
+/** The channels a piece of news (a report, a message, a request's change, a tip) can take. */
+const newsChannels = [
+  { value: 'push', label: 'Push' },
+  { value: 'email', label: 'E-mail' },
+  { value: 'in-app', label: 'In the app' },
+] as const;
+
 const formValues = (preferences: NotificationPreferences): PreferencesFormValues => ({
   push: preferences.push,
   email: preferences.email,
@@ -60,6 +69,8 @@ const formValues = (preferences: NotificationPreferences): PreferencesFormValues
   timeZone: preferences.timeZone,
   visitReports: preferences.visitReports,
   careTips: preferences.careTips,
+  messages: preferences.messages,
+  urgentUpdates: preferences.urgentUpdates,
   holdBack: preferences.quietHours !== null,
   quietHours: preferences.quietHours ?? { start: '22:00', end: '07:00' },
 });
@@ -191,11 +202,25 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
         hint="When the company publishes the report of a visit to your tank."
         className="mt-6 rounded-lg border border-ink-100 p-3"
         columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
-        options={[
-          { value: 'push', label: 'Push' },
-          { value: 'email', label: 'E-mail' },
-          { value: 'in-app', label: 'In the app' },
-        ]}
+        options={newsChannels}
+      />
+
+      <CheckboxGroupField
+        name="messages"
+        label="Messages"
+        hint="A new message in a tank’s conversation. E-mail comes once, when a message has waited unread for 10 minutes."
+        className="mt-6 rounded-lg border border-ink-100 p-3"
+        columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
+        options={newsChannels}
+      />
+
+      <CheckboxGroupField
+        name="urgentUpdates"
+        label="Urgent visit requests"
+        hint="Each change of an urgent visit you asked for: acknowledged, on the way, on site, resolved."
+        className="mt-6 rounded-lg border border-ink-100 p-3"
+        columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
+        options={newsChannels}
       />
 
       <CheckboxGroupField
@@ -204,11 +229,7 @@ export function NotificationPreferencesForm({ initial }: { initial: Notification
         hint="When the company sends advice about caring for your tank."
         className="mt-6 rounded-lg border border-ink-100 p-3"
         columns="mt-2 flex flex-wrap gap-1.5 sm:grid sm:grid-cols-3 sm:gap-2"
-        options={[
-          { value: 'push', label: 'Push' },
-          { value: 'email', label: 'E-mail' },
-          { value: 'in-app', label: 'In the app' },
-        ]}
+        options={newsChannels}
       />
 
       <fieldset className="mt-6">
