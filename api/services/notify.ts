@@ -409,7 +409,7 @@ export async function pendingFanOuts(deps: AppDeps, olderThanMs: number) {
  */
 
 /** The tank's owners (the people a report is written for), active ones only. */
-async function ownersOf(deps: AppDeps, tankId: string) {
+export async function ownersOf(deps: AppDeps, tankId: string) {
   return deps.db
     .select({
       id: users.id,
@@ -425,7 +425,7 @@ async function ownersOf(deps: AppDeps, tankId: string) {
     .where(and(eq(tankMembers.tankId, tankId), eq(users.status, 'active')));
 }
 
-type NewsReader = Awaited<ReturnType<typeof ownersOf>>[number];
+export type NewsReader = Awaited<ReturnType<typeof ownersOf>>[number];
 
 /** Seconds from `now` until the person's quiet hours end, on their own clock. */
 function secondsUntilQuietEnd(preferences: NotificationPreferences, now: Date): number {
@@ -436,9 +436,19 @@ function secondsUntilQuietEnd(preferences: NotificationPreferences, now: Date): 
 }
 
 /** One piece of news as each channel tells it. */
-interface News {
-  /** The row it is about, as notifications and deliveries name it. */
-  subject: { visitId: string } | { tipId: string };
+export interface News {
+  /** The row it is about, as deliveries (and, but for a message, notifications) name it. */
+  subject: { visitId: string } | { tipId: string } | { messageId: string } | { urgentEventId: string };
+  /**
+   * A conversation's news shares one in-app notification per person and conversation, brought back
+   * to unread (with the newest words) by each message, instead of one per message.
+   */
+  conversationId?: string;
+  /**
+   * 'high' (an urgent visit request): the push goes at once with RFC 8030 Urgency high, whatever
+   * the quiet hours, and the in-app notification is critical. Default: news, which never rings at night.
+   */
+  urgency?: 'high' | 'normal';
   /** Names it in push tags and topics ("visit-…", "tip-…"). */
   tag: string;
   tankId: string;
@@ -493,7 +503,7 @@ async function loadVisitNews(deps: AppDeps, visitId: string): Promise<News | nul
  * (notification per person and subject, delivery per subject, channel and destination), so telling
  * them again sends nothing twice.
  */
-async function tellPerson(
+export async function tellPerson(
   deps: AppDeps,
   person: NewsReader,
   channels: readonly NotificationChannel[],
@@ -501,22 +511,33 @@ async function tellPerson(
   now: Date,
 ) {
   const { preferences } = readPreferences(person.preferences, person.timeZone);
+  const urgent = news.urgency === 'high';
   if (channels.includes('in-app')) {
-    await deps.db
-      .insert(notifications)
-      .values({
-        userId: person.id,
-        ...news.subject,
-        severity: 'notice',
-        title: news.title,
-        body: news.body,
-        link: news.link,
-      })
-      .onConflictDoNothing();
+    const notice = {
+      userId: person.id,
+      severity: urgent ? ('critical' as const) : ('notice' as const),
+      title: news.title,
+      body: news.body,
+      link: news.link,
+    };
+    if (news.conversationId) {
+      await deps.db
+        .insert(notifications)
+        .values({ ...notice, conversationId: news.conversationId })
+        .onConflictDoUpdate({
+          target: [notifications.userId, notifications.conversationId],
+          set: { title: notice.title, body: notice.body, link: notice.link, readAt: null, createdAt: now },
+        });
+    } else if (!('messageId' in news.subject)) {
+      await deps.db
+        .insert(notifications)
+        .values({ ...notice, ...news.subject })
+        .onConflictDoNothing();
+    }
   }
-  // News is never urgent: in quiet hours the e-mail still goes (it rings nothing), and the push
-  // waits until the quiet hours end.
-  const holdPushS = inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
+  // News is rarely urgent: in quiet hours the e-mail still goes (it rings nothing), and the push
+  // waits until the quiet hours end. An urgent request's push goes at once.
+  const holdPushS = !urgent && inQuietHours(preferences, now) ? secondsUntilQuietEnd(preferences, now) : 0;
   const planned: Array<{ channel: 'email' | 'push'; destination: string }> = [];
   if (channels.includes('email')) planned.push({ channel: 'email', destination: person.email });
   if (channels.includes('push')) planned.push(...(await pushDestinations(deps, person.id)));
@@ -567,9 +588,9 @@ export async function fanOutVisitReport(deps: AppDeps, visitId: string) {
 }
 
 /** Short enough for a notification list and a push payload (RFC 8291 leaves about 3,900 bytes). */
-const newsBodyLength = 280;
+export const newsBodyLength = 280;
 
-function firstWords(text: string, max: number): string {
+export function firstWords(text: string, max: number): string {
   const flat = text.replace(/\s+/g, ' ').trim();
   if (flat.length <= max) return flat;
   const cut = flat.slice(0, max - 1);
@@ -679,9 +700,12 @@ async function loadNewsDelivery(deps: AppDeps, deliveryId: string) {
   return news ? { delivery, news } : null;
 }
 
-type NewsDelivery = NonNullable<Awaited<ReturnType<typeof loadNewsDelivery>>>;
+export interface NewsDelivery {
+  delivery: typeof deliveries.$inferSelect;
+  news: News;
+}
 
-async function deliverNewsEmail(deps: AppDeps, { delivery, news }: NewsDelivery) {
+export async function deliverNewsEmail(deps: AppDeps, { delivery, news }: NewsDelivery) {
   const origin = appOrigin(deps.env);
   const link = `${origin}${news.link}`;
   const preferencesLink = `${origin}/settings/notifications`;
@@ -725,7 +749,7 @@ function topicOf(tag: string): string {
   return `${kind}-${id.join('')}`.slice(0, 32);
 }
 
-async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) {
+export async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) {
   if (!deps.push) return;
   const subscription = await subscriptionFor(deps, delivery);
   if (!subscription) return;
@@ -738,7 +762,9 @@ async function deliverNewsPush(deps: AppDeps, { delivery, news }: NewsDelivery) 
       body: news.body,
       url: news.link,
     },
-    { ttlSeconds: 3 * 24 * 3600, urgency: 'normal', topic: topicOf(news.tag) },
+    news.urgency === 'high'
+      ? { ttlSeconds: 24 * 3600, urgency: 'high', topic: topicOf(news.tag) }
+      : { ttlSeconds: 3 * 24 * 3600, urgency: 'normal', topic: topicOf(news.tag) },
   );
   await settlePush(deps, delivery.id, subscription.id, outcome);
 }

@@ -1,18 +1,12 @@
 import { eq } from 'drizzle-orm';
+import { deliverEmailJob, deliverPushJob } from './deliver';
 import type { Job } from 'pg-boss';
 import type { AppDeps } from '../deps';
 import { deliveries } from '../db/schema/index';
 import { queues } from '../lib/job-queue';
 import { afterAlertEvents } from './alerts';
 import { deliverTip, sendDueTips } from './care-tips';
-import {
-  deliverEmail,
-  deliverPush,
-  fanOutAlertEvent,
-  fanOutCareTip,
-  fanOutVisitReport,
-  pendingFanOuts,
-} from './notify';
+import { fanOutAlertEvent, fanOutCareTip, fanOutVisitReport, pendingFanOuts } from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
 
@@ -42,14 +36,14 @@ export async function startWorkers(deps: AppDeps) {
     queues.email,
     { pollingIntervalSeconds: 1 },
     async (jobs: Job<DeliveryJob>[]) => {
-      for (const job of jobs) await deliverEmail(deps, job.data.deliveryId);
+      for (const job of jobs) await deliverEmailJob(deps, job.data.deliveryId);
     },
   );
   await boss.work<DeliveryJob>(
     queues.push,
     { pollingIntervalSeconds: 1 },
     async (jobs: Job<DeliveryJob>[]) => {
-      for (const job of jobs) await deliverPush(deps, job.data.deliveryId);
+      for (const job of jobs) await deliverPushJob(deps, job.data.deliveryId);
     },
   );
   // Out of retries: the delivery is marked failed, which staff see on the deliveries list.

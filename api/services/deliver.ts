@@ -1,0 +1,31 @@
+import { eq } from 'drizzle-orm';
+import type { AppDeps } from '../deps';
+import { deliveries } from '../db/schema/index';
+import { deliverEmail, deliverPush } from './notify';
+
+/*
+ * The e-mail and push jobs start here: a delivery names what it tells (an alert event, a visit
+ * report, a care tip, a conversation message, a change of an urgent visit request), and each kind
+ * is told by its own module. Those modules build on notify.ts, so the choice is made here, above
+ * them all, rather than inside notify.ts.
+ */
+
+async function subjectOf(deps: AppDeps, deliveryId: string) {
+  const [row] = await deps.db
+    .select({ messageId: deliveries.messageId, urgentEventId: deliveries.urgentEventId })
+    .from(deliveries)
+    .where(eq(deliveries.id, deliveryId));
+  return row ?? null;
+}
+
+export async function deliverEmailJob(deps: AppDeps, deliveryId: string) {
+  const subject = await subjectOf(deps, deliveryId);
+  if (!subject) return;
+  return deliverEmail(deps, deliveryId);
+}
+
+export async function deliverPushJob(deps: AppDeps, deliveryId: string) {
+  const subject = await subjectOf(deps, deliveryId);
+  if (!subject) return;
+  return deliverPush(deps, deliveryId);
+}
