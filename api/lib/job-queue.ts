@@ -8,6 +8,8 @@ export const queues = {
   newsFanOut: 'news-fan-out',
   /** A care tip sent at its set time. */
   tipSend: 'tip-send',
+  /** The one e-mail for a conversation's messages left unread (one waiting check per conversation and person). */
+  conversationUnreadEmail: 'conversation-unread-email',
   email: 'deliver-email',
   push: 'deliver-push',
   dead: 'deliveries-dead',
@@ -61,6 +63,14 @@ export async function startJobQueue(databaseUrl: string, logger: Logger): Promis
   });
   // The claim on the tip makes a second run a no-op; the minute sweep sends any job lost on the way.
   await ensureQueue(boss, queues.tipSend, {
+    retryLimit: 10,
+    retryDelay: 1,
+    retryBackoff: true,
+    heartbeatSeconds,
+  });
+  // 'short': one job per singletonKey may wait, so a run of messages queues one check, not one each.
+  await boss.createQueue(queues.conversationUnreadEmail, { policy: 'short' });
+  await ensureQueue(boss, queues.conversationUnreadEmail, {
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,

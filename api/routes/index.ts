@@ -2,6 +2,7 @@ import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
 import { auditRouter } from './audit';
 import { careTipsRouter, tankTipSuggestionsRouter } from './care-tips';
+import { conversationsRouter, tankConversationRouter } from './conversations';
 import { calendarFeedRouter, calendarRouter } from './calendar';
 import { devicesRouter } from './devices';
 import { healthRouter } from './health';
@@ -19,6 +20,7 @@ import { clientsRouter, staffRouter, usersRouter } from './staff';
 import { tanksRouter } from './tanks';
 import { timelineRouter } from './timeline';
 import { tankVisitsRouter, visitsRouter } from './visits';
+import { tankUrgentRequestsRouter, urgentRequestsRouter, urgentSettingsRouter } from './urgent-requests';
 
 /**
  * Answer before sessions are read: health still answers when the session store cannot, and
@@ -45,8 +47,10 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/tanks/:tankId/visits', tankVisitsRouter],
   ['/tanks/:tankId/tip-suggestions', tankTipSuggestionsRouter],
   ['/tanks/:tankId/timeline', timelineRouter],
+  ['/tanks/:tankId/conversation', tankConversationRouter],
   ['/visits', visitsRouter],
   ['/care-tips', careTipsRouter],
+  ['/conversations', conversationsRouter],
   ['/photos', photosRouter],
   ['/species', speciesRouter],
   ['/staff', staffRouter],
@@ -60,4 +64,7 @@ export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/on-call', onCallRouter],
   ['/deliveries', deliveriesRouter],
   ['/audit', auditRouter],
+  ['/tanks/:tankId/urgent-requests', tankUrgentRequestsRouter],
+  ['/urgent-requests', urgentRequestsRouter],
+  ['/urgent-settings', urgentSettingsRouter],
 ];

@@ -1,7 +1,9 @@
 import { eq } from 'drizzle-orm';
 import type { AppDeps } from '../deps';
 import { deliveries } from '../db/schema/index';
+import { deliverMessageEmail, deliverMessagePush } from './conversation-notify';
 import { deliverEmail, deliverPush } from './notify';
+import { deliverUrgentEmail, deliverUrgentPush } from './urgent-notify';
 
 /*
  * The e-mail and push jobs start here: a delivery names what it tells (an alert event, a visit
@@ -21,11 +23,15 @@ async function subjectOf(deps: AppDeps, deliveryId: string) {
 export async function deliverEmailJob(deps: AppDeps, deliveryId: string) {
   const subject = await subjectOf(deps, deliveryId);
   if (!subject) return;
+  if (subject.messageId) return deliverMessageEmail(deps, deliveryId);
+  if (subject.urgentEventId) return deliverUrgentEmail(deps, deliveryId);
   return deliverEmail(deps, deliveryId);
 }
 
 export async function deliverPushJob(deps: AppDeps, deliveryId: string) {
   const subject = await subjectOf(deps, deliveryId);
   if (!subject) return;
+  if (subject.messageId) return deliverMessagePush(deps, deliveryId);
+  if (subject.urgentEventId) return deliverUrgentPush(deps, deliveryId);
   return deliverPush(deps, deliveryId);
 }

@@ -1,8 +1,18 @@
-import { and, asc, eq, exists, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, exists, ne, notInArray, or, sql, type SQL } from 'drizzle-orm';
 import { photoUrls, type PhotoItem } from '@shared/schemas/photos';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
-import { careTips, careTipTanks, livestock, photos, tanks, visitPhotos } from '../db/schema/index';
+import {
+  careTips,
+  careTipTanks,
+  conversationMessages,
+  livestock,
+  messagePhotos,
+  photos,
+  tanks,
+  urgentRequestPhotos,
+  visitPhotos,
+} from '../db/schema/index';
 import { processUpload } from '../lib/images';
 import { newPhotoKey, type ObjectStorage, type StoredObject } from '../lib/object-storage';
 import type { Logger } from '../lib/logger';
@@ -55,7 +65,8 @@ export interface PhotoUpload {
   livestockId?: string;
   caption?: string;
   cover: boolean;
-  subject?: 'tank' | 'visit';
+  /** 'message': for a conversation or an urgent request, the one kind owners may upload too. */
+  subject?: 'tank' | 'visit' | 'message';
 }
 
 /** Stores the upload's objects, then records it: the objects come first so a row never points at nothing. */
@@ -66,7 +77,7 @@ export async function uploadPhoto(
   upload: PhotoUpload,
 ): Promise<PhotoItem> {
   const { db, storage, clock } = deps;
-  const tank = await findTankFor(db, actor, tankId, 'write');
+  const tank = await findTankFor(db, actor, tankId, upload.subject === 'message' ? 'read' : 'write');
   if (upload.livestockId) {
     const [animal] = await db
       .select({ id: livestock.id })
@@ -103,15 +114,39 @@ export async function uploadPhoto(
 }
 
 /**
- * Owners see a visit's photos only once a published report uses them; staff see every photo of
- * their company's tanks.
+ * A photo uploaded for a message or an urgent request and not attached to either yet. A photo
+ * belongs to one line or one request only: attaching a note's photo to something owners read
+ * would show them the note's picture.
+ */
+export function unattachedPhoto(): SQL {
+  return and(
+    sql`not exists (select 1 from ${messagePhotos} where ${messagePhotos.photoId} = ${photos.id})`,
+    sql`not exists (select 1 from ${urgentRequestPhotos} where ${urgentRequestPhotos.photoId} = ${photos.id})`,
+  )!;
+}
+
+/**
+ * Owners see a visit's photos only once a published report uses them, and a conversation's photos
+ * once they are in a message (never an internal note) or an urgent request, or when they took them;
+ * staff see every photo of their company's tanks.
  */
 function shownTo(actor: Actor): SQL | undefined {
   if (isStaff(actor)) return undefined;
   const published = exists(
     sql`(select 1 from ${visitPhotos} where ${visitPhotos.photoId} = ${photos.id} and ${visitPhotos.published})`,
   );
-  return or(ne(photos.subject, 'visit'), published);
+  const inMessage = exists(
+    sql`(select 1 from ${messagePhotos} join ${conversationMessages} on ${conversationMessages.id} = ${messagePhotos.messageId}
+      where ${messagePhotos.photoId} = ${photos.id} and ${conversationMessages.kind} = 'message')`,
+  );
+  const inUrgentRequest = exists(
+    sql`(select 1 from ${urgentRequestPhotos} where ${urgentRequestPhotos.photoId} = ${photos.id})`,
+  );
+  return or(
+    notInArray(photos.subject, ['visit', 'message']),
+    and(eq(photos.subject, 'visit'), published),
+    and(eq(photos.subject, 'message'), or(eq(photos.uploadedBy, actor.id), inMessage, inUrgentRequest)),
+  );
 }
 
 export async function listTankPhotos(db: Db, actor: Actor, tankId: string): Promise<PhotoItem[]> {

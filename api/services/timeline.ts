@@ -17,6 +17,9 @@ import {
 import { reportSummary } from '@shared/schemas/visit-summary';
 import { visitKindLabels, visitReportContent, type VisitKind } from '@shared/schemas/visits';
 import { markdownToPlainText } from '@shared/text/markdown';
+import { formatDateTime } from '@shared/text/dates';
+import { urgentCategoryNames, type UrgentCategory } from '@shared/urgent/categories';
+import { urgentStatusNames, type UrgentStatus } from '@shared/urgent/lifecycle';
 import type { Db } from '../db/client';
 import { companies, type tanks } from '../db/schema/index';
 import { findTankFor } from '../policy/index';
@@ -125,6 +128,16 @@ const severityWords: Readonly<Record<AlertSeverity, string>> = {
   warning: 'Warning',
   critical: 'Critical',
 };
+
+interface UrgentData {
+  type: UrgentStatus;
+  requestId: string;
+  category: UrgentCategory;
+  description: string;
+  actor: string | null;
+  note: string;
+  eta: string | null;
+}
 
 const isoText = (column: string) => `to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
@@ -257,6 +270,44 @@ const sources: Record<TimelineKind, TimelineSource> = {
         };
       }),
   },
+  urgent: {
+    // Owners follow the status; escalations are the company's own business and never shown here.
+    rows: (tank) => sql`
+      select e.id, e.at, jsonb_build_object(
+        'type', e.type, 'requestId', r.id, 'category', r.category, 'description', r.description,
+        'actor', e.actor_name, 'note', e.note, 'eta', ${sql.raw(isoText('e.eta'))}) as data
+      from urgent_request_events e
+      join urgent_requests r on r.id = e.request_id
+      where r.tank_id = ${tank.id} and e.type <> 'escalated'`,
+    async describe(rows, { db, tank }) {
+      const zone = await tankZone(db, tank);
+      return rows.map((row) => {
+        const data = row.data as unknown as UrgentData;
+        const expected = data.eta ? `Expected by ${formatDateTime(data.eta, zone)}.` : '';
+        const summaries: Record<UrgentStatus, string> = {
+          requested: `Asked by ${data.actor ?? 'the owner'}: ${data.description}`,
+          acknowledged: [expected, data.note].filter(Boolean).join(' '),
+          assigned: [expected || 'A technician is on it.', data.note].filter(Boolean).join(' '),
+          'on-the-way': [expected, data.note].filter(Boolean).join(' '),
+          'on-site': data.note || 'The technician is at the tank.',
+          resolved: data.note || 'The request is closed.',
+          // The reason given for declining is the event's note.
+          declined: data.note,
+        };
+        return {
+          title:
+            data.type === 'requested'
+              ? `Urgent visit requested: ${urgentCategoryNames[data.category].label}`
+              : `Urgent visit: ${urgentStatusNames[data.type]}`,
+          summary: shortLine(summaries[data.type]),
+          link: `/urgent/${data.requestId}`,
+          editedAt: null,
+          body: null,
+          photoId: null,
+        };
+      });
+    },
+  },
 };
 
 /**
@@ -277,7 +328,8 @@ async function tankZone(db: Db, tank: TankRow): Promise<string> {
 /**
  * One tank's story, newest first, for anyone who may read the tank (another company's or another
  * owner's tank is a 404): published visit reports, livestock changes, alerts opened, escalated and
- * resolved, and the care tips it received that were not withdrawn.
+ * resolved, the care tips it received that were not withdrawn, and each change of its urgent visit
+ * requests.
  */
 export async function tankTimeline(
   db: Db,

@@ -50,6 +50,7 @@ import { fanOutVisitReport } from './notify';
 import { commitReadings, insertManualRows, manualTimeIssues, type Tx } from './readings';
 import { resolveSpecies } from './species';
 import { invalidFields } from './tanks';
+import { resolveRequestOfVisit } from './urgent-notify';
 
 type VisitRow = typeof visits.$inferSelect;
 type TankRow = typeof tanks.$inferSelect;
@@ -920,6 +921,14 @@ export async function publishReport(
         { err: error, visitId: visit.id },
         'telling owners of a published visit report failed',
       );
+    }
+  }
+  if (firstPublish && visit.kind === 'urgent') {
+    // The report answers the urgent request; should this fail, staff resolve the request by hand.
+    try {
+      await resolveRequestOfVisit(deps, actor, visit.id);
+    } catch (error) {
+      deps.logger.error({ err: error, visitId: visit.id }, 'resolving the urgent request of a visit failed');
     }
   }
   return getVisit(db, actor, visitId);

@@ -6,9 +6,11 @@ import { deliveries } from '../db/schema/index';
 import { queues } from '../lib/job-queue';
 import { afterAlertEvents } from './alerts';
 import { deliverTip, sendDueTips } from './care-tips';
+import { checkUnreadEmail, type UnreadEmailCheck } from './conversation-notify';
 import { fanOutAlertEvent, fanOutCareTip, fanOutVisitReport, pendingFanOuts } from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
+import { escalateOverdueRequests, fanOutUrgentEvent, unannouncedUrgentEvents } from './urgent-notify';
 
 type DeliveryJob = { deliveryId: string };
 
@@ -22,15 +24,22 @@ export async function startWorkers(deps: AppDeps) {
   await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
     for (const job of jobs) await fanOutAlertEvent(deps, job.data.eventId);
   });
-  await boss.work<{ visitId: string } | { tipId: string }>(queues.newsFanOut, async (jobs) => {
-    for (const job of jobs) {
-      if ('tipId' in job.data) await fanOutCareTip(deps, job.data.tipId);
-      else await fanOutVisitReport(deps, job.data.visitId);
-    }
-  });
+  await boss.work<{ visitId: string } | { tipId: string } | { urgentEventId: string }>(
+    queues.newsFanOut,
+    async (jobs) => {
+      for (const job of jobs) {
+        if ('urgentEventId' in job.data) await fanOutUrgentEvent(deps, job.data.urgentEventId);
+        else if ('tipId' in job.data) await fanOutCareTip(deps, job.data.tipId);
+        else await fanOutVisitReport(deps, job.data.visitId);
+      }
+    },
+  );
   // A tip at its set time; the claim in deliverTip makes a second run (or the sweep's) a no-op.
   await boss.work<{ tipId: string }>(queues.tipSend, async (jobs) => {
     for (const job of jobs) await deliverTip(deps, job.data.tipId, undefined, { dueOnly: true });
+  });
+  await boss.work<UnreadEmailCheck>(queues.conversationUnreadEmail, async (jobs) => {
+    for (const job of jobs) await checkUnreadEmail(deps, job.data);
   });
   await boss.work<DeliveryJob>(
     queues.email,
@@ -65,6 +74,9 @@ export async function startWorkers(deps: AppDeps) {
       await afterAlertEvents(deps, opened);
       for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
       for (const visitId of await unannouncedVisits(deps, 60_000)) await fanOutVisitReport(deps, visitId);
+      await escalateOverdueRequests(deps);
+      for (const eventId of await unannouncedUrgentEvents(deps, 60_000))
+        await fanOutUrgentEvent(deps, eventId);
       await sendDueTips(deps);
     }
   });

@@ -18,6 +18,7 @@ export const auditActions = [
   'limits.changed',
   'readings.exported',
   'photo.deleted',
+  'urgent-settings.changed',
 ] as const;
 export const auditAction = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditAction>;
@@ -36,6 +37,7 @@ export const auditActionLabels: Readonly<Record<AuditAction, string>> = {
   'limits.changed': 'Changed limits',
   'readings.exported': 'Downloaded readings',
   'photo.deleted': 'Deleted a photo',
+  'urgent-settings.changed': 'Changed urgent visit settings',
 };
 
 /** What an entry is about. */

@@ -28,6 +28,8 @@ export const messageInput = z.object({
   photoIds: z.array(z.uuid()).max(maxMessagePhotos, `At most ${maxMessagePhotos} photos.`).default([]),
   /** Staff only: an internal note owners never see. */
   internal: z.boolean().default(false),
+  /** Written about this urgent visit request of the same tank (from the request's page). */
+  urgentRequestId: z.uuid().nullable().default(null),
 });
 export type MessageInput = z.input<typeof messageInput>;
 

@@ -5,10 +5,10 @@ import { distinctList } from '@shared/lists/distinct';
  * A tank's timeline: one feed, newest first, of what happened to the tank that its owners may read.
  * Each kind is one entry in `timelineKinds` (and, because the maps below are keyed by it, the
  * compiler then asks for its words here, its source in api/services/timeline.ts and its icon on
- * the screen) — urgent visit requests join the same way once they exist.
+ * the screen).
  */
 
-export const timelineKinds = ['visit', 'livestock', 'alert', 'tip'] as const;
+export const timelineKinds = ['visit', 'livestock', 'alert', 'tip', 'urgent'] as const;
 export const timelineKind = z.enum(timelineKinds);
 export type TimelineKind = z.infer<typeof timelineKind>;
 
@@ -18,6 +18,7 @@ export const timelineKindNames: Readonly<Record<TimelineKind, { one: string; man
   livestock: { one: 'Livestock change', many: 'Livestock' },
   alert: { one: 'Alert', many: 'Alerts' },
   tip: { one: 'Care tip', many: 'Care tips' },
+  urgent: { one: 'Urgent visit request', many: 'Urgent requests' },
 };
 
 export const maxTimelinePage = 100;
@@ -82,7 +83,7 @@ export type TimelineQuery = z.output<typeof timelineQuery>;
 
 export const timelineEntry = z.object({
   kind: timelineKind,
-  /** The visit, the livestock status event, the alert event or the tip. */
+  /** The visit, the livestock status event, the alert event, the tip or the urgent request's event. */
   id: z.uuid(),
   at: z.iso.datetime(),
   title: z.string(),

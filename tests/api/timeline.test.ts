@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TimelineEntry, TimelinePage } from '@shared/schemas/timeline';
 import { visitReportContent } from '@shared/schemas/visits';
+import { formatDateTime } from '@shared/text/dates';
 import {
   alertEvents,
   alerts,
@@ -9,6 +10,8 @@ import {
   livestockStatusEvents,
   photos,
   type tanks,
+  urgentRequestEvents,
+  urgentRequests,
   visits,
 } from '../../api/db/schema/index';
 import { signedIn, type ApiSession } from '../helpers/api-session';
@@ -366,6 +369,72 @@ describe('GET /api/tanks/:tankId/timeline', () => {
         expect(status, query).toBe(400);
         expect(body.error.code, query).toBe('invalid_request');
       }
+    });
+  });
+
+  describe('urgent visit requests', () => {
+    it('shows each change of a request but its escalations, the status in words, linking to the request', async () => {
+      const { db } = stack.database;
+      const tank = await createTank(db, {
+        companyId,
+        name: 'Urgent reef',
+        timeZone: 'Europe/London',
+        owners: [owner.person],
+      });
+      const [request] = await db
+        .insert(urgentRequests)
+        .values({
+          companyId,
+          tankId: tank.id,
+          requestedBy: owner.person.id,
+          requestedByName: 'Olive Owner',
+          category: 'leak',
+          description: 'Water on the floor under the cabinet.',
+          someoneOnSite: true,
+          phone: '+44 20 7946 0958',
+          status: 'on-the-way',
+          snapshot: { readings: [], openAlerts: [] },
+          createdAt: at(60),
+        })
+        .returning();
+      const eta = at(61.5);
+      const event = (fields: Omit<typeof urgentRequestEvents.$inferInsert, 'requestId'>) => ({
+        requestId: request!.id,
+        ...fields,
+      });
+      await db.insert(urgentRequestEvents).values([
+        event({ type: 'requested', actorName: 'Olive Owner', at: at(60) }),
+        event({ type: 'escalated', note: 'Not acknowledged after 30 minutes (target 30).', at: at(60.5) }),
+        event({
+          type: 'acknowledged',
+          actorName: 'Tess Tech',
+          note: 'Keep the pump off.',
+          eta,
+          at: at(60.6),
+        }),
+        event({ type: 'on-the-way', actorName: 'Tess Tech', eta, at: at(61) }),
+      ]);
+      const expected = `Expected by ${formatDateTime(eta, 'Europe/London')}.`;
+      const link = `/urgent/${request!.id}`;
+
+      const { status, body } = await timeline(owner, tank);
+
+      expect(status).toBe(200);
+      expect(body.entries.map((e) => [e.kind, e.title, e.summary, e.link])).toEqual([
+        ['urgent', 'Urgent visit: On the way', expected, link],
+        ['urgent', 'Urgent visit: Acknowledged', `${expected} Keep the pump off.`, link],
+        [
+          'urgent',
+          'Urgent visit requested: Water leak or flood',
+          'Asked by Olive Owner: Water on the floor under the cabinet.',
+          link,
+        ],
+      ]);
+      expect(body.entries[2]!.at).toBe(at(60).toISOString());
+      expect(JSON.stringify(body)).not.toContain('Not acknowledged');
+      expect((await timeline(staff, tank)).body).toEqual(body);
+      expect((await timeline(owner, tank, 'kinds=urgent')).body).toEqual(body);
+      expect((await timeline(owner, tank, 'kinds=visit')).body.entries).toEqual([]);
     });
   });
 

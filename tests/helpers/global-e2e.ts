@@ -1,11 +1,12 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import webpush from 'web-push';
 import { connectDatabase } from '../../api/db/client';
 import { seedDemo } from '../../api/dev/seed/index';
+import { startPushService, type StandInSubscription } from '../../api/dev/push-service';
 import { objectStorageFromEnv } from '../../api/lib/object-storage';
 import { startStandIns } from '../../api/dev/stand-ins';
 import { parseEnv } from '../../api/env';
@@ -21,6 +22,11 @@ declare module 'vitest' {
   export interface ProvidedContext {
     appUrl: string;
     mailboxUrl: string;
+    /**
+     * The push stand-in the app's sender trusts, with one subscription made for a test to register
+     * for someone (POST /api/push/subscriptions) and then read at `${origin}/api/received`.
+     */
+    pushStandIn: { origin: string; caCertPem: string; subscription: StandInSubscription };
   }
 }
 
@@ -40,6 +46,10 @@ export default async function setup(project: TestProject) {
   )) as [number, number, number, number, number];
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-e2e-'));
   const vapid = webpush.generateVAPIDKeys();
+  const push = await startPushService({ port: 0, dir: path.join(dataDir, 'push') });
+  const pushCaFile = path.join(dataDir, 'push-ca.pem');
+  writeFileSync(pushCaFile, push.caCertPem);
+  const pushSubscription = await push.createSubscription({ applicationServerKey: vapid.publicKey });
   const env = parseEnv({
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
@@ -54,6 +64,7 @@ export default async function setup(project: TestProject) {
     ...testSecrets,
     VAPID_PUBLIC_KEY: vapid.publicKey,
     VAPID_PRIVATE_KEY: vapid.privateKey,
+    PUSH_TRUSTED_CA_FILE: pushCaFile,
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
@@ -64,10 +75,16 @@ export default async function setup(project: TestProject) {
   const server = await startServer({ env, databaseUrl: database.url, logger: createLogger('silent') });
   project.provide('appUrl', server.url);
   project.provide('mailboxUrl', `http://127.0.0.1:${mailboxPort}`);
+  project.provide('pushStandIn', {
+    origin: push.origin,
+    caCertPem: push.caCertPem,
+    subscription: pushSubscription,
+  });
   project.provide('postgresBaseUrl', cluster.baseUrl);
   return async () => {
     await server.close();
     await standIns.close();
+    await push.close();
     await database.drop();
     await cluster.stop();
     rmSync(dataDir, { recursive: true, force: true });

@@ -4,8 +4,10 @@ import { BrandMark } from '../components/brand-mark';
 import { OfflineNotice } from '../components/offline-notice';
 import { can, useMe } from '../lib/auth';
 import { UserMenu } from '../features/auth/components/user-menu';
+import { MessagesLink } from '../features/conversations/components/messages-link';
 import { NotificationBell } from '../features/notifications/components/notification-bell';
 import { useLiveEvents } from '../features/notifications/live-events';
+import { useOpenUrgentCount } from '../features/urgent/api/list-urgent-requests';
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>
   `inline-flex min-h-11 items-center whitespace-nowrap rounded-md px-3 text-sm font-bold no-underline transition-colors ${
@@ -25,10 +27,14 @@ function MainNav() {
       ?.querySelector('[aria-current="page"]')
       ?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
   }, [pathname]);
-  const links: { to: string; label: string; end?: boolean }[] = [];
+  const openUrgent = useOpenUrgentCount(can(me, 'urgent:manage'));
+  const links: { to: string; label: string; end?: boolean; count?: number | null }[] = [];
   // Staff work from the company console; a client sees their own tanks.
   if (can(me, 'clients:read')) {
     links.push({ to: '/console', label: 'Tanks', end: true });
+    // The inbox is the Messages button beside the notifications, with its unread count.
+    // Early in the row, so a phone shows it without scrolling the row.
+    if (can(me, 'urgent:manage')) links.push({ to: '/console/urgent', label: 'Urgent', count: openUrgent });
     if (can(me, 'visits:write')) links.push({ to: '/console/schedule', label: 'Schedule' });
     if (can(me, 'care-tips:write')) links.push({ to: '/console/tips', label: 'Care tips' });
     links.push({ to: '/console/clients', label: 'Clients' });
@@ -44,6 +50,12 @@ function MainNav() {
           <li key={link.to}>
             <NavLink to={link.to} end={link.end} className={navLinkClass}>
               {link.label}
+              {link.count ? (
+                <span className="ml-1.5 rounded-full bg-alert-700 px-2 py-0.5 text-xs text-white">
+                  {link.count}
+                  <span className="sr-only"> open</span>
+                </span>
+              ) : null}
             </NavLink>
           </li>
         ))}
@@ -72,6 +84,7 @@ export function RootLayout() {
           </Link>
           <MainNav />
           <div className="flex shrink-0 items-center gap-1 sm:gap-2">
+            <MessagesLink />
             <NotificationBell />
             <UserMenu />
           </div>

@@ -41,6 +41,34 @@ const router = createBrowserRouter([
                 path: ':tankId',
                 lazy: async () => ({ Component: (await import('./routes/tank')).TankRoute }),
               },
+              {
+                path: ':tankId/messages',
+                lazy: async () => ({
+                  Component: (await import('./routes/tank-messages')).TankMessagesRoute,
+                }),
+              },
+              {
+                path: ':tankId/urgent',
+                element: <RequirePermission permission="urgent:request" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({ Component: (await import('./routes/urgent-new')).UrgentNewRoute }),
+                  },
+                ],
+              },
+            ],
+          },
+          {
+            path: 'urgent/:requestId',
+            element: <RequirePermission permission="urgent:read" />,
+            children: [
+              {
+                index: true,
+                lazy: async () => ({
+                  Component: (await import('./routes/urgent-request')).UrgentRequestRoute,
+                }),
+              },
             ],
           },
           {
@@ -127,6 +155,43 @@ const router = createBrowserRouter([
               {
                 path: 'alerts',
                 lazy: async () => ({ Component: (await import('./routes/alerts-board')).ConsoleAlertsRoute }),
+              },
+              {
+                path: 'urgent',
+                element: <RequirePermission permission="urgent:manage" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-urgent')).ConsoleUrgentRoute,
+                    }),
+                  },
+                  {
+                    path: 'settings',
+                    element: <RequirePermission permission="urgent:settings" />,
+                    children: [
+                      {
+                        index: true,
+                        lazy: async () => ({
+                          Component: (await import('./routes/console-urgent-settings'))
+                            .ConsoleUrgentSettingsRoute,
+                        }),
+                      },
+                    ],
+                  },
+                ],
+              },
+              {
+                path: 'inbox',
+                element: <RequirePermission permission="conversations:inbox" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-inbox')).ConsoleInboxRoute,
+                    }),
+                  },
+                ],
               },
               {
                 path: 'audit',

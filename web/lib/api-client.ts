@@ -22,6 +22,8 @@ interface RequestOptions {
   signal?: AbortSignal;
   /** Where `path` lives: the JSON API, or the sign-in routes beside it. */
   root?: '/api' | '/auth';
+  /** Extra request headers, e.g. an `Idempotency-Key` that makes a retried send safe. */
+  headers?: Record<string, string>;
 }
 
 async function errorFrom(response: Response): Promise<ApiError> {
@@ -46,7 +48,7 @@ async function errorFrom(response: Response): Promise<ApiError> {
 /** The one way the client talks to the API: same-origin, JSON, typed errors, no UI side effects. */
 export async function api<T>(path: string, options: RequestOptions = {}): Promise<T> {
   const { method = 'GET', body, signal, root = '/api' } = options;
-  const headers: Record<string, string> = { Accept: 'application/json' };
+  const headers: Record<string, string> = { ...options.headers, Accept: 'application/json' };
   // A header a cross-site form cannot send; the server refuses state changes without it.
   if (method !== 'GET') headers['X-Requested-With'] = 'brinewatch';
   let payload: BodyInit | undefined;

@@ -21,6 +21,7 @@ import {
 import { seedDemoPhotos } from './photos';
 import { seedDemoCareTips } from './care-tips';
 import { seedDemoVisits } from './visits';
+import { seedDemoUrgent } from './urgent';
 import { demoEquipment, demoLivestock, demoTanks } from './scenario';
 
 export { demoTanks } from './scenario';
@@ -225,6 +226,8 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   await seedDemoVisits(db, { companyId: driftglass, people: userId, now });
   await seedDemoCareTips(db, { companyId: driftglass, people: userId, now });
   if (options.raiseAlerts !== false) await raiseDemoAlerts(db, driftglass, now);
+  // After the alerts: the open request's snapshot lists the ones open now.
+  await seedDemoUrgent(db, { companyId: driftglass, people: userId, now });
 }
 
 /**

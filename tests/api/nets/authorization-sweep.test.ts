@@ -147,6 +147,34 @@ const expected: Record<string, Row> = {
   }),
   'GET /api/tanks/:tankId/tip-suggestions': tankAStaffWrite(200),
 
+  // A tank's conversation is its owners' and its company's staff's; the inbox is the staff's.
+  'GET /api/tanks/:tankId/conversation': tankARead,
+  'GET /api/tanks/:tankId/conversation/messages': tankARead,
+  'POST /api/tanks/:tankId/conversation/messages': signedIn({
+    ownerA: 201,
+    ownerB: 404,
+    technician: 201,
+    admin: 201,
+    otherAdmin: 404,
+  }),
+  'POST /api/tanks/:tankId/conversation/read': signedIn({
+    ownerA: 204,
+    ownerB: 404,
+    technician: 204,
+    admin: 204,
+    otherAdmin: 404,
+  }),
+  // Owners may upload photos here (for a message or an urgent request), though not to the tank's photos.
+  'POST /api/tanks/:tankId/conversation/photos': signedIn({
+    ownerA: 201,
+    ownerB: 404,
+    technician: 201,
+    admin: 201,
+    otherAdmin: 404,
+  }),
+  'GET /api/conversations': staffOnly(200),
+  'GET /api/conversations/unread': everyoneSignedIn(200),
+
   'GET /api/photos/:photoId': tankARead,
   'GET /api/photos/:photoId/thumbnail': tankARead,
   'DELETE /api/photos/:photoId': tankAStaffWrite(204),
@@ -217,6 +245,22 @@ const expected: Record<string, Row> = {
     otherAdmin: 404,
   }),
   'GET /api/deliveries/failed': staffOnly(200),
+
+  // Owners ask for urgent visits to their own tanks (staff for any of theirs) and follow them;
+  // staff work the board and move requests on; admins set the fee, target and first aid.
+  'GET /api/urgent-settings': everyoneSignedIn(200),
+  'PUT /api/urgent-settings': adminsOnly(200),
+  'GET /api/tanks/:tankId/urgent-requests': tankARead,
+  'POST /api/tanks/:tankId/urgent-requests': signedIn({
+    ownerA: 201,
+    ownerB: 404,
+    technician: 201,
+    admin: 201,
+    otherAdmin: 404,
+  }),
+  'GET /api/urgent-requests': staffOnly(200),
+  'GET /api/urgent-requests/:requestId': tankARead,
+  'POST /api/urgent-requests/:requestId/moves': tankAStaffWrite(200),
 
   'GET /api/audit': adminsOnly(200),
   'GET /api/audit/export': adminsOnly(200),

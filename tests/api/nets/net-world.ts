@@ -8,10 +8,14 @@ import {
   careTipReaders,
   careTips,
   careTipTanks,
+  conversationMessages,
+  conversations,
   devices,
   invitations,
   onCallShifts,
   photos,
+  urgentRequestEvents,
+  urgentRequests,
   users,
   visitReportVersions,
   visits,
@@ -116,8 +120,9 @@ const unique = () => randomBytes(4).toString('hex');
 
 export type NetWorld = Awaited<ReturnType<typeof createNetWorld>>;
 
-export async function createNetWorld() {
-  const stack: TestStack = await startTestStack();
+/** `stackOptions` go to the test stack, e.g. the internal-notes net turns web push on. */
+export async function createNetWorld(stackOptions: Parameters<typeof startTestStack>[0] = {}) {
+  const stack: TestStack = await startTestStack(stackOptions);
   const { db } = stack.database;
   const issuer = stack.idp.issuer;
   const company = await createCompany(db);
@@ -298,6 +303,32 @@ export async function createNetWorld() {
       });
       return row!.id;
     },
+    /** An urgent request of tank A from its owner, still waiting for an acknowledgement. */
+    requestId: async () => {
+      const [row] = await db
+        .insert(urgentRequests)
+        .values({
+          companyId: company.id,
+          tankId: tankA.id,
+          requestedBy: people.ownerA.id,
+          requestedByName: people.ownerA.name,
+          category: 'leak',
+          description: 'Water on the floor under the cabinet.',
+          someoneOnSite: true,
+          phone: '+44 20 7946 0958',
+          snapshot: { readings: [], openAlerts: [] },
+        })
+        .returning();
+      await db.insert(urgentRequestEvents).values({
+        requestId: row!.id,
+        type: 'requested',
+        actorId: people.ownerA.id,
+        actorName: people.ownerA.name,
+        at: row!.createdAt,
+        fannedOutAt: row!.createdAt,
+      });
+      return row!.id;
+    },
     /** The earlier published version every visit above keeps. */
     version: () => Promise.resolve('1'),
     /**
@@ -336,6 +367,24 @@ export async function createNetWorld() {
   await insertReadings(db, tankA, [
     { parameter: 'temperature', value: 25.4, measuredAt: new Date(Date.now() - 3_600_000), source: 'visit' },
   ]);
+  // Tank A's conversation, with a technician's message its owner can mark read.
+  const [conversation] = await db
+    .insert(conversations)
+    .values({ companyId: company.id, tankId: tankA.id, lastActivityAt: new Date(), lastPublicAt: new Date() })
+    .returning();
+  const [message] = await db
+    .insert(conversationMessages)
+    .values({
+      conversationId: conversation!.id,
+      companyId: company.id,
+      tankId: tankA.id,
+      kind: 'message',
+      side: 'staff',
+      authorId: people.technician.id,
+      authorName: people.technician.name,
+      body: 'Topped up the reservoir; the float switch is fine.',
+    })
+    .returning();
 
   /**
    * The route's path with tank A's objects in it. A route that may use its object up (anything
@@ -448,6 +497,8 @@ export async function createNetWorld() {
     tankB,
     otherTank,
     shared,
+    /** A message of tank A's conversation, from its technician. */
+    messageId: message!.id,
     png,
     fillPath,
     call,
@@ -577,6 +628,24 @@ export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = 
   'PATCH /api/care-tips/:tipId': () => ({ body: { title: 'Top up with fresh water, never salt water' } }),
   'POST /api/care-tips/:tipId/send': () => ({ body: { at: null } }),
   'POST /api/care-tips/:tipId/send-to-tank': (world) => ({ body: { tankId: world.tankA.id } }),
+  'POST /api/tanks/:tankId/conversation/messages': () => ({ body: { body: 'The skimmer is quiet again.' } }),
+  'POST /api/tanks/:tankId/conversation/read': (world) => ({ body: { messageId: world.messageId } }),
+  'POST /api/tanks/:tankId/conversation/photos': (world) => ({ form: world.photoForm({ caption: 'Leak' }) }),
+  'PUT /api/urgent-settings': () => ({
+    body: { ackTargetMinutes: 30, callOutFeeCents: null, currency: 'EUR', firstAid: {} },
+  }),
+  'POST /api/tanks/:tankId/urgent-requests': () => ({
+    body: {
+      category: 'leak',
+      description: 'Water on the floor under the cabinet.',
+      someoneOnSite: true,
+      phone: '+44 20 7946 0958',
+      acceptedCallOutFeeCents: null,
+    },
+  }),
+  'POST /api/urgent-requests/:requestId/moves': () => ({
+    body: { to: 'acknowledged', eta: new Date(Date.now() + 30 * 60_000).toISOString() },
+  }),
   'POST /api/ingest/readings': () => ({
     body: { readings: [{ parameter: 'temperature', value: 25.3, unit: '°C', measuredAt: minutesAgo(5) }] },
   }),

@@ -23,6 +23,8 @@ import { NextVisitLine } from '../../features/visits/components/next-visit-card'
 import { TankVisitsSection } from '../../features/visits/components/tank-visits-section';
 import { TankTimeline } from '../../features/timeline/components/tank-timeline';
 import { TankTipsFeed } from '../../features/care-tips/components/tip-feed';
+import { TankMessagesLink } from '../../features/conversations/components/tank-messages-link';
+import { TankUrgentVisitAction } from '../../features/urgent/components/request-urgent-visit-action';
 
 const actionClass =
   'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
@@ -191,11 +193,15 @@ export function TankRoute() {
       title={tank.data.name}
       description={tank.data.siteLabel}
       actions={
-        isStaff ? (
-          <Link to={`/console/tanks/${tankId}/edit`} className={actionClass}>
-            Edit tank
-          </Link>
-        ) : undefined
+        <>
+          <TankUrgentVisitAction tankId={tankId} />
+          <TankMessagesLink tankId={tankId} />
+          {isStaff && (
+            <Link to={`/console/tanks/${tankId}/edit`} className={actionClass}>
+              Edit tank
+            </Link>
+          )}
+        </>
       }
     >
       <NextVisitLine tankId={tankId} href={sectionHref('visits')} />

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import type { TankStatus } from '@shared/parameters/health';
 import type { TankSummary } from '@shared/schemas/tanks';
@@ -36,7 +37,7 @@ function LastReading({ tank, now }: { tank: TankSummary; now: number }) {
  * One tank on the owner's dashboard: status, why, and how fresh the news is come first; the
  * picture is a small reminder of which tank this is. The whole card opens the tank page.
  */
-export function TankCard({ tank }: { tank: TankSummary }) {
+export function TankCard({ tank, footer }: { tank: TankSummary; footer?: ReactNode }) {
   const now = useNow();
   const reason = statusReason(tank);
   return (
@@ -75,6 +76,7 @@ export function TankCard({ tank }: { tank: TankSummary }) {
             </time>
           </p>
         )}
+        {footer}
       </div>
     </article>
   );

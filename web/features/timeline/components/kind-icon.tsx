@@ -3,7 +3,8 @@ import type { TimelineKind } from '@shared/schemas/timeline';
 
 /*
  * Brinewatch's own marks for the kinds of timeline entry, drawn here: a ticked clipboard for a visit
- * report, a fish for livestock, a warning triangle for an alert, a lamp for a care tip. Each entry
+ * report, a fish for livestock, a warning triangle for an alert, a lamp for a care tip, a bolt in a
+ * circle for an urgent visit request. Each entry
  * also names its kind in words, so neither the colour nor the shape has to carry it alone.
  */
 
@@ -34,6 +35,12 @@ const paths: Readonly<Record<TimelineKind, ReactNode>> = {
       <path d="M9.5 19.5h5M10.5 22h3" />
     </>
   ),
+  urgent: (
+    <>
+      <circle cx="12" cy="12" r="9.5" />
+      <path d="M13 5.5 8 13h4l-1 5.5 5-7.5h-4z" />
+    </>
+  ),
 };
 
 /** The circle each entry hangs from on the timeline's line, in its kind's colours. */
@@ -42,6 +49,7 @@ export const kindTones: Readonly<Record<TimelineKind, string>> = {
   livestock: 'border-healthy-700 bg-healthy-100 text-healthy-700',
   alert: 'border-alert-700 bg-alert-100 text-alert-700',
   tip: 'border-watch-700 bg-watch-100 text-watch-700',
+  urgent: 'border-ink-700 bg-ink-100 text-ink-700',
 };
 
 export function KindIcon({ kind, className = 'h-5 w-5' }: { kind: TimelineKind; className?: string }) {

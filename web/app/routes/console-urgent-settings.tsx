@@ -1,0 +1,25 @@
+import { Link } from 'react-router';
+import { Page } from '../../components/page';
+import { UrgentSettingsEditor } from '../../features/urgent/components/urgent-settings-form';
+
+export function ConsoleUrgentSettingsRoute() {
+  return (
+    <Page
+      title="Urgent visit settings"
+      description="How fast you aim to answer, the call-out fee owners see, and the first aid they read while they wait."
+      actions={
+        <Link
+          to="/console/urgent"
+          className="inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50"
+        >
+          Urgent requests
+        </Link>
+      }
+    >
+      <title>Urgent visit settings — Brinewatch</title>
+      <div className="mx-auto max-w-4xl">
+        <UrgentSettingsEditor />
+      </div>
+    </Page>
+  );
+}
