@@ -32,6 +32,10 @@ export type OnCallShiftView = z.infer<typeof onCallShiftView>;
 
 export const shiftIdParams = z.object({ shiftId: z.uuid() });
 
+/** What a delivery tells of: exactly one per delivery (api/db/schema/alerts.ts deliveries). */
+export const deliverySubjectKinds = ['alert', 'visit', 'tip', 'message', 'urgent'] as const;
+export type DeliverySubjectKind = (typeof deliverySubjectKinds)[number];
+
 export const deliveryView = z.object({
   id: z.uuid(),
   channel: z.enum(['push', 'email', 'in-app']),
@@ -39,8 +43,13 @@ export const deliveryView = z.object({
   attempts: z.number(),
   lastError: z.string().nullable(),
   recipient: z.string(),
-  alertTitle: z.string(),
-  tankName: z.string(),
+  kind: z.enum(deliverySubjectKinds),
+  /** A neutral line naming the subject; never a message's words (it may be an internal note). */
+  about: z.string(),
+  /** Null for a care tip, which may reach many tanks. */
+  tankName: z.string().nullable(),
+  /** Where the subject opens in the app. */
+  link: z.string().startsWith('/'),
   createdAt: z.iso.datetime(),
 });
 export type DeliveryView = z.infer<typeof deliveryView>;

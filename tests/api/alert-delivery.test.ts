@@ -3,6 +3,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { eq } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { DeliveryView } from '@shared/schemas/on-call';
 import { createApp } from '../../api/app';
 import { deliveries, pushSubscriptions } from '../../api/db/schema/index';
 import { createDeps } from '../../api/deps';
@@ -216,10 +217,19 @@ describe('alert notifications', () => {
       });
       const staffBrowser = new HttpBrowser();
       await signIn(stack, staffBrowser, technician);
-      const listed = (await (await staffBrowser.visit(`${stack.origin}/api/deliveries/failed`)).json()) as {
-        id: string;
-      }[];
+      const listed = (await (
+        await staffBrowser.visit(`${stack.origin}/api/deliveries/failed`)
+      ).json()) as DeliveryView[];
       expect(listed.map((d) => d.id)).toContain(stuck!.id);
+      expect(listed.find((d) => d.id === stuck!.id)).toMatchObject({
+        channel: 'email',
+        status: 'failed',
+        recipient: 'Nadia Owner',
+        kind: 'alert',
+        about: expect.stringMatching(/^Alert: Temperature/),
+        tankName: 'Lobby reef',
+        link: `/tanks/${tank.id}`,
+      });
       expect((await ownerBrowser.visit(`${stack.origin}/api/deliveries/failed`)).status).toBe(403);
     } finally {
       await stack.mail.resume();

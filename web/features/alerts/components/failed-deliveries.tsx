@@ -1,4 +1,6 @@
+import { Link } from 'react-router';
 import type { DeliveryView } from '@shared/schemas/on-call';
+import { Badge } from '../../../components/badge';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { formatDateTime } from '../../../lib/format';
 import { useFailedDeliveries } from '../api/list-failed-deliveries';
@@ -19,7 +21,8 @@ export function FailedDeliveries() {
           Failed deliveries
         </h2>
         <p className="mt-1 text-sm text-ink-700">
-          Notifications that could not be delivered after every retry. Call the person if the alert matters.
+          Notifications that could not be delivered after every retry. Call the person if it matters, and
+          always for an urgent visit request.
         </p>
       </div>
       <div className="mt-2">
@@ -47,7 +50,19 @@ export function FailedDeliveries() {
                   {channelLabels[delivery.channel]} to {delivery.recipient}
                 </p>
                 <p className="text-sm text-ink-900">
-                  {delivery.alertTitle} · {delivery.tankName}
+                  {delivery.kind === 'urgent' && (
+                    <Badge
+                      size="sm"
+                      tone="mr-1 border border-alert-700/40 bg-white text-alert-700"
+                      mark={<span>▲</span>}
+                    >
+                      Follow up now
+                    </Badge>
+                  )}
+                  <Link to={delivery.link} className="font-bold text-brine-700 underline underline-offset-2">
+                    {delivery.about}
+                  </Link>
+                  {delivery.tankName !== null && <> · {delivery.tankName}</>}
                 </p>
                 <p className="text-sm text-ink-700">
                   {formatDateTime(delivery.createdAt)} · {delivery.attempts}{' '}
