@@ -55,9 +55,11 @@ export async function startTestStack(
     background?: boolean;
     /** Where the app logs; silent unless given. */
     logger?: Logger;
+    /** A database to use instead of a copy of the run's template (benches have no global setup). */
+    database?: TestDatabase;
   } = {},
 ) {
-  const database = await createTestDatabase();
+  const database = options.database ?? (await createTestDatabase());
   const port = await freePort();
   const origin = `http://localhost:${port}`;
   const mail = await startMailServer({ smtpPort: 0 });
