@@ -24,8 +24,11 @@ import {
  */
 
 const waitingRoomReef = demoTankId('quayside-reef');
-/** Upper bound for a live update on a loaded 2-core machine; the stream itself takes milliseconds. */
-const liveWithinMs = 5_000;
+/**
+ * How long to wait for a live update before calling it missing. What this test proves is that it
+ * arrives without a reload; how fast is measured in tests/bench/live-messages.bench.ts, never here.
+ */
+const liveWithinMs = 30_000;
 
 async function expectAxeClean(page: Page, where: string) {
   const violations = await axeViolations(page);

@@ -269,7 +269,8 @@ describe('an urgent visit request in the browser', () => {
       .poll(() => progress.locator('[aria-current="step"]').textContent(), { timeout: liveWithinMs })
       .toContain('Acknowledged');
     await owner.getByText('Expected arrival').waitFor();
-    await owner.getByText('I am bringing a pump.', { exact: false }).waitFor();
+    // In the page itself: the closed notification panel in the header may hold the same words.
+    await owner.getByRole('main').getByText('I am bringing a pump.', { exact: false }).waitFor();
 
     // The tank's page leads to the open request, with a new one still one tap away.
     const tankPage = await owner.context().newPage();
@@ -301,7 +302,7 @@ describe('an urgent visit request in the browser', () => {
       advice: 'Leave the top-off pump unplugged until the next visit and top up by hand once a day.',
     });
     await owner.getByText('We cannot come out for this request').waitFor({ timeout: liveWithinMs });
-    await owner.getByText('Leave the top-off pump unplugged', { exact: false }).waitFor();
+    await owner.getByRole('main').getByText('Leave the top-off pump unplugged', { exact: false }).waitFor();
     await checkAtBothWidths(owner, 'urgent-status-declined');
     await apiInPage(tech, 'DELETE', '/push/subscriptions', { endpoint: subscription.endpoint }).catch(
       () => undefined,

@@ -29,6 +29,7 @@ function MainNav() {
   }, [pathname]);
   const openUrgent = useOpenUrgentCount(can(me, 'urgent:manage'));
   const links: { to: string; label: string; end?: boolean; count?: number | null }[] = [];
+  const isStaffNav = can(me, 'clients:read');
   // Staff work from the company console; a client sees their own tanks.
   if (can(me, 'clients:read')) {
     links.push({ to: '/console', label: 'Tanks', end: true });
@@ -44,7 +45,15 @@ function MainNav() {
   } else if (me) links.push({ to: '/tanks', label: 'My tanks' });
   links.push({ to: '/calculators', label: 'Calculators' });
   return (
-    <nav ref={navRef} aria-label="Main" className="min-w-0 flex-1 overflow-x-auto">
+    <nav
+      ref={navRef}
+      aria-label="Main"
+      // Staff have a dozen destinations: they get a row of their own under the brand and the
+      // buttons, at every width, rather than a row that hides its last links.
+      className={
+        isStaffNav ? 'order-last -mx-1 basis-full overflow-x-auto px-1' : 'min-w-0 flex-1 overflow-x-auto'
+      }
+    >
       <ul className="flex w-max items-center gap-1">
         {links.map((link) => (
           <li key={link.to}>
@@ -76,14 +85,14 @@ export function RootLayout() {
         Skip to content
       </a>
       <header className="bg-ink-900 text-white">
-        <div className="mx-auto flex max-w-6xl items-center gap-2 px-4 py-2 sm:gap-6 sm:py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-2 gap-y-1 px-4 py-2 sm:gap-x-6 sm:py-3">
           <Link to="/" className="flex min-h-11 shrink-0 items-center gap-2 text-white no-underline">
             <BrandMark className="h-8 w-8" />
             {/* On a phone the mark alone; screen readers still hear the name. */}
             <span className="sr-only text-lg font-bold tracking-tight sm:not-sr-only">Brinewatch</span>
           </Link>
           <MainNav />
-          <div className="flex shrink-0 items-center gap-1 sm:gap-2">
+          <div className="ml-auto flex shrink-0 items-center gap-1 sm:gap-2">
             <MessagesLink />
             <NotificationBell />
             <UserMenu />

@@ -17,7 +17,7 @@ export function ConsoleUrgentSettingsRoute() {
       }
     >
       <title>Urgent visit settings — Brinewatch</title>
-      <div className="mx-auto max-w-4xl">
+      <div className="max-w-4xl">
         <UrgentSettingsEditor />
       </div>
     </Page>

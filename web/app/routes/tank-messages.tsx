@@ -55,7 +55,7 @@ export function TankMessagesRoute() {
         </>
       }
     >
-      <div className="mx-auto max-w-3xl">
+      <div className="max-w-3xl">
         <ConversationThread tankId={tankId} timeZone={tank.data.effectiveTimeZone} />
       </div>
     </Page>

@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router';
 import { Page } from '../../components/page';
 import { ErrorState, LoadingState } from '../../components/states';
+import { StatusShape } from '../../components/status-badges';
 import { useTank } from '../../features/tanks/api/get-tank';
 import { UrgentRequestForm } from '../../features/urgent/components/urgent-request-form';
 
@@ -29,13 +30,17 @@ export function UrgentNewRoute() {
           <Link to={`/tanks/${tankId}`} className="font-bold text-brine-700">
             {tank.data.name}
           </Link>
-          {tank.data.siteLabel && <> · {tank.data.siteLabel}</>}. If anyone is hurt, or there is smoke or
-          fire, call your local emergency number first.
+          {tank.data.siteLabel && <> · {tank.data.siteLabel}</>}
         </>
       }
     >
       <title>{`Urgent visit for ${tank.data.name} — Brinewatch`}</title>
-      <div className="mx-auto max-w-3xl">
+      <div className="grid max-w-3xl grid-cols-[minmax(0,1fr)] gap-4">
+        {/* Read before anything else on the form, so it stands apart from the line about the tank. */}
+        <p className="flex items-start gap-3 rounded-card border-2 border-alert-700 bg-alert-100 p-4 font-bold text-ink-950">
+          <StatusShape tone="alert" className="mt-0.5 h-6 w-6 text-alert-700" />
+          If anyone is hurt, or there is smoke or fire, call your local emergency number first.
+        </p>
         <UrgentRequestForm tankId={tankId} />
       </div>
     </Page>

@@ -36,9 +36,12 @@ function MessagesLinkFor({ isStaff }: { isStaff: boolean }) {
       to={href}
       end
       aria-label={count > 0 ? `Messages, ${formatCount(count)} unread` : 'Messages'}
+      // An owner of several tanks is led to their tanks, where each card says what is unread: that
+      // page is "My tanks", not this button's own.
+      aria-current={href === '/tanks' ? false : undefined}
       className={({ isActive }) =>
         `relative inline-flex h-11 w-11 shrink-0 items-center justify-center rounded-lg text-white hover:bg-ink-800 ${
-          isActive ? 'bg-ink-800' : ''
+          isActive && href !== '/tanks' ? 'bg-ink-800' : ''
         }`
       }
     >

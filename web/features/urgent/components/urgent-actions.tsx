@@ -233,13 +233,11 @@ export function UrgentActions({
       </p>
       <div className="mt-3 flex flex-wrap gap-2">
         {moves.map((to) => (
-          <Button
-            key={to}
-            tone={to === 'declined' ? 'secondary' : 'primary'}
-            className={to === 'declined' ? 'text-alert-700' : ''}
-            onClick={() => setOpen(to)}
-          >
-            {to === 'assigned' && request.technician ? 'Reassign technician' : actions[to].label}
+          <Button key={to} tone={to === 'declined' ? 'secondary' : 'primary'} onClick={() => setOpen(to)}>
+            {/* Coloured inside: beside the tone's own text colour a class on the button would lose. */}
+            <span className={to === 'declined' ? 'text-alert-700' : undefined}>
+              {to === 'assigned' && request.technician ? 'Reassign technician' : actions[to].label}
+            </span>
           </Button>
         ))}
       </div>

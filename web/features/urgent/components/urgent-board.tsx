@@ -127,7 +127,10 @@ export function UrgentBoard({ state }: { state: UrgentBoardState }) {
     <>
       {state === 'open' && (
         <p className="mb-3 text-ink-900" aria-live="polite">
-          {board.data.length} open · <span className="font-bold">{waiting} waiting for acknowledgement</span>
+          {board.data.length} open ·{' '}
+          <span className={waiting > 0 ? 'font-bold text-alert-700' : undefined}>
+            {waiting} waiting for acknowledgement
+          </span>
         </p>
       )}
       <ul className="grid gap-3 lg:grid-cols-2">

@@ -72,9 +72,6 @@ function StatusCard({ request, isStaff }: { request: UrgentRequestView; isStaff:
         <time dateTime={request.createdAt}>{formatDateTime(request.createdAt, request.timeZone)}</time> (
         {relativeTime(request.createdAt, now)}) by {request.requestedBy.name}
       </p>
-      <div className="mt-4">
-        <UrgentStatusStepper request={request} />
-      </div>
       {request.status === 'declined' && (
         <div
           role="note"
@@ -108,11 +105,11 @@ function StatusCard({ request, isStaff }: { request: UrgentRequestView; isStaff:
         <dl className="mt-4 grid gap-3 rounded-lg bg-brine-100 p-4 sm:grid-cols-2">
           {request.eta && (
             <Fact term="Expected arrival">
-              <span className="text-lg font-bold">
+              <span className="block text-lg font-bold">
                 <time dateTime={request.eta}>{formatDateTime(request.eta, request.timeZone)}</time>
-              </span>{' '}
-              <span className="text-sm">
-                ({zoneName(request.timeZone)}, {etaDistance(request.eta, now)})
+              </span>
+              <span className="block text-sm">
+                {etaDistance(request.eta, now)} · {zoneName(request.timeZone)}
               </span>
             </Fact>
           )}
@@ -142,6 +139,10 @@ function StatusCard({ request, isStaff }: { request: UrgentRequestView; isStaff:
           )}
         </p>
       )}
+      {/* The answer first (why not, when, or done), then the way there. */}
+      <div className="mt-4">
+        <UrgentStatusStepper request={request} />
+      </div>
     </section>
   );
 }
@@ -186,7 +187,10 @@ function RequestFacts({ request, isStaff }: { request: UrgentRequestView; isStaf
           <Fact term="Someone with the tank now">{request.someoneOnSite ? 'Yes' : 'No'}</Fact>
           <Fact term="Phone">
             {isStaff ? (
-              <a href={`tel:${request.phone.replace(/\s/g, '')}`} className="font-bold text-brine-700">
+              <a
+                href={`tel:${request.phone.replace(/\s/g, '')}`}
+                className="inline-flex min-h-11 items-center font-bold text-brine-700"
+              >
                 {request.phone}
               </a>
             ) : (

@@ -37,6 +37,9 @@ import { YesNoField } from './yes-no-field';
 /** How long typing pauses before the copy on this device is rewritten. */
 const keepAfterMs = 300;
 
+/** How much of the first aid a choice brings on screen: its heading and the top of the cautions. */
+const firstAidRevealPx = 200;
+
 type RequestForm = ZodForm<typeof requestFormSchema>;
 
 /** What the status page says on arrival from the form. */
@@ -84,6 +87,27 @@ function CallOutFee({ cents, currency }: { cents: number; currency: string }) {
   );
 }
 
+/**
+ * On a phone the first aid appears under six tiles, below the first screen: when the owner picks a
+ * category, the page moves just far enough to show its heading and the first cautions, which keeps
+ * the chosen tile (and the focus on it) in view. A choice restored from the draft moves nothing.
+ */
+function useRevealFirstAid(chosen: UrgentCategory | null) {
+  const panelRef = useRef<HTMLDivElement>(null);
+  const shownFor = useRef(chosen);
+  useEffect(() => {
+    if (chosen === shownFor.current) return;
+    shownFor.current = chosen;
+    const panel = panelRef.current;
+    if (!chosen || !panel) return;
+    const below = panel.getBoundingClientRect().top + firstAidRevealPx - window.innerHeight;
+    if (below <= 0) return;
+    const still = window.matchMedia('(prefers-reduced-motion: reduce)').matches;
+    window.scrollBy({ top: below, behavior: still ? 'auto' : 'smooth' });
+  }, [chosen]);
+  return panelRef;
+}
+
 /** The categories as large tiles; the card's heading already asks the question, so the legend is for screen readers. */
 function CategoryField({ control }: { control: RequestForm['control'] }) {
   const { field, fieldState } = useController({ control, name: 'category' });
@@ -129,6 +153,7 @@ function RequestFields({
   // The company's own text when it has loaded; the common-practice defaults until then, or offline.
   const firstAid = chosen ? (settings.data?.firstAid[chosen] ?? defaultFirstAid[chosen]) : null;
   const fee = settings.data?.callOutFeeCents ?? null;
+  const firstAidRef = useRevealFirstAid(chosen);
   return (
     <>
       {draftSavedAt && (
@@ -155,7 +180,9 @@ function RequestFields({
         {chosen ? `First-aid steps for ${urgentCategoryNames[chosen].label} are shown below.` : ''}
       </p>
       {chosen && firstAid && (
-        <FirstAidPanel category={chosen} firstAid={firstAid} powerBoardHref={powerBoardHref} />
+        <div ref={firstAidRef} className="min-w-0">
+          <FirstAidPanel category={chosen} firstAid={firstAid} powerBoardHref={powerBoardHref} />
+        </div>
       )}
       <SectionCard title="Tell us more">
         {chosen === 'equipment' && <RequestEquipmentField tankId={tankId} powerBoardHref={powerBoardHref} />}

@@ -14,7 +14,7 @@ function reachedAt(request: UrgentRequestView, status: UrgentStatus): string | n
 /**
  * Where the request stands, as a row of steps on a desktop and a column on a phone: each step done
  * is ticked with its time (in the tank's zone), the current one is named as such, the rest are
- * still to come. A change of status is read out (the region is live).
+ * still to come (small dashed tiles on a phone). A change of status is read out (the region is live).
  */
 export function UrgentStatusStepper({ request }: { request: UrgentRequestView }) {
   const declined = request.status === 'declined';
@@ -29,10 +29,16 @@ export function UrgentStatusStepper({ request }: { request: UrgentRequestView })
       <p aria-live="polite" className="sr-only">
         Status: {urgentStatusNames[request.status]}
       </p>
-      <ol aria-label="Progress of the request" className="grid gap-2 md:grid-flow-col md:auto-cols-fr">
+      <ol
+        aria-label="Progress of the request"
+        className="flex flex-wrap gap-2 md:grid md:grid-flow-col md:auto-cols-fr"
+      >
         {steps.map((status, index) => {
           const done = index < current || (index === current && (status === 'resolved' || declined));
           const isCurrent = index === current;
+          // On a phone the steps still to come fold into small tiles in a row, so the answer above
+          // and staff's next step below stay near the first screen.
+          const toCome = index > current;
           const at = index <= current ? reachedAt(request, status) : null;
           // A closed request has no "now": its last step is simply when it ended.
           const final = isCurrent && (status === 'resolved' || status === 'declined');
@@ -42,6 +48,8 @@ export function UrgentStatusStepper({ request }: { request: UrgentRequestView })
               key={status}
               aria-current={isCurrent ? 'step' : undefined}
               className={`flex min-w-0 items-start gap-3 rounded-lg border-2 p-2 md:flex-col md:gap-1 ${
+                toCome ? 'max-md:items-center max-md:gap-1.5 max-md:py-1 max-md:pr-3' : 'w-full'
+              } ${
                 isCurrent
                   ? status === 'declined'
                     ? 'border-nodata-700 bg-nodata-100'
@@ -53,7 +61,9 @@ export function UrgentStatusStepper({ request }: { request: UrgentRequestView })
             >
               <span
                 aria-hidden="true"
-                className={`flex h-7 w-7 shrink-0 items-center justify-center rounded-full text-sm font-bold ${
+                className={`flex shrink-0 items-center justify-center rounded-full font-bold ${
+                  toCome ? 'h-6 w-6 text-xs md:h-7 md:w-7 md:text-sm' : 'h-7 w-7 text-sm'
+                } ${
                   done || index < current
                     ? 'bg-ink-800 text-white'
                     : isCurrent
@@ -64,10 +74,14 @@ export function UrgentStatusStepper({ request }: { request: UrgentRequestView })
                 {status === 'declined' ? '✕' : done || index < current ? '✓' : index + 1}
               </span>
               <span className="min-w-0">
-                <span className={`block ${isCurrent ? 'font-bold text-ink-950' : 'text-ink-900'}`}>
+                <span
+                  className={`block ${isCurrent ? 'font-bold text-ink-950' : 'text-ink-900'} ${
+                    toCome ? 'max-md:text-sm' : ''
+                  }`}
+                >
                   {urgentStatusNames[status]}
                 </span>
-                <span className="block text-xs text-ink-700">
+                <span className={`block text-xs text-ink-700 ${toCome ? 'max-md:sr-only' : ''}`}>
                   {state}
                   {at && (
                     <>
