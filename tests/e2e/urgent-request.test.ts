@@ -1,7 +1,7 @@
 import { request as httpsRequest } from 'node:https';
 import type { Page } from 'playwright-core';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it, onTestFinished } from 'vitest';
 import type { UrgentRequestView, UrgentSettingsView } from '@shared/schemas/urgent-requests';
 import { defaultFirstAid, licensedPracticeNote } from '@shared/urgent/categories';
 import type { ReceivedPush } from '../../api/dev/push-service';
@@ -93,6 +93,20 @@ describe('an urgent visit request in the browser', () => {
 
     // The technician on call has this browser's stand-in push subscription.
     const tech = await signInAt(await session.newPage('desktop'), '/console/urgent', onCallEmail);
+    // She goes on call for this test (an admin puts her on the roster through the API) and comes off
+    // it at the end, whatever happens, so other tests find the roster as the demo leaves it.
+    const technicianId = (await apiInPage<{ id: string }>(tech, 'GET', '/me')).id;
+    const admin = await signInAt(await session.newPage('desktop'), '/console/alerts', 'mara@driftglass.test');
+    const shifts = await apiInPage<Array<{ id: string; user: { id: string } }>>(admin, 'POST', '/on-call', {
+      userId: technicianId,
+      startsAt: new Date(Date.now() - 60 * 60_000).toISOString(),
+      endsAt: new Date(Date.now() + 6 * 60 * 60_000).toISOString(),
+    });
+    const shift = shifts.find((entry) => entry.user.id === technicianId)!;
+    onTestFinished(async () => {
+      await apiInPage(admin, 'DELETE', `/on-call/${shift.id}`);
+      await admin.close();
+    });
     const { subscription } = inject('pushStandIn');
     await apiInPage(tech, 'POST', '/push/subscriptions', {
       endpoint: subscription.endpoint,

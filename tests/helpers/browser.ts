@@ -63,6 +63,15 @@ export async function axeViolations(page: Page): Promise<AxeViolation[]> {
   // Evaluated over the DevTools protocol, so the page's strict CSP stays on during the check.
   await page.evaluate(axeSource);
   return page.evaluate(async () => {
+    // A colour caught halfway through a transition (a button coming back from disabled) is not
+    // what anyone reads: let running transitions and animations end first (infinite ones, such as
+    // a spinner, are left running).
+    await Promise.all(
+      document
+        .getAnimations()
+        .filter((animation) => animation.effect?.getComputedTiming().endTime !== Infinity)
+        .map((animation) => animation.finished.catch(() => undefined)),
+    );
     const axe = (
       window as unknown as {
         axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> };
@@ -114,7 +123,7 @@ export async function apiInPage<T>(page: Page, method: string, path: string, bod
         body: body === undefined ? undefined : JSON.stringify(body),
       });
       if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`);
-      return response.json();
+      return response.status === 204 ? null : response.json();
     },
     { method, path, body },
   ) as Promise<T>;

@@ -49,9 +49,14 @@ function MainNav() {
       ref={navRef}
       aria-label="Main"
       // Staff have a dozen destinations: they get a row of their own under the brand and the
-      // buttons, at every width, rather than a row that hides its last links.
+      // buttons, at every width, rather than a row that hides its last links; so does everyone on
+      // a phone, where the buttons leave no room beside them.
       className={
-        isStaffNav ? 'order-last -mx-1 basis-full overflow-x-auto px-1' : 'min-w-0 flex-1 overflow-x-auto'
+        isStaffNav
+          ? 'order-last -mx-1 basis-full overflow-x-auto px-1'
+          : me
+            ? 'order-last -mx-1 basis-full overflow-x-auto px-1 sm:order-none sm:mx-0 sm:min-w-0 sm:flex-1 sm:basis-auto sm:px-0'
+            : 'min-w-0 flex-1 overflow-x-auto'
       }
     >
       <ul className="flex w-max items-center gap-1">

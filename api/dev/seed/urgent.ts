@@ -1,6 +1,6 @@
 /*
  * The demo's urgent visits: the company's settings (a call-out fee, the default first aid), a
- * technician on call right now, the request behind the urgent heater visit weeks ago (resolved, with
+ * request behind the urgent heater visit weeks ago (resolved, with
  * every step it went through) and one request open today, acknowledged and waiting for a technician.
  * Everything was announced when it happened, so seeding sends nothing. Rows are keyed by `demoId`
  * and written again in place on the next run.
@@ -11,7 +11,6 @@ import type { UrgentSnapshot } from '@shared/schemas/urgent-requests';
 import type { Db } from '../../db/client';
 import {
   alerts,
-  onCallShifts,
   readings,
   tanks,
   urgentRequestEvents,
@@ -228,18 +227,6 @@ export async function seedDemoUrgent(db: Db, options: SeedUrgentOptions): Promis
         target: urgentSettings.companyId,
         set: { ackTargetMinutes: 30, callOutFeeCents: 8500, currency: 'GBP', firstAid: {} },
       });
-    // Priya is on call from this morning until tomorrow morning, whenever the demo starts.
-    const shift = {
-      id: demoId('on-call:now'),
-      companyId,
-      userId: priya.id,
-      startsAt: ago(4 * 60),
-      endsAt: new Date(now.getTime() + 20 * 60 * minuteMs),
-    };
-    await tx
-      .insert(onCallShifts)
-      .values(shift)
-      .onConflictDoUpdate({ target: onCallShifts.id, set: upsert([shift]) });
     await tx
       .insert(urgentRequests)
       .values(requests)
