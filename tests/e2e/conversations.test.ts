@@ -150,7 +150,10 @@ describe('conversations in the browser', () => {
     // Away from the thread, a new line shows as unread on the dashboard's tank card and in the
     // header, live; the tank page leads to it, and reading it clears the count.
     await owner.goto('/tanks');
-    const card = owner.getByRole('article').filter({ hasText: 'Waiting room reef' });
+    // The tank's own card (titled by the tank), not a care tip card that mentions the tank.
+    const card = owner
+      .getByRole('article')
+      .filter({ has: owner.getByRole('heading', { level: 2, name: 'Waiting room reef', exact: true }) });
     await card.waitFor();
     await staffComposer
       .getByLabel('Message', { exact: true })
