@@ -1,5 +1,6 @@
 import type { AddressInfo } from 'node:net';
 import { once } from 'node:events';
+import { createServer } from 'node:http';
 import { generateKeyPairSync } from 'node:crypto';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import webpush from 'web-push';
@@ -60,7 +61,12 @@ export async function startTestStack(
   } = {},
 ) {
   const database = options.database ?? (await createTestDatabase());
-  const port = await freePort();
+  // The app's port is held from the start: its address is needed (APP_ORIGIN) long before the app
+  // exists, and a port only looked up could be taken meanwhile by another test file's server.
+  const server = createServer();
+  server.listen(0, '127.0.0.1');
+  await once(server, 'listening');
+  const port = (server.address() as AddressInfo).port;
   const origin = `http://localhost:${port}`;
   const mail = await startMailServer({ smtpPort: 0 });
   const storageDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-s3-'));
@@ -131,9 +137,7 @@ export async function startTestStack(
   const deps = createDeps({ env, database, logger, clock: clock.now, jobs, events });
   if (jobs) await startWorkers(deps);
   const app = createApp(deps);
-  const server = app.listen(port, '127.0.0.1');
-  await once(server, 'listening');
-  if ((server.address() as AddressInfo).port !== port) throw new Error('app did not get its port');
+  server.on('request', app);
 
   const stack: TestStack = {
     origin,
