@@ -31,6 +31,11 @@ export async function startServer(options: {
   clock?: Clock;
   /** Background work (notification delivery, sweeps); on unless a test wants a bare API. */
   background?: boolean;
+  /**
+   * The sweeps that run at a wall-clock hour; off where a test checks an exact state, which would
+   * otherwise depend on the hour the run crosses.
+   */
+  dailySweeps?: boolean;
 }): Promise<RunningServer & { deps: AppDeps }> {
   const { env, logger } = options;
   const database = connectDatabase(options.databaseUrl);
@@ -48,7 +53,7 @@ export async function startServer(options: {
     events,
     webDist: options.serveClient === false ? undefined : webDist,
   });
-  if (jobs) await startWorkers(deps);
+  if (jobs) await startWorkers(deps, { dailySweeps: options.dailySweeps });
   const app = createApp(deps);
   const server = app.listen(options.port ?? env.PORT, '127.0.0.1');
   await once(server, 'listening');

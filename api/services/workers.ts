@@ -18,7 +18,7 @@ type DeliveryJob = { deliveryId: string };
  * The background half of the app, running in every API process (pg-boss hands each job to one
  * of them). Handlers are idempotent: every delivery is checked against its record before sending.
  */
-export async function startWorkers(deps: AppDeps) {
+export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boolean } = {}) {
   const boss = deps.jobs;
   if (!boss) throw new Error('startWorkers needs the job queue');
   await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
@@ -81,6 +81,11 @@ export async function startWorkers(deps: AppDeps) {
     }
   });
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });
+  if (options.dailySweeps === false) {
+    await boss.unschedule(queues.sweep, 'overdue-tests');
+    await boss.unschedule(queues.sweep, 'audit-retention');
+    return;
+  }
   await boss.schedule(queues.sweep, '0 7 * * *', { overdue: true }, { key: 'overdue-tests' });
   await boss.schedule(queues.sweep, '30 3 * * *', { auditRetention: true }, { key: 'audit-retention' });
 }

@@ -72,7 +72,14 @@ export default async function setup(project: TestProject) {
   await seedDemo(seeding.db, { issuer: env.OIDC_ISSUER, storage: seedStorage, raiseAlerts: false });
   seedStorage.close();
   await seeding.pool.end();
-  const server = await startServer({ env, databaseUrl: database.url, logger: createLogger('silent') });
+  // The browser tests check exact boards and notification lists, so the 07:00 overdue-test sweep
+  // must not open notices in whichever run crosses that hour.
+  const server = await startServer({
+    env,
+    databaseUrl: database.url,
+    logger: createLogger('silent'),
+    dailySweeps: false,
+  });
   project.provide('appUrl', server.url);
   project.provide('mailboxUrl', `http://127.0.0.1:${mailboxPort}`);
   project.provide('pushStandIn', {
