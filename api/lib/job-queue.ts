@@ -27,6 +27,7 @@ const heartbeatSeconds = 30;
 
 /** Deliveries retry with exponential backoff for about a day before they land in the dead-letter queue. */
 const deliveryRetries = {
+  notify: true,
   retryLimit: 20,
   retryDelay: 1,
   retryBackoff: true,
@@ -44,18 +45,24 @@ async function ensureQueue(boss: PgBoss, name: string, settings: QueueSettings) 
 }
 
 export async function startJobQueue(databaseUrl: string, logger: Logger): Promise<PgBoss> {
-  const boss = new PgBoss({ connectionString: databaseUrl, max: 4 });
+  // LISTEN/NOTIFY wakes a worker the moment a notify-enabled queue gets a job (one more connection),
+  // so an alert's fan-out and its push wait for no polling interval.
+  const boss = new PgBoss({ connectionString: databaseUrl, max: 4, useListenNotify: true });
   // An unhandled 'error' event would end the process; log it and carry on (pg-boss retries).
   boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
+  // Without LISTEN (a pooler in transaction mode) pg-boss falls back to polling: say so once.
+  boss.on('warning', (warning) => logger.warn({ warning }, 'job queue warning'));
   await boss.start();
   await ensureQueue(boss, queues.dead, { retentionSeconds: 30 * 24 * 3600 });
   await ensureQueue(boss, queues.fanOut, {
+    notify: true,
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,
     heartbeatSeconds,
   });
   await ensureQueue(boss, queues.newsFanOut, {
+    notify: true,
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,
@@ -63,6 +70,7 @@ export async function startJobQueue(databaseUrl: string, logger: Logger): Promis
   });
   // The claim on the tip makes a second run a no-op; the minute sweep sends any job lost on the way.
   await ensureQueue(boss, queues.tipSend, {
+    notify: true,
     retryLimit: 10,
     retryDelay: 1,
     retryBackoff: true,

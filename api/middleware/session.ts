@@ -33,6 +33,9 @@ export function createSessionMiddleware(env: Env, pool: pg.Pool): RequestHandler
       tableName: 'session',
       createTableIfMissing: false,
       pruneSessionInterval: 15 * 60,
+      // The cookie's expiry is fixed at sign-in (`rolling: false`), so a touch would rewrite the same
+      // expiry in a durable UPDATE on every request. loadActor saves `lastSeenAt` once a minute.
+      disableTouch: true,
     }),
     resave: false,
     saveUninitialized: false,

@@ -15,17 +15,29 @@ import { escalateOverdueRequests, fanOutUrgentEvent, unannouncedUrgentEvents } f
 type DeliveryJob = { deliveryId: string };
 
 /**
+ * Queues that carry news to people: woken by NOTIFY (job-queue.ts), polled every 10 s as a backstop
+ * (every second when LISTEN is unavailable). One job a fetch, so a job that fails is retried alone
+ * and holds back no other; two workers per process, so a burst of alerts is not served in single file.
+ */
+const prompt = {
+  pollingIntervalSeconds: 1,
+  notifyPollingIntervalSeconds: 10,
+  localConcurrency: 2,
+};
+
+/**
  * The background half of the app, running in every API process (pg-boss hands each job to one
  * of them). Handlers are idempotent: every delivery is checked against its record before sending.
  */
 export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boolean } = {}) {
   const boss = deps.jobs;
   if (!boss) throw new Error('startWorkers needs the job queue');
-  await boss.work<{ eventId: string }>(queues.fanOut, async (jobs) => {
+  await boss.work<{ eventId: string }>(queues.fanOut, prompt, async (jobs) => {
     for (const job of jobs) await fanOutAlertEvent(deps, job.data.eventId);
   });
   await boss.work<{ visitId: string } | { tipId: string } | { urgentEventId: string }>(
     queues.newsFanOut,
+    prompt,
     async (jobs) => {
       for (const job of jobs) {
         if ('urgentEventId' in job.data) await fanOutUrgentEvent(deps, job.data.urgentEventId);
@@ -35,26 +47,18 @@ export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boole
     },
   );
   // A tip at its set time; the claim in deliverTip makes a second run (or the sweep's) a no-op.
-  await boss.work<{ tipId: string }>(queues.tipSend, async (jobs) => {
+  await boss.work<{ tipId: string }>(queues.tipSend, prompt, async (jobs) => {
     for (const job of jobs) await deliverTip(deps, job.data.tipId, undefined, { dueOnly: true });
   });
   await boss.work<UnreadEmailCheck>(queues.conversationUnreadEmail, async (jobs) => {
     for (const job of jobs) await checkUnreadEmail(deps, job.data);
   });
-  await boss.work<DeliveryJob>(
-    queues.email,
-    { pollingIntervalSeconds: 1 },
-    async (jobs: Job<DeliveryJob>[]) => {
-      for (const job of jobs) await deliverEmailJob(deps, job.data.deliveryId);
-    },
-  );
-  await boss.work<DeliveryJob>(
-    queues.push,
-    { pollingIntervalSeconds: 1 },
-    async (jobs: Job<DeliveryJob>[]) => {
-      for (const job of jobs) await deliverPushJob(deps, job.data.deliveryId);
-    },
-  );
+  await boss.work<DeliveryJob>(queues.email, prompt, async (jobs: Job<DeliveryJob>[]) => {
+    for (const job of jobs) await deliverEmailJob(deps, job.data.deliveryId);
+  });
+  await boss.work<DeliveryJob>(queues.push, prompt, async (jobs: Job<DeliveryJob>[]) => {
+    for (const job of jobs) await deliverPushJob(deps, job.data.deliveryId);
+  });
   // Out of retries: the delivery is marked failed, which staff see on the deliveries list.
   await boss.work<DeliveryJob>(queues.dead, async (jobs) => {
     for (const job of jobs) {
