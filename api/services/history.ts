@@ -1,4 +1,6 @@
 import { sql } from 'drizzle-orm';
+import { dayMs, hourMs } from '@shared/parameters/catalogue';
+import type { ParameterKey } from '@shared/parameters/keys';
 import { bucketOrigin, bucketWidthMs } from '@shared/readings/buckets';
 import type { ReadingBucket, ReadingHistory, ReadingHistoryQuery } from '@shared/schemas/readings';
 import type { Db } from '../db/client';
@@ -19,9 +21,10 @@ type BucketRow = {
 };
 
 /**
- * A window of one parameter's history. PostgreSQL does the summarising (date_bin over
- * readings_history_idx), so a year of 5-minute device readings leaves the database as a few
- * hundred rows. A window with no more readings than `points` comes back raw instead.
+ * A window of one parameter's history. PostgreSQL does the summarising, so a year of 5-minute
+ * device readings leaves the database as a few hundred rows: buckets of whole hours or days are
+ * read from the rollups (365 rows for a year), shorter ones from the readings. A window with no
+ * more readings than `points` comes back raw instead.
  */
 export async function readingHistory(
   db: Db,
@@ -36,18 +39,7 @@ export async function readingHistory(
   const bucketMs = bucketWidthMs(Date.parse(to) - Date.parse(from), points);
 
   const [bucketed, limits] = await Promise.all([
-    db.execute<BucketRow>(sql`
-      select
-        extract(epoch from date_bin(${`${bucketMs} milliseconds`}::interval, r.measured_at, ${bucketOrigin}::timestamptz)) * 1000
-          as start_ms,
-        min(r.value) as min, avg(r.value) as mean, max(r.value) as max, count(*)::int as count,
-        (count(*) filter (where r.source = 'device'))::int as device,
-        (count(*) filter (where r.source = 'home-test'))::int as home,
-        (count(*) filter (where r.source = 'visit'))::int as visit
-      from readings r
-      where ${window}
-      group by 1
-      order by 1`),
+    db.execute<BucketRow>(bucketQuery(tank.id, parameter, from, to, bucketMs)),
     parameterLimitsInForce(db, tank, parameter),
   ]);
   const total = bucketed.rows.reduce((sum, row) => sum + row.count, 0);
@@ -91,4 +83,71 @@ export async function readingHistory(
     readings: people.rows.map(readingFromRow),
     latest: latest.rows[0] ? readingFromRow(latest.rows[0]) : null,
   };
+}
+
+/** The rollup table whose buckets tile a bucket of this width, if any. */
+function rollupFor(bucketMs: number) {
+  if (bucketMs % dayMs === 0) return { table: sql.raw('reading_rollups_daily'), unit: '1 day' };
+  if (bucketMs % hourMs === 0) return { table: sql.raw('reading_rollups_hourly'), unit: '1 hour' };
+  return null;
+}
+
+/**
+ * One row per chart bucket: min, mean, max and counts by source. With a rollup, the window's whole
+ * hours or days come from it and only the partial ones at either end from the readings (at most
+ * two units' worth), so the answer equals the one from the readings alone, to rounding of the mean.
+ */
+function bucketQuery(tankId: string, parameter: ParameterKey, from: string, to: string, bucketMs: number) {
+  const width = `${bucketMs} milliseconds`;
+  const inWindow = sql`r.tank_id = ${tankId} and r.parameter = ${parameter}`;
+  const rollup = rollupFor(bucketMs);
+  if (!rollup) {
+    return sql`
+      select
+        extract(epoch from date_bin(${width}::interval, r.measured_at, ${bucketOrigin}::timestamptz)) * 1000
+          as start_ms,
+        min(r.value) as min, avg(r.value) as mean, max(r.value) as max, count(*)::int as count,
+        (count(*) filter (where r.source = 'device'))::int as device,
+        (count(*) filter (where r.source = 'home-test'))::int as home,
+        (count(*) filter (where r.source = 'visit'))::int as visit
+      from readings r
+      where ${inWindow} and r.measured_at >= ${from}::timestamptz and r.measured_at <= ${to}::timestamptz
+      group by 1
+      order by 1`;
+  }
+  // [whole_from, whole_to) are the rollup buckets wholly inside the window; when the window holds
+  // none, whole_from >= whole_to and the two raw ranges below cover it all, without overlap.
+  return sql`
+    with bounds as (
+      select
+        case when date_bin(${rollup.unit}::interval, w.f, ${bucketOrigin}::timestamptz) = w.f then w.f
+          else date_bin(${rollup.unit}::interval, w.f, ${bucketOrigin}::timestamptz) + ${rollup.unit}::interval
+        end as whole_from,
+        date_bin(${rollup.unit}::interval, w.t, ${bucketOrigin}::timestamptz) as whole_to,
+        w.f, w.t
+      from (select ${from}::timestamptz as f, ${to}::timestamptz as t) w
+    ),
+    parts as (
+      select h.bucket_start as at, h.min, h.max, h.sum, h.count, h.device_count, h.home_count, h.visit_count
+      from ${rollup.table} h, bounds b
+      where h.tank_id = ${tankId} and h.parameter = ${parameter}
+        and h.bucket_start >= b.whole_from and h.bucket_start < b.whole_to
+      union all
+      select r.measured_at, r.value, r.value, r.value, 1,
+        (r.source = 'device')::int, (r.source = 'home-test')::int, (r.source = 'visit')::int
+      from readings r, bounds b
+      where ${inWindow} and r.measured_at >= b.f and r.measured_at < b.whole_from and r.measured_at <= b.t
+      union all
+      select r.measured_at, r.value, r.value, r.value, 1,
+        (r.source = 'device')::int, (r.source = 'home-test')::int, (r.source = 'visit')::int
+      from readings r, bounds b
+      where ${inWindow} and r.measured_at >= greatest(b.whole_to, b.whole_from) and r.measured_at <= b.t
+    )
+    select
+      extract(epoch from date_bin(${width}::interval, p.at, ${bucketOrigin}::timestamptz)) * 1000 as start_ms,
+      min(p.min) as min, sum(p.sum) / sum(p.count) as mean, max(p.max) as max, sum(p.count)::int as count,
+      sum(p.device_count)::int as device, sum(p.home_count)::int as home, sum(p.visit_count)::int as visit
+    from parts p
+    group by 1
+    order by 1`;
 }

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import type { LivestockInhabitant } from '@shared/alerts/livestock';
-import { reportingGaps, reportingGapsSampled } from '@shared/alerts/stale-device';
+import { reportingGaps } from '@shared/alerts/stale-device';
 import { findSpecies } from '@shared/livestock/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { limitTemplates } from '@shared/parameters/limit-templates';
@@ -42,10 +42,10 @@ type HealthRow = {
 /**
  * Health of many tanks in ONE query that gathers the facts, decided by `judgeTank`
  * (shared/tanks/status.ts), so every screen that shows a status says the same thing:
- * - the latest reading per (tank, parameter) is one backward probe of readings_history_idx per
- *   pair (LATERAL … ORDER BY measured_at DESC LIMIT 1), so the cost follows the number of tanks,
- *   not the years of history behind them; a device's latest reading brings that device's last
- *   reports of the parameter (a probe of readings_device_key), which set its freshness window;
+ * - the latest reading per (tank, parameter) is a row of latest_readings, kept by a trigger in the
+ *   statement that stores readings, so the cost follows the number of tanks, not the years of
+ *   history behind them; a device's latest reading carries that device's last reports of the
+ *   parameter, which set its freshness window;
  * - limits follow `limitsInForce` (shared/parameters/limits-in-force.ts: the tank's own row, else
  *   its style's template), tested against it;
  * - the present livestock (their care ranges make the comfort range) and the alerts not resolved.
@@ -77,28 +77,12 @@ export async function healthForTanks(
         lr.value,
         lr.measured_at,
         lr.source,
-        dm.moments as device_moments
+        (select array_agg(extract(epoch from m) * 1000) from unnest(lr.device_moments) m) as device_moments
       from wanted w
       cross join unnest(enum_range(null::parameter_key)) as p(parameter)
       left join tank_limits l on l.tank_id = w.id and l.parameter = p.parameter
       left join templates tp on tp.style = w.style and tp.parameter = p.parameter::text
-      left join lateral (
-        select r.value, r.measured_at, r.source, r.device_id
-        from readings r
-        where r.tank_id = w.id and r.parameter = p.parameter
-        order by r.measured_at desc, r.id desc
-        limit 1
-      ) lr on true
-      left join lateral (
-        select array_agg(extract(epoch from recent.measured_at) * 1000) as moments
-        from (
-          select d.measured_at
-          from readings d
-          where d.device_id = lr.device_id and d.parameter = p.parameter and d.measured_at <= lr.measured_at
-          order by d.measured_at desc
-          limit ${reportingGapsSampled + 1}
-        ) recent
-      ) dm on lr.device_id is not null
+      left join latest_readings lr on lr.tank_id = w.id and lr.parameter = p.parameter
     )
     select
       w.id as tank_id,

@@ -14,7 +14,11 @@ export interface StaleDeviceOutcome {
 
 /** How many of its usual reporting intervals a device may miss before it counts as silent. */
 export const missedReportsBeforeStale = 3;
-/** How many recent gaps between reports set a device's usual interval. */
+/**
+ * How many recent gaps between reports set a device's usual interval. The database keeps the last
+ * `reportingGapsSampled + 1` report times with each latest reading (reading_device_moments in
+ * drizzle/0016): change both together (tests/api/reading-summaries.test.ts checks they agree).
+ */
 export const reportingGapsSampled = 10;
 
 /**

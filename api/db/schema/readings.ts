@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm';
 import {
   bigint,
   doublePrecision,
+  integer,
   index,
   pgEnum,
   pgTable,
@@ -80,8 +81,67 @@ export const readings = pgTable(
     uniqueIndex('readings_device_key')
       .on(t.deviceId, t.parameter, t.measuredAt)
       .where(sql`${t.deviceId} is not null`),
+    // The readings people took (a few a week among 288 a day from a device), for charts and the
+    // overdue-test sweep, without walking the device rows.
+    index('readings_people_idx')
+      .on(t.tankId, t.parameter, t.measuredAt)
+      .where(sql`${t.source} <> 'device'`),
   ],
 );
+
+/**
+ * The newest reading per (tank, parameter), kept by a trigger on `readings` in the statement that
+ * stores the readings (drizzle/0016), so a tank's health is one primary-key probe per parameter.
+ * `device_moments` are the last report times of the device behind it, newest first, up to and
+ * including this reading: they set how fresh the device's reading counts as.
+ */
+export const latestReadings = pgTable(
+  'latest_readings',
+  {
+    tankId: uuid('tank_id')
+      .notNull()
+      .references(() => tanks.id, { onDelete: 'cascade' }),
+    parameter: parameterKey('parameter').notNull(),
+    readingId: bigint('reading_id', { mode: 'number' }).notNull(),
+    value: doublePrecision('value').notNull(),
+    measuredAt: timestamp('measured_at', { withTimezone: true }).notNull(),
+    source: readingSource('source').notNull(),
+    deviceId: uuid('device_id'),
+    deviceMoments: timestamp('device_moments', { withTimezone: true }).array(),
+  },
+  (t) => [primaryKey({ columns: [t.tankId, t.parameter] })],
+);
+
+/**
+ * Summaries of readings per (tank, parameter) and hour or UTC day, kept by the same trigger, so a
+ * year's chart reads 365 rows instead of 105,000. Buckets start on the chart's own grid
+ * (`bucketOrigin`), so any whole-hour or whole-day width is a union of them. `last_*` is the
+ * newest reading in the bucket.
+ */
+const rollupColumns = () => ({
+  tankId: uuid('tank_id')
+    .notNull()
+    .references(() => tanks.id, { onDelete: 'cascade' }),
+  parameter: parameterKey('parameter').notNull(),
+  bucketStart: timestamp('bucket_start', { withTimezone: true }).notNull(),
+  min: doublePrecision('min').notNull(),
+  max: doublePrecision('max').notNull(),
+  sum: doublePrecision('sum').notNull(),
+  count: integer('count').notNull(),
+  deviceCount: integer('device_count').notNull(),
+  homeCount: integer('home_count').notNull(),
+  visitCount: integer('visit_count').notNull(),
+  lastValue: doublePrecision('last_value').notNull(),
+  lastAt: timestamp('last_at', { withTimezone: true }).notNull(),
+});
+
+export const readingRollupsHourly = pgTable('reading_rollups_hourly', rollupColumns(), (t) => [
+  primaryKey({ columns: [t.tankId, t.parameter, t.bucketStart] }),
+]);
+
+export const readingRollupsDaily = pgTable('reading_rollups_daily', rollupColumns(), (t) => [
+  primaryKey({ columns: [t.tankId, t.parameter, t.bucketStart] }),
+]);
 
 /**
  * Warning and critical bands per tank and parameter; any bound may be open (null). The row also
