@@ -2,7 +2,8 @@ import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import * as schema from './schema/index';
 
-export type Db = NodePgDatabase<typeof schema>;
+/** `$client` is the pool, for the few hot-path statements prepared by name (./prepared.ts). */
+export type Db = NodePgDatabase<typeof schema> & { $client: pg.Pool };
 
 export interface Database {
   pool: pg.Pool;

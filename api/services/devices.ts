@@ -1,11 +1,13 @@
 import { and, desc, eq, isNull } from 'drizzle-orm';
 import type { CreatedDevice, DeviceSummary } from '@shared/schemas/readings';
 import type { Db } from '../db/client';
+import { preparedStatement } from '../db/prepared';
 import { devices } from '../db/schema/index';
 import { notFound } from '../lib/http-error';
 import { hashToken, newSecretToken } from '../lib/tokens';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
+import { tankExistsFrom } from './readings';
 import { recordAudit, type AuditSource } from './audit';
 
 /** What the ingest route knows about its caller, taken from the token alone. */
@@ -13,10 +15,23 @@ export interface DeviceIdentity {
   id: string;
   companyId: string;
   tankId: string;
+  /** Readings from before this are refused (`tankExistsFrom`). */
+  tankExistsFrom: Date;
 }
 
 /** Says "a Brinewatch device token" to secret scanners and to the person pasting it. */
 const tokenPrefix = 'bwd_';
+
+const deviceByToken = preparedStatement<
+  { id: string; companyId: string; tankId: string; createdAt: Date; setUpOn: string | null },
+  [tokenHash: string]
+>(
+  'device-by-token',
+  `select d.id, d.company_id as "companyId", d.tank_id as "tankId",
+     t.created_at as "createdAt", t.set_up_on::text as "setUpOn"
+   from devices d join tanks t on t.id = d.tank_id
+   where d.token_hash = $1 and d.revoked_at is null`,
+);
 
 /** A new device token with what is stored of it: its hash, and a hint staff can tell it by. */
 export function issueDeviceToken(): { token: string; tokenHash: string; tokenHint: string } {
@@ -104,9 +119,9 @@ export async function revokeDevice(
 }
 
 export async function findDeviceByToken(db: Db, token: string): Promise<DeviceIdentity | null> {
-  const [row] = await db
-    .select({ id: devices.id, companyId: devices.companyId, tankId: devices.tankId })
-    .from(devices)
-    .where(and(eq(devices.tokenHash, hashToken(token)), isNull(devices.revokedAt)));
-  return row ?? null;
+  // On every ingest request: one prepared statement brings the tank's dates along.
+  const [row] = await deviceByToken(db, hashToken(token));
+  if (!row) return null;
+  const { createdAt, setUpOn, ...device } = row;
+  return { ...device, tankExistsFrom: tankExistsFrom({ createdAt, setUpOn }) };
 }

@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import type { ParameterKey } from '@shared/parameters/keys';
 import { checkStoredValue } from '@shared/parameters/units';
 import {
@@ -8,12 +8,51 @@ import {
   type IngestResult,
 } from '@shared/schemas/readings';
 import type { AppDeps } from '../deps';
-import { devices, readings, tanks } from '../db/schema/index';
-import { HttpError, notFound } from '../lib/http-error';
+import { commitReadings, timeProblem, timeProblemMessage, type Tx } from './readings';
+import { HttpError } from '../lib/http-error';
 import type { DeviceIdentity } from './devices';
-import { commitReadings, tankExistsFrom, timeProblem, timeProblemMessage } from './readings';
 
-type NewReading = typeof readings.$inferInsert;
+interface DeviceRow {
+  parameter: ParameterKey;
+  value: number;
+  entered: number;
+  unit: string;
+  measuredAt: Date;
+}
+
+/** A device's last_seen_at moves at most once a minute: the stale-device sweep needs no finer. */
+const lastSeenStepMs = 60_000;
+
+/**
+ * The batch in one statement: the rows go in as one array per column (no per-row work in the query
+ * builder), the unique index drops what is already stored, and the trigger on readings keeps the
+ * latest readings and the rollups in the same statement. The device's last_seen_at rides along.
+ */
+async function storeDeviceBatch(tx: Tx, device: DeviceIdentity, rows: readonly DeviceRow[], now: Date) {
+  const result = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
+    with seen as (
+      update devices set last_seen_at = ${now.toISOString()}::timestamptz
+      where id = ${device.id}
+        and (last_seen_at is null or last_seen_at < ${new Date(now.getTime() - lastSeenStepMs).toISOString()}::timestamptz)
+    )
+    insert into readings (company_id, tank_id, device_id, source, parameter, value, entered_value, entered_unit, measured_at)
+    select ${device.companyId}::uuid, ${device.tankId}::uuid, ${device.id}::uuid, 'device', r.parameter, r.value, r.entered, r.unit, r.measured_at
+    from unnest(
+      ${sql.param(rows.map((row) => row.parameter))}::parameter_key[],
+      ${sql.param(rows.map((row) => row.value))}::float8[],
+      ${sql.param(rows.map((row) => row.entered))}::float8[],
+      ${sql.param(rows.map((row) => row.unit))}::text[],
+      ${sql.param(rows.map((row) => row.measuredAt.toISOString()))}::timestamptz[]
+    ) as r(parameter, value, entered, unit, measured_at)
+    on conflict (device_id, parameter, measured_at) where device_id is not null do nothing
+    returning parameter, value, measured_at`);
+  return result.rows.map((row) => ({
+    parameter: row.parameter,
+    value: row.value,
+    measuredAt: new Date(row.measured_at),
+    source: 'device' as const,
+  }));
+}
 
 function shapeReason(path: PropertyKey | undefined): IngestRejectionReason {
   if (path === 'parameter') return 'unknown-parameter';
@@ -37,16 +76,11 @@ export async function ingestReadings(
     throw new HttpError(413, 'batch_too_large', `Send at most ${maxDeviceBatch} readings per request.`);
   }
   const now = deps.clock();
-  const [tank] = await deps.db
-    .select({ createdAt: tanks.createdAt, setUpOn: tanks.setUpOn })
-    .from(tanks)
-    .where(eq(tanks.id, device.tankId));
-  if (!tank) throw notFound('tank');
-  const existsFrom = tankExistsFrom(tank);
+  const existsFrom = device.tankExistsFrom;
 
   const rejected: IngestResult['rejected'] = [];
   const seen = new Set<string>();
-  const rows: NewReading[] = [];
+  const rows: DeviceRow[] = [];
   let duplicate = 0;
   batch.forEach((raw, index) => {
     const parsed = deviceReadingInput.safeParse(raw);
@@ -84,34 +118,17 @@ export async function ingestReadings(
     }
     seen.add(key);
     rows.push({
-      companyId: device.companyId,
-      tankId: device.tankId,
       parameter: reading.parameter,
       value: stored.value,
-      enteredValue: reading.value,
-      enteredUnit: reading.unit,
+      entered: reading.value,
+      unit: reading.unit,
       measuredAt,
-      source: 'device',
-      deviceId: device.id,
     });
   });
 
   const accepted = await commitReadings(deps, device.tankId, async (tx) => {
-    const inserted: Array<{ parameter: ParameterKey; value: number; measuredAt: Date; source: 'device' }> =
-      [];
-    if (rows.length > 0) {
-      const saved = await tx
-        .insert(readings)
-        .values(rows)
-        .onConflictDoNothing({
-          target: [readings.deviceId, readings.parameter, readings.measuredAt],
-          where: sql`${readings.deviceId} is not null`,
-        })
-        .returning({ parameter: readings.parameter, value: readings.value, measuredAt: readings.measuredAt });
-      inserted.push(...saved.map((row) => ({ ...row, source: 'device' as const })));
-    }
-    await tx.update(devices).set({ lastSeenAt: now }).where(eq(devices.id, device.id));
-    return { stored: inserted, result: inserted.length };
+    const stored = await storeDeviceBatch(tx, device, rows, now);
+    return { stored, result: stored.length };
   });
   return { accepted, duplicate: duplicate + rows.length - accepted, rejected };
 }
