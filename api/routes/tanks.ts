@@ -1,9 +1,22 @@
 import { Router } from 'express';
-import { createTankInput, tankIdParams, tankListQuery, updateTankInput } from '@shared/schemas/tanks';
+import {
+  createTankInput,
+  tankIdParams,
+  tankListQuery,
+  tankOverviewQuery,
+  updateTankInput,
+} from '@shared/schemas/tanks';
 import { created, route } from '../lib/route';
 import { can } from '../policy/index';
 import { tankComfortRange } from '../services/livestock';
-import { createTank, getTankDetail, listAssignableStaff, listTanks, updateTank } from '../services/tanks';
+import {
+  createTank,
+  getTankDetail,
+  listAssignableStaff,
+  listTanks,
+  tankOverview,
+  updateTank,
+} from '../services/tanks';
 
 export const tanksRouter = Router();
 
@@ -17,6 +30,13 @@ tanksRouter.post(
   can('tanks:write'),
   route({ body: createTankInput }, async ({ deps, actor, body }) =>
     created(await createTank(deps.db, actor, body, deps.clock())),
+  ),
+);
+tanksRouter.get(
+  '/overview',
+  can('clients:read'),
+  route({ query: tankOverviewQuery }, ({ deps, actor, query }) =>
+    tankOverview(deps.db, actor, query, deps.clock()),
   ),
 );
 tanksRouter.get(

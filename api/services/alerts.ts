@@ -11,6 +11,7 @@ import type { Actor } from './actors';
 import { evaluateNewReadings, rejudgeLatestReadings, type NewReading } from './alert-engine';
 import { withTankAlerts } from './alert-store';
 import { fanOutAlertEvent } from './notify';
+import { refreshTankStatus } from './tank-status';
 
 const acknowledger = aliasedTable(users, 'acknowledger');
 
@@ -165,6 +166,7 @@ async function announceAlertChange(deps: AppDeps, tankId: string, companyId: str
  * notifications — through the job queue when one runs, in-process otherwise (API-only tests).
  */
 export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[]) {
+  const changedTanks = new Set<string>();
   for (const eventId of eventIds) {
     const [row] = await deps.db
       .select({ alertId: alerts.id, tankId: alerts.tankId, companyId: alerts.companyId })
@@ -172,9 +174,17 @@ export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[
       .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
       .where(eq(alertEvents.id, eventId));
     if (!row) continue;
+    changedTanks.add(row.tankId);
     await announceAlertChange(deps, row.tankId, row.companyId, row.alertId);
     if (deps.jobs) await deps.jobs.send(queues.fanOut, { eventId }, { singletonKey: eventId });
     else await fanOutAlertEvent(deps, eventId);
+  }
+  // The overview's order follows at once. The change is already stored and announced, and the
+  // sweep and every overview page judge again, so a failure here is only logged.
+  if (changedTanks.size > 0) {
+    await refreshTankStatus(deps.db, [...changedTanks], deps.clock()).catch((error: unknown) =>
+      deps.logger.error({ err: error }, 'storing tank statuses after an alert change failed'),
+    );
   }
 }
 

@@ -1,6 +1,8 @@
 import { and, asc, eq, exists, gt, ilike, inArray, isNull, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { tankStatusValues, type TankStatus } from '@shared/parameters/health';
 import { tankStyleWaterType } from '@shared/parameters/limit-templates';
+import { encodeTankOverviewCursor, tankOverviewPageSize } from '@shared/schemas/tanks';
 import { photoUrls } from '@shared/schemas/photos';
 import { visitOverdue } from '@shared/visits/overdue';
 import type {
@@ -10,16 +12,19 @@ import type {
   PhotoRef,
   TankDetail,
   TankListQuery,
+  TankOverviewPage,
+  TankOverviewQuery,
   TankSummary,
   updateTankInput,
 } from '@shared/schemas/tanks';
 import type { z } from 'zod';
 import type { Db } from '../db/client';
-import { companies, photos, tankMembers, tanks, users, visits } from '../db/schema/index';
+import { companies, photos, tankMembers, tankStatuses, tanks, users, visits } from '../db/schema/index';
 import { HttpError, type ErrorIssue } from '../lib/http-error';
 import { findTankFor, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
-import { healthForTanks } from './tank-health';
+import { healthForTanks, type TankHealthSummary } from './tank-health';
+import { refreshTankStatus } from './tank-status';
 
 type CreateTank = z.output<typeof createTankInput>;
 type UpdateTank = z.output<typeof updateTankInput>;
@@ -147,13 +152,9 @@ function toSummary(
   };
 }
 
-export async function listTanks(
-  db: Db,
-  actor: Actor,
-  query: TankListQuery,
-  now: Date,
-): Promise<TankSummary[]> {
-  const conditions: SQL[] = [visibleTanks(db, actor)];
+/** The tank list's filters: a name, site or owner's name, and who looks after the tank. */
+function listFilters(db: Db, query: TankListQuery): SQL[] {
+  const conditions: SQL[] = [];
   if (query.q) {
     const pattern = containsPattern(query.q);
     const ownerNamed = db
@@ -165,25 +166,124 @@ export async function listTanks(
   }
   if (query.technicianId === 'none') conditions.push(isNull(tanks.assignedTechnicianId));
   else if (query.technicianId) conditions.push(eq(tanks.assignedTechnicianId, query.technicianId));
+  return conditions;
+}
 
-  const rows = await summaryQuery(db)
-    .where(and(...conditions))
-    .orderBy(asc(tanks.name), asc(tanks.id));
-  const ids = rows.map((row) => row.tank.id);
-  const [owners, health, next] = await Promise.all([
+/** Summaries of these tanks, in this order, with the health given (or judged now). */
+async function summariesOf(
+  db: Db,
+  ids: string[],
+  now: Date,
+  judged?: Map<string, TankHealthSummary>,
+): Promise<TankSummary[]> {
+  if (ids.length === 0) return [];
+  const [rows, owners, health, next] = await Promise.all([
+    summaryQuery(db).where(inArray(tanks.id, ids)),
     ownersOf(db, ids),
-    healthForTanks(db, ids, now),
+    judged ?? healthForTanks(db, ids, now),
     nextVisitsOf(db, ids, now),
   ]);
-  return rows.map((row) =>
-    toSummary(
-      row,
-      owners.get(row.tank.id) ?? [],
-      now,
-      health.get(row.tank.id),
-      next.get(row.tank.id) ?? null,
-    ),
+  const byId = new Map(rows.map((row) => [row.tank.id, row]));
+  return ids.flatMap((id) => {
+    const row = byId.get(id);
+    return row ? [toSummary(row, owners.get(id) ?? [], now, health.get(id), next.get(id) ?? null)] : [];
+  });
+}
+
+export async function listTanks(
+  db: Db,
+  actor: Actor,
+  query: TankListQuery,
+  now: Date,
+): Promise<TankSummary[]> {
+  const rows = await db
+    .select({ id: tanks.id })
+    .from(tanks)
+    .where(and(visibleTanks(db, actor), ...listFilters(db, query)))
+    .orderBy(asc(tanks.name), asc(tanks.id));
+  return summariesOf(
+    db,
+    rows.map((row) => row.id),
+    now,
   );
+}
+
+/**
+ * The staff overview, a page at a time: worst status first, then the longest in it (the stored
+ * statuses of `tank_status` decide the order and the cursor), so a company with thousands of tanks
+ * costs what one page costs. The page's tanks are judged again as they are shown, and any status
+ * that moved is stored, so a row never says something older than the moment it was read.
+ */
+export async function tankOverview(
+  db: Db,
+  actor: Actor,
+  query: TankOverviewQuery,
+  now: Date,
+): Promise<TankOverviewPage> {
+  await judgeUnjudgedTanks(db, actor.companyId, now);
+  const filters = and(eq(tankStatuses.companyId, actor.companyId), ...listFilters(db, query))!;
+  const styled = query.style ? and(filters, eq(tanks.style, query.style))! : filters;
+  const { after } = query;
+  const page = await db
+    .select({ id: tanks.id, rank: tankStatuses.rank, since: tankStatuses.since })
+    .from(tankStatuses)
+    .innerJoin(tanks, eq(tanks.id, tankStatuses.tankId))
+    .where(
+      and(
+        styled,
+        query.status ? inArray(tankStatuses.status, query.status) : undefined,
+        after
+          ? sql`(${tankStatuses.rank}, ${tankStatuses.since}, ${tankStatuses.tankId}) > (${after.rank}, ${after.since}::timestamptz, ${after.id}::uuid)`
+          : undefined,
+      ),
+    )
+    .orderBy(asc(tankStatuses.rank), asc(tankStatuses.since), asc(tankStatuses.tankId))
+    .limit(tankOverviewPageSize + 1);
+  const shown = page.slice(0, tankOverviewPageSize);
+  const last = shown.at(-1);
+  const ids = shown.map((row) => row.id);
+  const [counted, judged] = await Promise.all([
+    db
+      .select({ status: tankStatuses.status, count: sql<number>`count(*)::int` })
+      .from(tankStatuses)
+      .innerJoin(tanks, eq(tanks.id, tankStatuses.tankId))
+      .where(styled)
+      .groupBy(tankStatuses.status),
+    refreshTankStatus(db, ids, now),
+  ]);
+  const counts = Object.fromEntries(tankStatusValues.map((status) => [status, 0])) as Record<
+    TankStatus,
+    number
+  >;
+  for (const row of counted) counts[row.status] = row.count;
+  return {
+    tanks: await summariesOf(db, ids, now, judged),
+    next:
+      page.length > tankOverviewPageSize && last
+        ? encodeTankOverviewCursor({ rank: last.rank, since: last.since.toISOString(), id: last.id })
+        : null,
+    counts,
+  };
+}
+
+/** Tanks the overview has never ordered (new, or from before statuses were stored) are judged first. */
+async function judgeUnjudgedTanks(db: Db, companyId: string, now: Date) {
+  for (;;) {
+    const missing = await db
+      .select({ id: tanks.id })
+      .from(tanks)
+      .leftJoin(tankStatuses, eq(tankStatuses.tankId, tanks.id))
+      .where(and(eq(tanks.companyId, companyId), isNull(tankStatuses.tankId)))
+      .limit(500);
+    if (missing.length === 0) return;
+    const judged = await refreshTankStatus(
+      db,
+      missing.map((row) => row.id),
+      now,
+    );
+    // Only a tank removed in the meantime goes unjudged; never loop on it.
+    if (judged.size === 0) return;
+  }
 }
 
 export async function getTankDetail(db: Db, actor: Actor, tankId: string, now: Date): Promise<TankDetail> {

@@ -10,6 +10,7 @@ import { checkUnreadEmail, type UnreadEmailCheck } from './conversation-notify';
 import { fanOutAlertEvent, fanOutCareTip, fanOutVisitReport, pendingFanOuts } from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
+import { rejudgeStaleStatuses } from './tank-status';
 import { escalateOverdueRequests, fanOutUrgentEvent, unannouncedUrgentEvents } from './urgent-notify';
 
 type DeliveryJob = { deliveryId: string };
@@ -82,6 +83,7 @@ export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boole
       for (const eventId of await unannouncedUrgentEvents(deps, 60_000))
         await fanOutUrgentEvent(deps, eventId);
       await sendDueTips(deps);
+      await rejudgeStaleStatuses(deps.db, deps.clock());
     }
   });
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });

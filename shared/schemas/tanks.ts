@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { litresFromImperialGallons, litresFromUsGallons, usGallonsFromLitres } from '@shared/chemistry/index';
 import { tankStatusSchema } from '@shared/parameters/health';
 import { tankStyle, tankStyleWaterType } from '@shared/parameters/limit-templates';
+import { cursorParam, encodeCursor } from '@shared/lists/cursor';
 import { distinctList } from '@shared/lists/distinct';
 import { waterType } from '@shared/parameters/water-types';
 import { calendarDay } from '@shared/time/plausible';
@@ -173,3 +174,48 @@ export const assignableStaff = z.object({
   role: z.enum(['technician', 'admin']),
 });
 export type AssignableStaff = z.infer<typeof assignableStaff>;
+
+/** The staff overview's page size: a screenful on a desktop, a few swipes on a phone. */
+export const tankOverviewPageSize = 50;
+
+/** Where an overview page ends: the status rank, since when, and the tank (the sort order). */
+export const tankOverviewPosition = z.object({
+  rank: z.coerce.number().int().min(0).max(3),
+  since: z.iso.datetime(),
+  id: z.uuid(),
+});
+export type TankOverviewPosition = z.infer<typeof tankOverviewPosition>;
+
+export const encodeTankOverviewCursor = (position: TankOverviewPosition) =>
+  encodeCursor([position.rank, position.since, position.id]);
+
+/** `status=alert,watch` or `status=alert&status=watch`; none means every status. */
+const statusesParam = z
+  .union([z.string().max(100), z.array(z.string().max(100)).max(4)])
+  .transform((value) =>
+    (Array.isArray(value) ? value : [value])
+      .flatMap((part) => part.split(','))
+      .map((part) => part.trim())
+      .filter((part) => part !== ''),
+  )
+  .pipe(distinctList(tankStatusSchema, 4));
+
+/**
+ * The staff overview: worst status first, then the longest in it, 50 at a time; the filters are
+ * the tank list's plus status and style.
+ */
+export const tankOverviewQuery = tankListQuery.extend({
+  status: statusesParam.optional(),
+  style: tankStyle.optional(),
+  after: cursorParam(tankOverviewPosition).optional(),
+});
+export type TankOverviewQuery = z.output<typeof tankOverviewQuery>;
+
+export const tankOverviewPage = z.object({
+  tanks: z.array(tankSummary),
+  /** The cursor for the next page (`after`), or null on the last. */
+  next: z.string().nullable(),
+  /** Tanks per status under the other filters, for the filter's labels. */
+  counts: z.record(tankStatusSchema, z.int()),
+});
+export type TankOverviewPage = z.infer<typeof tankOverviewPage>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { cursorParam, encodeCursor } from '@shared/lists/cursor';
 import { distinctList } from '@shared/lists/distinct';
 
 /*
@@ -34,34 +35,12 @@ export const timelinePosition = z.object({
 });
 export type TimelinePosition = z.infer<typeof timelinePosition>;
 
-const toBase64Url = (text: string) => btoa(text).replace(/\+/g, '-').replace(/\//g, '_').replace(/=+$/, '');
-const fromBase64Url = (token: string) => atob(token.replace(/-/g, '+').replace(/_/g, '/'));
-
 export function encodeTimelineCursor(position: TimelinePosition): string {
-  return toBase64Url(`${position.at}|${position.kind}|${position.id}`);
+  return encodeCursor([position.at, position.kind, position.id]);
 }
 
-const cursorMessage = 'use the cursor the previous page gave';
-
 /** The `before` of a request, decoded; anything not made by `encodeTimelineCursor` is refused. */
-export const timelineCursor = z
-  .string()
-  .max(200)
-  .regex(/^[A-Za-z0-9_-]+$/, cursorMessage)
-  .transform((token, ctx) => {
-    let parts: string[];
-    try {
-      parts = fromBase64Url(token).split('|');
-    } catch {
-      parts = [];
-    }
-    const parsed = timelinePosition.safeParse({ at: parts[0], kind: parts[1], id: parts[2] });
-    if (parts.length !== 3 || !parsed.success) {
-      ctx.addIssue({ code: 'custom', message: cursorMessage });
-      return z.NEVER;
-    }
-    return parsed.data;
-  });
+export const timelineCursor = cursorParam(timelinePosition);
 
 /** `kinds=visit,alert` or `kinds=visit&kinds=alert`; none (or empty) means every kind. */
 const kindsParam = z

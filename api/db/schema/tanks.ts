@@ -15,6 +15,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { tankStatusValues } from '@shared/parameters/health';
 import { tankStyles } from '@shared/parameters/limit-templates';
 import { livestockStatuses } from '@shared/schemas/livestock-status';
 import { id, timestamps } from './columns';
@@ -178,4 +179,33 @@ export const photos = pgTable(
     ...timestamps,
   },
   (t) => [index('photos_tank_idx').on(t.tankId), index('photos_livestock_idx').on(t.livestockId)],
+);
+
+/**
+ * Each tank's status as last judged (shared/tanks/status.ts `judgeTank`), so the staff overview can
+ * sort and page thousands of tanks by trouble without judging them all. Written after readings and
+ * alert changes and re-judged by the minute sweep (api/services/tank-status.ts); the page a person
+ * sees is judged again live, so this only ever decides the order, never what a row says.
+ */
+export const tankStatuses = pgTable(
+  'tank_status',
+  {
+    tankId: uuid('tank_id')
+      .primaryKey()
+      .references(() => tanks.id, { onDelete: 'cascade' }),
+    companyId: uuid('company_id')
+      .notNull()
+      .references(() => companies.id, { onDelete: 'cascade' }),
+    status: text('status', { enum: tankStatusValues }).notNull(),
+    /** Worst first: alert 0, watch 1, no data 2, healthy 3. */
+    rank: integer('rank').notNull(),
+    reason: text('reason').notNull(),
+    /** When the tank came into this status: the longest in trouble come first. */
+    since: timestamp('since', { withTimezone: true }).notNull(),
+    judgedAt: timestamp('judged_at', { withTimezone: true }).notNull(),
+  },
+  (t) => [
+    index('tank_status_order_idx').on(t.companyId, t.rank, t.since, t.tankId),
+    index('tank_status_judged_idx').on(t.judgedAt),
+  ],
 );

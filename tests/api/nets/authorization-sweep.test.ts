@@ -61,6 +61,7 @@ const expected: Record<string, Row> = {
 
   'GET /api/tanks': everyoneSignedIn(200),
   'POST /api/tanks': staffOnly(201),
+  'GET /api/tanks/overview': staffOnly(200),
   'GET /api/tanks/technicians': staffOnly(200),
   'GET /api/tanks/:tankId': tankARead,
   'PATCH /api/tanks/:tankId': tankAStaffWrite(200),

@@ -179,6 +179,7 @@ const queryKeys = [
 /** The keys each GET route's query schema reads, so most poisoned keys are ones the route parses. */
 const routeQueryKeys: Record<string, string[]> = {
   'GET /api/tanks': ['q', 'technicianId'],
+  'GET /api/tanks/overview': ['q', 'technicianId', 'status', 'style', 'after'],
   'GET /api/alerts': ['status', 'severity', 'tankId', 'limit'],
   'GET /api/species': ['q', 'waterType', 'group', 'limit'],
   'GET /api/tanks/:tankId/readings': ['parameter', 'from', 'to', 'points'],
