@@ -97,7 +97,13 @@ function rollupFor(bucketMs: number) {
  * hours or days come from it and only the partial ones at either end from the readings (at most
  * two units' worth), so the answer equals the one from the readings alone, to rounding of the mean.
  */
-function bucketQuery(tankId: string, parameter: ParameterKey, from: string, to: string, bucketMs: number) {
+export function bucketQuery(
+  tankId: string,
+  parameter: ParameterKey,
+  from: string,
+  to: string,
+  bucketMs: number,
+) {
   const width = `${bucketMs} milliseconds`;
   const inWindow = sql`r.tank_id = ${tankId} and r.parameter = ${parameter}`;
   const rollup = rollupFor(bucketMs);

@@ -77,7 +77,7 @@ describe('GET /api/tanks/overview', () => {
     const pages: TankOverviewPage[] = [];
     let after: string | null = null;
     do {
-      const res = await technician.get<TankOverviewPage>(
+      const res: { status: number; body: TankOverviewPage } = await technician.get<TankOverviewPage>(
         `/api/tanks/overview?${query}${after ? `&after=${after}` : ''}`,
       );
       expect(res.status).toBe(200);
