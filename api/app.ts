@@ -1,7 +1,11 @@
 import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
+import type { ServerResponse } from 'node:http';
 import path from 'node:path';
+import { constants as zlibConstants } from 'node:zlib';
+import compression from 'compression';
 import express, { type RequestHandler } from 'express';
+import expressStaticGzip from 'express-static-gzip';
 import helmet, { strictTransportSecurity } from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { AppDeps } from './deps';
@@ -22,6 +26,22 @@ const noStore: RequestHandler = (_req, res, next) => {
   res.setHeader('Cache-Control', 'no-store');
   next();
 };
+
+/**
+ * JSON and the app shell, compressed as they are sent: brotli where the browser takes it (quality 4
+ * is fast enough per request; 11 is for the build), else gzip, above the default 1 kB. Never an
+ * event stream: the compressor holds what it is given until a block fills, which would keep each
+ * live event from the browser.
+ */
+const compressResponses = compression({
+  brotli: { params: { [zlibConstants.BROTLI_PARAM_QUALITY]: 4 } },
+  level: 6,
+  filter: (req, res) => {
+    const type = res.getHeader('Content-Type');
+    if (typeof type === 'string' && type.startsWith('text/event-stream')) return false;
+    return compression.filter(req, res);
+  },
+});
 
 export function createApp(deps: AppDeps) {
   const app = express();
@@ -82,7 +102,7 @@ export function createApp(deps: AppDeps) {
   api.use(sessions, sameOrigin, loadActor);
   for (const [mountPath, router] of apiRouters) api.use(mountPath, router);
   api.use(apiNotFound);
-  app.use('/api', api);
+  app.use('/api', compressResponses, api);
   app.use('/auth', noStore, sessions, sameOrigin, authRouter);
 
   if (deps.webDist && existsSync(deps.webDist)) serveClient(app, deps.webDist);
@@ -102,21 +122,32 @@ function onlyOverHttps(env: AppDeps['env'], middleware: RequestHandler): Request
 }
 
 function serveClient(app: express.Express, webDist: string) {
-  app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: setCacheHeaders }));
+  // Build files go out as built: the .br or .gz written beside each (vite.config.ts), whichever
+  // the browser takes, brotli first; the file itself otherwise.
+  app.use(
+    expressStaticGzip(webDist, {
+      enableBrotli: true,
+      orderPreference: ['br', 'gzip'],
+      index: false,
+      serveStatic: { index: false, maxAge: '1h', setHeaders: setCacheHeaders },
+    }),
+  );
   const indexHtml = path.join(webDist, 'index.html');
   // Client-side routes: any other GET that wants a page gets the app shell. A build file that is
   // not there is a 404, never the shell, which the service worker would keep as that file.
-  app.get(/^\/(?!api\/|auth\/|assets\/).*/, (req, res, next) => {
+  app.get(/^\/(?!api\/|auth\/|assets\/).*/, compressResponses, (req, res, next) => {
     if (!req.accepts('html')) return next();
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(indexHtml);
   });
 }
 
-function setCacheHeaders(res: express.Response, filePath: string) {
-  if (filePath.includes(`${path.sep}assets${path.sep}`)) {
+function setCacheHeaders(res: ServerResponse, filePath: string) {
+  // A precompressed file's rules are its original's: sw.js.br is sw.js.
+  const served = filePath.replace(/\.(br|gz)$/, '');
+  if (served.includes(`${path.sep}assets${path.sep}`)) {
     res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
-  } else if (path.basename(filePath) === 'sw.js') {
+  } else if (path.basename(served) === 'sw.js') {
     // Browsers look for a new service worker through this file: a cached copy would hold a release back.
     res.setHeader('Cache-Control', 'no-cache');
   }

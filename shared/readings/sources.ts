@@ -10,9 +10,3 @@ export const manualSource = z.enum(manualSources, {
   error: 'use visit or home-test (device readings come only from a device)',
 });
 export type ManualSource = z.infer<typeof manualSource>;
-
-export const readingSourceLabels: Readonly<Record<ReadingSource, string>> = {
-  visit: 'Visit',
-  'home-test': 'Home test',
-  device: 'Device',
-};

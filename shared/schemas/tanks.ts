@@ -1,49 +1,19 @@
 import { z } from 'zod';
-import { litresFromImperialGallons, litresFromUsGallons, usGallonsFromLitres } from '@shared/chemistry/index';
 import { tankStatusSchema } from '@shared/parameters/health';
 import { tankStyle, tankStyleWaterType } from '@shared/parameters/limit-templates';
 import { cursorParam, encodeCursor } from '@shared/lists/cursor';
 import { distinctList } from '@shared/lists/distinct';
 import { waterType } from '@shared/parameters/water-types';
+import { litresFrom, volumeUnits } from '@shared/tanks/volume';
 import { calendarDay } from '@shared/time/plausible';
 import { timeZone } from '@shared/time/time-zones';
 
 export const tankIdParams = z.object({ tankId: z.uuid() });
 
-export const volumeUnits = ['litres', 'us-gallons', 'imperial-gallons'] as const;
 export const volumeUnit = z.enum(volumeUnits);
-export type VolumeUnit = z.infer<typeof volumeUnit>;
-
-export const volumeUnitLabels: Readonly<Record<VolumeUnit, { short: string; long: string }>> = {
-  litres: { short: 'L', long: 'litres' },
-  'us-gallons': { short: 'US gal', long: 'US gallons' },
-  'imperial-gallons': { short: 'imp gal', long: 'imperial gallons' },
-};
 
 /** The largest public aquaria hold millions of litres; a client's tank is far below this. */
 export const maxTankVolumeL = 100_000;
-
-export function litresFrom(value: number, unit: VolumeUnit): number {
-  switch (unit) {
-    case 'litres':
-      return value;
-    case 'us-gallons':
-      return litresFromUsGallons(value);
-    case 'imperial-gallons':
-      return litresFromImperialGallons(value);
-  }
-}
-
-export function volumeIn(litres: number, unit: VolumeUnit): number {
-  switch (unit) {
-    case 'litres':
-      return litres;
-    case 'us-gallons':
-      return usGallonsFromLitres(litres);
-    case 'imperial-gallons':
-      return litres / litresFromImperialGallons(1);
-  }
-}
 
 /** A volume as the person entered it; the parsed value is in litres, the unit we store. */
 export const volumeEntry = z

@@ -4,6 +4,14 @@ import { speciesId } from '@shared/livestock/species';
 import { manualReadingInput } from '@shared/schemas/readings';
 import { calendarDay, pastInstant } from '@shared/time/plausible';
 import type { WaterType } from '@shared/parameters/water-types';
+import {
+  visitKindLabels,
+  visitKinds,
+  visitStatusLabels,
+  visitStatuses,
+  type VisitKind,
+  type VisitStatus,
+} from '@shared/visits/kinds';
 
 /*
  * Service visits: the schedule and the report a technician writes at the tank. The report is one
@@ -13,37 +21,10 @@ import type { WaterType } from '@shared/parameters/water-types';
 
 export const visitIdParams = z.object({ visitId: z.uuid() });
 
-export const visitKinds = [
-  'routine',
-  'aquascaping',
-  'equipment',
-  'livestock',
-  'installation',
-  'urgent',
-] as const;
+// The domain values live below the schemas; they are re-exported for the schemas' existing readers.
+export { visitKindLabels, visitKinds, visitStatusLabels, visitStatuses, type VisitKind, type VisitStatus };
 export const visitKind = z.enum(visitKinds);
-export type VisitKind = z.infer<typeof visitKind>;
-
-export const visitKindLabels: Readonly<Record<VisitKind, string>> = {
-  routine: 'Routine service',
-  aquascaping: 'Aquascaping',
-  equipment: 'Equipment work',
-  livestock: 'Livestock work',
-  installation: 'Installation',
-  urgent: 'Urgent visit',
-};
-
-/** scheduled → in progress (a report was started) → published; a planned visit can be cancelled. */
-export const visitStatuses = ['scheduled', 'in-progress', 'published', 'cancelled'] as const;
 export const visitStatus = z.enum(visitStatuses);
-export type VisitStatus = z.infer<typeof visitStatus>;
-
-export const visitStatusLabels: Readonly<Record<VisitStatus, string>> = {
-  scheduled: 'Scheduled',
-  'in-progress': 'Report started',
-  published: 'Report published',
-  cancelled: 'Cancelled',
-};
 
 /** What a technician typically does on a service visit (common practice in the trade). */
 export const visitTasks = [

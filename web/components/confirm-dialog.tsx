@@ -1,6 +1,6 @@
 import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { Button } from './button';
-import { FieldError } from './form-fields';
+import { FieldError } from './field-error';
 
 interface ConfirmDialogProps {
   open: boolean;

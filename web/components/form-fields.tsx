@@ -1,5 +1,6 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
 import { useController, useFormContext, type FieldValues, type Path } from 'react-hook-form';
+import { FieldError } from './field-error';
 import { RadioGroup, type RadioOption } from './radio-group';
 
 /*
@@ -44,29 +45,6 @@ function FieldFrame({ id, label, hint, error, children, className = '' }: FieldF
         </FieldError>
       )}
     </div>
-  );
-}
-
-/** A problem, marked by a shape and bold text as well as colour. */
-export function FieldError({
-  id,
-  className = 'mt-2',
-  children,
-}: {
-  id?: string;
-  className?: string;
-  children: ReactNode;
-}) {
-  return (
-    <p id={id} className={`${className} flex items-start gap-2 text-sm font-bold text-alert-700`}>
-      <span
-        aria-hidden="true"
-        className="mt-0.5 flex h-4 w-4 shrink-0 items-center justify-center rounded-full bg-alert-700 text-xs text-white"
-      >
-        !
-      </span>
-      <span>{children}</span>
-    </p>
   );
 }
 

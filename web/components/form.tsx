@@ -11,7 +11,7 @@ import {
 import type { z } from 'zod';
 import { applyServerIssues } from '../lib/form-issues';
 import { Button } from './button';
-import { FieldError } from './form-fields';
+import { FieldError } from './field-error';
 
 /*
  * The one form pattern: react-hook-form with the zod resolver over a shared schema (or a form

@@ -6,7 +6,8 @@ import { ApiError } from '../lib/api-client';
 import { blankAsUndefined } from '../lib/form-values';
 import { useUploadPhoto } from '../lib/queries/photos';
 import { Form, FormProblem, SubmitButton, useZodForm } from './form';
-import { CheckboxField, FieldError, TextField } from './form-fields';
+import { FieldError } from './field-error';
+import { CheckboxField, TextField } from './form-fields';
 
 const maxBytes = 10 * 1024 * 1024;
 const tooLarge = 'That photo is larger than 10 MB. Choose a smaller one.';

@@ -1,8 +1,8 @@
 import { useId, useState } from 'react';
 import { Button } from './button';
-import { FieldError } from './form-fields';
+import { FieldError } from './field-error';
 import { TipCategoryBadge } from './tip-badges';
-import { problemMessage } from '../lib/form-issues';
+import { problemMessage } from '../lib/problem-message';
 import { useSendTipToTank, useTipSuggestions } from '../lib/queries/tip-suggestions';
 
 /**

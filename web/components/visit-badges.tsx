@@ -1,4 +1,4 @@
-import { visitKindLabels, visitStatusLabels, type VisitKind, type VisitStatus } from '@shared/schemas/visits';
+import { visitKindLabels, visitStatusLabels, type VisitKind, type VisitStatus } from '@shared/visits/kinds';
 import { Badge } from './badge';
 
 /*

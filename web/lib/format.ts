@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { volumeIn, volumeUnitLabels, type VolumeUnit } from '@shared/schemas/tanks';
+import { volumeIn, volumeUnitLabels, type VolumeUnit } from '@shared/tanks/volume';
 import {
   formatDate,
   formatDateTime,

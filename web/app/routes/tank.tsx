@@ -1,30 +1,45 @@
+import { lazy, Suspense, type ReactNode } from 'react';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
-import { z } from 'zod';
-import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
+import { parameterCatalogue } from '@shared/parameters/catalogue';
+import type { ParameterKey } from '@shared/parameters/keys';
 import { Page } from '../../components/page';
 import { SectionNav } from '../../components/section-nav';
 import { ErrorState, LoadingState } from '../../components/states';
 import { TankAlertsSection } from '../../features/alerts/components/tank-alerts-section';
 import { can, useMe } from '../../lib/auth';
-import { todayIn } from '../../lib/format';
-import { EquipmentList } from '../../features/equipment/components/equipment-list';
-import { PowerBoardMap } from '../../features/equipment/components/power-board-map';
-import { useEquipment } from '../../lib/queries/equipment';
-import { useComfortRange } from '../../features/livestock/api/get-comfort-range';
-import { useLivestock } from '../../lib/queries/livestock';
-import { ComfortRangePanel } from '../../features/livestock/components/comfort-range-panel';
-import { LivestockGallery } from '../../features/livestock/components/livestock-gallery';
 import { KeyReadings } from '../../features/readings/components/key-readings';
-import { TankReadingsSection } from '../../features/readings/components/tank-readings-section';
 import { useTank } from '../../features/tanks/api/get-tank';
 import { TankAtAGlance } from '../../features/tanks/components/tank-at-a-glance';
-import { TankOverview } from '../../features/tanks/components/tank-overview';
 import { NextVisitLine } from '../../features/visits/components/next-visit-card';
-import { TankVisitsSection } from '../../features/visits/components/tank-visits-section';
-import { TankTimeline } from '../../features/timeline/components/tank-timeline';
-import { TankTipsFeed } from '../../features/care-tips/components/tip-feed';
 import { TankMessagesLink } from '../../features/conversations/components/tank-messages-link';
 import { TankUrgentVisitAction } from '../../features/urgent/components/request-urgent-visit-action';
+
+/*
+ * The summary is the first screen and loads with the page; every other section, and the care
+ * tips under the summary (Markdown), load when shown, so the first visit downloads only what the
+ * summary draws (tests/web/bundle-budget.test.ts).
+ */
+const TankReadingsSection = lazy(async () => ({
+  default: (await import('../../features/readings/components/tank-readings-section')).TankReadingsSection,
+}));
+const TankVisitsSection = lazy(async () => ({
+  default: (await import('../../features/visits/components/tank-visits-section')).TankVisitsSection,
+}));
+const TankTimeline = lazy(async () => ({
+  default: (await import('../../features/timeline/components/tank-timeline')).TankTimeline,
+}));
+const TankLivestock = lazy(async () => ({
+  default: (await import('../../features/livestock/components/tank-livestock')).TankLivestock,
+}));
+const TankEquipment = lazy(async () => ({
+  default: (await import('../../features/equipment/components/tank-equipment')).TankEquipment,
+}));
+const TankOverview = lazy(async () => ({
+  default: (await import('../../features/tanks/components/tank-overview')).TankOverview,
+}));
+const TankTipsFeed = lazy(async () => ({
+  default: (await import('../../features/care-tips/components/tip-feed')).TankTipsFeed,
+}));
 
 const actionClass =
   'inline-flex min-h-11 items-center rounded-lg border border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:bg-ink-50';
@@ -38,7 +53,7 @@ function Section({
   id: string;
   title: string;
   description?: string;
-  children: React.ReactNode;
+  children: ReactNode;
 }) {
   return (
     <section aria-labelledby={id}>
@@ -48,91 +63,6 @@ function Section({
       {description && <p className="mt-1 text-sm text-ink-700">{description}</p>}
       <div className="mt-3">{children}</div>
     </section>
-  );
-}
-
-function LivestockSection({
-  tankId,
-  timeZone,
-  isStaff,
-}: {
-  tankId: string;
-  timeZone: string;
-  isStaff: boolean;
-}) {
-  const livestock = useLivestock(tankId);
-  const comfort = useComfortRange(tankId);
-  return (
-    <Section
-      id="livestock-title"
-      title="Livestock"
-      description="What lives in the tank and how each is doing."
-    >
-      {isStaff && (
-        <p className="mb-3">
-          <Link to={`/console/tanks/${tankId}/livestock`} className={actionClass}>
-            Manage livestock
-          </Link>
-        </p>
-      )}
-      {livestock.isPending ? (
-        <LoadingState label="Loading livestock…" />
-      ) : livestock.isError ? (
-        <ErrorState error={livestock.error} what="the livestock" onRetry={() => void livestock.refetch()} />
-      ) : (
-        <LivestockGallery livestock={livestock.data} timeZone={timeZone} />
-      )}
-      {comfort.data && (comfort.data.species.length > 0 || comfort.data.conflicts.length > 0) && (
-        <details className="mt-4 rounded-card bg-white p-4 shadow-card">
-          <summary className="flex min-h-11 cursor-pointer items-center font-bold text-ink-900">
-            Comfort range: the water they all tolerate
-          </summary>
-          <div className="mt-2">
-            <ComfortRangePanel comfort={comfort.data} />
-          </div>
-        </details>
-      )}
-    </Section>
-  );
-}
-
-function EquipmentSection({
-  tankId,
-  timeZone,
-  isStaff,
-}: {
-  tankId: string;
-  timeZone: string;
-  isStaff: boolean;
-}) {
-  const equipment = useEquipment(tankId);
-  return (
-    <Section
-      id="equipment-title"
-      title="Equipment and power boards"
-      description="Where everything is plugged in, so you can switch off the right outlet."
-    >
-      {isStaff && (
-        <p className="mb-3">
-          <Link to={`/console/tanks/${tankId}/equipment`} className={actionClass}>
-            Manage equipment
-          </Link>
-        </p>
-      )}
-      {equipment.isPending ? (
-        <LoadingState label="Loading equipment…" />
-      ) : equipment.isError ? (
-        <ErrorState error={equipment.error} what="the equipment" onRetry={() => void equipment.refetch()} />
-      ) : (
-        <div className="space-y-6">
-          <PowerBoardMap equipment={equipment.data} />
-          <div>
-            <h3 className="mb-2 text-lg font-bold text-ink-900">Equipment and maintenance</h3>
-            <EquipmentList equipment={equipment.data} today={todayIn(timeZone)} />
-          </div>
-        </div>
-      )}
-    </Section>
   );
 }
 
@@ -149,6 +79,15 @@ type SectionKey = (typeof sections)[number]['key'];
 
 const isSection = (value: string | null): value is SectionKey => sections.some((s) => s.key === value);
 
+/*
+ * Links carry a parameter and an id (a notification's). They are checked without zod, whose
+ * enums this page would otherwise load with it (the catalogue is loaded for the readings anyway).
+ */
+const isParameterKey = (value: string | null): value is ParameterKey =>
+  value !== null && Object.hasOwn(parameterCatalogue, value);
+const idPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const idParam = (value: string | null) => (value && idPattern.test(value) ? value : null);
+
 /**
  * A tank's page: a summary that answers "is my tank OK, and what do I do?" on the first screen
  * of a phone, and the rest one tap away in sections that live in the address (`?section=`), so
@@ -163,11 +102,12 @@ export function TankRoute() {
   const isStaff = can(me, 'tanks:write');
   const asked = params.get('section');
   const section: SectionKey = isSection(asked) ? asked : 'summary';
-  const chosenParameter = parameterKey.safeParse(params.get('parameter'));
+  const askedParameter = params.get('parameter');
+  const chosenParameter = isParameterKey(askedParameter) ? askedParameter : undefined;
   // A notification links to one visit's report: ?section=visits&visit=<id>.
-  const visitParam = z.uuid().safeParse(params.get('visit'));
+  const visitId = idParam(params.get('visit'));
   // A care tip's notification links to it on the timeline: ?section=timeline&tip=<id>.
-  const tipParam = z.uuid().safeParse(params.get('tip'));
+  const tipId = idParam(params.get('tip'));
   const sectionHref = (key: SectionKey) =>
     key === 'summary' ? `/tanks/${tankId}` : `/tanks/${tankId}?section=${key}`;
 
@@ -227,16 +167,20 @@ export function TankRoute() {
                 </Link>
               }
             />
-            <TankTipsFeed tankId={tankId} companyName={tank.data.company.name} />
+            <Suspense fallback={<LoadingState label="Loading care tips…" />}>
+              <TankTipsFeed tankId={tankId} companyName={tank.data.company.name} />
+            </Suspense>
           </div>
         )}
         {section === 'readings' && (
-          <TankReadingsSection
-            key={chosenParameter.data ?? 'first'}
-            tankId={tankId}
-            canEdit={isStaff}
-            initialParameter={chosenParameter.success ? chosenParameter.data : undefined}
-          />
+          <Suspense fallback={<LoadingState label="Loading readings…" />}>
+            <TankReadingsSection
+              key={chosenParameter ?? 'first'}
+              tankId={tankId}
+              canEdit={isStaff}
+              initialParameter={chosenParameter}
+            />
+          </Suspense>
         )}
         {section === 'visits' && (
           <Section
@@ -244,17 +188,19 @@ export function TankRoute() {
             title="Visits"
             description="What each visit did, and when the next one is."
           >
-            <TankVisitsSection
-              tank={{
-                id: tankId,
-                name: tank.data.name,
-                siteLabel: tank.data.siteLabel,
-                companyName: tank.data.company.name,
-              }}
-              isStaff={isStaff}
-              visitId={visitParam.success ? visitParam.data : null}
-              hrefFor={(visitId) => `${sectionHref('visits')}&visit=${visitId}`}
-            />
+            <Suspense fallback={<LoadingState label="Loading visits…" />}>
+              <TankVisitsSection
+                tank={{
+                  id: tankId,
+                  name: tank.data.name,
+                  siteLabel: tank.data.siteLabel,
+                  companyName: tank.data.company.name,
+                }}
+                isStaff={isStaff}
+                visitId={visitId}
+                hrefFor={(visitId) => `${sectionHref('visits')}&visit=${visitId}`}
+              />
+            </Suspense>
           </Section>
         )}
         {section === 'timeline' && (
@@ -263,16 +209,52 @@ export function TankRoute() {
             title="Timeline"
             description="Everything that happened to this tank, newest first: visit reports, livestock changes, alerts and care tips."
           >
-            <TankTimeline tankId={tankId} tipId={tipParam.success ? tipParam.data : null} />
+            <Suspense fallback={<LoadingState label="Loading the timeline…" />}>
+              <TankTimeline tankId={tankId} tipId={tipId} />
+            </Suspense>
           </Section>
         )}
         {section === 'livestock' && (
-          <LivestockSection tankId={tankId} timeZone={timeZone} isStaff={isStaff} />
+          <Section
+            id="livestock-title"
+            title="Livestock"
+            description="What lives in the tank and how each is doing."
+          >
+            {isStaff && (
+              <p className="mb-3">
+                <Link to={`/console/tanks/${tankId}/livestock`} className={actionClass}>
+                  Manage livestock
+                </Link>
+              </p>
+            )}
+            <Suspense fallback={<LoadingState label="Loading livestock…" />}>
+              <TankLivestock tankId={tankId} timeZone={timeZone} />
+            </Suspense>
+          </Section>
         )}
         {section === 'equipment' && (
-          <EquipmentSection tankId={tankId} timeZone={timeZone} isStaff={isStaff} />
+          <Section
+            id="equipment-title"
+            title="Equipment and power boards"
+            description="Where everything is plugged in, so you can switch off the right outlet."
+          >
+            {isStaff && (
+              <p className="mb-3">
+                <Link to={`/console/tanks/${tankId}/equipment`} className={actionClass}>
+                  Manage equipment
+                </Link>
+              </p>
+            )}
+            <Suspense fallback={<LoadingState label="Loading equipment…" />}>
+              <TankEquipment tankId={tankId} timeZone={timeZone} />
+            </Suspense>
+          </Section>
         )}
-        {section === 'about' && <TankOverview tank={tank.data} />}
+        {section === 'about' && (
+          <Suspense fallback={<LoadingState label="Loading the tank's details…" />}>
+            <TankOverview tank={tank.data} />
+          </Suspense>
+        )}
       </div>
     </Page>
   );

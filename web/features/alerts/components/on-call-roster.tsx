@@ -5,9 +5,10 @@ import { onCallShiftInput, type OnCallShiftView } from '@shared/schemas/on-call'
 import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
-import { FieldError, SelectField, TextField } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
+import { SelectField, TextField } from '../../../components/form-fields';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { formatDateTime, instantFromLocalInput, localInputValue } from '../../../lib/format';
 import { useStaff } from '../../../lib/queries/people';
 import { useAddOnCallShift } from '../api/add-on-call-shift';

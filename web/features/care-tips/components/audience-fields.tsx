@@ -2,12 +2,8 @@ import { useId, useState } from 'react';
 import { useFormState, useWatch } from 'react-hook-form';
 import { tankStyleLabels, tankStyles } from '@shared/parameters/limit-templates';
 import { equipmentKindLabels, equipmentKinds } from '@shared/schemas/equipment';
-import {
-  CheckboxGroupField,
-  FieldError,
-  RadioGroupField,
-  SelectField,
-} from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
+import { CheckboxGroupField, RadioGroupField, SelectField } from '../../../components/form-fields';
 import { capitalise, formatCount } from '../../../lib/format';
 import { useSpecies, useSpeciesByName } from '../../../lib/queries/species';
 import { useTanks } from '../../../lib/queries/tanks';

@@ -1,13 +1,13 @@
 import { useId, useState } from 'react';
 import type { TipFeedItem } from '@shared/schemas/care-tips';
 import { Button } from '../../../components/button';
-import { FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
 import { Markdown } from '../../../components/markdown';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { TipCategoryBadge } from '../../../components/tip-badges';
 import { TipPhoto } from '../../../components/tip-photo';
 import { can, useMe } from '../../../lib/auth';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useMarkTipHelpful, useTipFeed } from '../api/tip-feed';
 

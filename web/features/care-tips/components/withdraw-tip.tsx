@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { CareTip } from '@shared/schemas/care-tips';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { useWithdrawCareTip } from '../api/send-care-tip';
 
 /** Takes a sent or scheduled tip back, after saying what that does and does not undo. */

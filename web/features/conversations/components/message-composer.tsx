@@ -9,7 +9,8 @@ import {
 } from '@shared/schemas/conversations';
 import { Button } from '../../../components/button';
 import { Form, FormProblem, useZodForm } from '../../../components/form';
-import { CheckboxField, FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
+import { CheckboxField } from '../../../components/form-fields';
 import { formatCount } from '../../../lib/format';
 import {
   draftKey,

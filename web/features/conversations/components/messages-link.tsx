@@ -1,7 +1,8 @@
+import { useQuery } from '@tanstack/react-query';
 import { NavLink } from 'react-router';
 import { can, useMe } from '../../../lib/auth';
 import { formatCount } from '../../../lib/format';
-import { useTanks } from '../../../lib/queries/tanks';
+import { tanksQueryOptions } from '../../../lib/queries/tanks';
 import { useUnreadCounts } from '../api/get-unread';
 
 function ChatIcon() {
@@ -21,7 +22,8 @@ function ChatIcon() {
 
 /** Where "Messages" leads: staff to their inbox; an owner of one tank to its conversation, else to their tanks. */
 function useMessagesHref(isStaff: boolean): string {
-  const tanks = useTanks();
+  // Only an owner's link depends on the tanks; staff would load the whole company's list for nothing.
+  const tanks = useQuery({ ...tanksQueryOptions(), enabled: !isStaff });
   if (isStaff) return '/console/inbox';
   const mine = tanks.data ?? [];
   return mine.length === 1 ? `/tanks/${mine[0]!.id}/messages` : '/tanks';

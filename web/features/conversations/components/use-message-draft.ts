@@ -4,7 +4,8 @@ import { maxMessagePhotos, messageInput, type MessageView } from '@shared/schema
 import { photoUrls } from '@shared/photos/urls';
 import type { ZodForm } from '../../../components/form';
 import { ApiError } from '../../../lib/api-client';
-import { applyServerIssues, problemMessage } from '../../../lib/form-issues';
+import { applyServerIssues } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { forgetLocal, keepLocally, readLocal } from '../../../lib/offline-store';
 import { sendMessage, showSentMessage, uploadMessagePhoto } from '../api/send-message';
 

@@ -13,7 +13,7 @@ import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { useCreateEquipment } from '../api/create-equipment';
 import { useDeleteEquipment } from '../api/delete-equipment';
 import { useUpdateEquipment } from '../api/update-equipment';

@@ -8,7 +8,7 @@ import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components
 import { SelectField, TextAreaField, TextField } from '../../../components/form-fields';
 import { PhotoUploader } from '../../../components/photo-uploader';
 import { blankAsNull, decimalDefault, decimalText } from '../../../lib/form-values';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { capitalise, formatDate } from '../../../lib/format';
 import { useDeleteLivestock } from '../api/delete-livestock';
 import { useUpdateLivestock } from '../api/update-livestock';

@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
-import { FieldError } from '../../../components/form-fields';
-import { problemMessage } from '../../../lib/form-issues';
+import { FieldError } from '../../../components/field-error';
+import { problemMessage } from '../../../lib/problem-message';
 import { useDeactivateUser } from '../api/deactivate-user';
 import { useReactivateUser } from '../api/reactivate-user';
 

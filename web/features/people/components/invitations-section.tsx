@@ -5,7 +5,7 @@ import { InvitationStatusBadge, RoleBadge } from '../../../components/badges';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { formatDate } from '../../../lib/format';
 import { useInvitations } from '../api/list-invitations';
 import { useRevokeInvitation } from '../api/revoke-invitation';

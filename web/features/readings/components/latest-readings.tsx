@@ -1,7 +1,7 @@
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { ParameterHealthSummary } from '@shared/schemas/readings';
-import { readingSourceLabels } from '@shared/readings/sources';
+import { readingSourceLabels } from '@shared/readings/source-labels';
 import { formatIn } from '../utils/display-units';
 import { formatDateTime, relativeTime } from '../../../lib/format';
 import { limitsSummary } from '../utils/limits-text';

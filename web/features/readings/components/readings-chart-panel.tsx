@@ -2,7 +2,7 @@ import { lazy, Suspense, useEffect, useState } from 'react';
 import { z } from 'zod';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
-import { readingSourceLabels } from '@shared/readings/sources';
+import { readingSourceLabels } from '@shared/readings/source-labels';
 import { Form, useZodForm } from '../../../components/form';
 import { SelectField } from '../../../components/form-fields';
 import { RadioGroup } from '../../../components/radio-group';

@@ -27,7 +27,7 @@ import { unitDecimals, unitSymbol } from '@shared/parameters/units';
 import type { ParameterLimits } from '@shared/parameters/limits';
 import type { ReadingHistory } from '@shared/schemas/readings';
 import type { Reading } from '@shared/readings/reading';
-import { readingSourceLabels } from '@shared/readings/sources';
+import { readingSourceLabels } from '@shared/readings/source-labels';
 import { displayValue, formatIn, limitsIn } from '../utils/display-units';
 import { formatDateTime } from '../../../lib/format';
 import { axisEndPaddingMs, axisLabel, axisUnitFor } from '../utils/chart-ranges';

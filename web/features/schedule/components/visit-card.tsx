@@ -3,10 +3,10 @@ import { Link } from 'react-router';
 import type { VisitStatus, VisitSummary } from '@shared/schemas/visits';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
-import { FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
 import { VisitKindBadge, VisitStatusBadge } from '../../../components/visit-badges';
 import { formatTime, formatTimeWindow, formatVisitWindow } from '../../../lib/format';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { useUpdateVisit } from '../api/update-visit';
 import { ReassignDialog } from './reassign-dialog';
 

@@ -1,9 +1,9 @@
 import { useId, useRef, useState, type ReactNode } from 'react';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
-import { FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { useCalendarFeed } from '../api/get-calendar-feed';
 import { useIssueCalendarFeed } from '../api/issue-calendar-feed';
 import { useRevokeCalendarFeed } from '../api/revoke-calendar-feed';

@@ -1,7 +1,7 @@
 import { Button } from '../../../components/button';
-import { FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
 import { LoadingState } from '../../../components/states';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { PushSetupError } from '../utils/web-push';
 import { usePushDevice } from './use-push-device';
 

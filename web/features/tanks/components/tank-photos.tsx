@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { TankDetail } from '@shared/schemas/tanks';
 import { Button } from '../../../components/button';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
-import { problemMessage } from '../../../lib/form-issues';
+import { problemMessage } from '../../../lib/problem-message';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useTankPhotos } from '../../../lib/queries/photos';

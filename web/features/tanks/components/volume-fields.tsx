@@ -1,6 +1,6 @@
 import { useEffect, useRef } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
-import { litresFrom, volumeIn, volumeUnitLabels, volumeUnits, type VolumeUnit } from '@shared/schemas/tanks';
+import { litresFrom, volumeIn, volumeUnitLabels, volumeUnits, type VolumeUnit } from '@shared/tanks/volume';
 import { DecimalField, SelectField } from '../../../components/form-fields';
 import { parseDecimal } from '../../../lib/decimal';
 import { capitalise, formatNumber } from '../../../lib/format';

@@ -2,7 +2,7 @@ import { useEffect, useId, useRef, useState } from 'react';
 import { useController, useFormContext } from 'react-hook-form';
 import { maxUrgentPhotos } from '@shared/schemas/urgent-requests';
 import { Button } from '../../../components/button';
-import { FieldError } from '../../../components/form-fields';
+import { FieldError } from '../../../components/field-error';
 import { ApiError } from '../../../lib/api-client';
 import { useOnline } from '../../../lib/use-online';
 import { uploadUrgentPhoto } from '../api/upload-urgent-photo';

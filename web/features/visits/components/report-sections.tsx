@@ -18,11 +18,11 @@ import { Button } from '../../../components/button';
 import { SectionCard } from '../../../components/section-card';
 import { CompatibilityWarnings } from '../../../components/compatibility-warnings';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
+import { FieldError } from '../../../components/field-error';
 import {
   CheckboxField,
   CheckboxGroupField,
   DecimalField,
-  FieldError,
   RadioGroupField,
   SelectField,
   TextAreaField,
