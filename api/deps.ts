@@ -3,6 +3,7 @@ import type { Request } from 'express';
 import type { PgBoss } from 'pg-boss';
 import type pg from 'pg';
 import type { Database, Db } from './db/client';
+import { createReadRouting, type ReadRouting } from './db/replica';
 import { appOrigin, type Env } from './env';
 import { systemClock, type Clock } from './lib/clock';
 import type { Logger } from './lib/logger';
@@ -17,6 +18,8 @@ export interface AppDeps {
   env: Env;
   db: Db;
   pool: pg.Pool;
+  /** Reads that may lag a little (history, charts, exports): the replica when there is a fit one. */
+  reads: ReadRouting;
   logger: Logger;
   clock: Clock;
   oidc: OidcClient;
@@ -52,6 +55,11 @@ export function createDeps(options: {
     env,
     db: database.db,
     pool: database.pool,
+    reads: createReadRouting(database, {
+      replicaUrl: env.DATABASE_REPLICA_URL,
+      maxLagMs: env.REPLICA_MAX_LAG_MS,
+      logger,
+    }),
     logger,
     clock,
     oidc: createOidcClient({

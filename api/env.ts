@@ -17,6 +17,18 @@ const envSchema = z.object({
       message: 'must be a postgres:// URL',
     })
     .optional(),
+  /**
+   * A streaming replica for reads that may lag a little (history, charts, exports). Writes and
+   * authorization always use DATABASE_URL; a replica down or lagging falls back to it.
+   */
+  DATABASE_REPLICA_URL: z
+    .string()
+    .refine((value) => /^postgres(ql)?:\/\/[^\s]+$/.test(value) && URL.canParse(value), {
+      message: 'must be a postgres:// URL',
+    })
+    .optional(),
+  /** How far behind the primary the replica may be before its reads go to the primary. */
+  REPLICA_MAX_LAG_MS: z.coerce.number().int().min(0).default(2_000),
   PGPORT_LOCAL: port.default(54329),
   DATA_DIR: z.string().min(1).default('.data'),
   /** OpenID provider; the demo runs its own stand-in here. */

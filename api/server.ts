@@ -74,6 +74,7 @@ export async function startServer(options: {
         // Jobs are idempotent and retried, so one cut short by the timeout simply runs again later.
         await jobs?.stop({ graceful: true, timeout: jobStopTimeoutMs });
         await events.close();
+        await deps.reads.close();
         await database.pool.end();
       })();
       return closing;

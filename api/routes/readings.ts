@@ -26,7 +26,7 @@ readingsRouter.get(
   '/',
   can('readings:read'),
   route({ params: tankIdParams, query: readingHistoryQuery }, ({ deps, actor, params, query }) =>
-    readingHistory(deps.db, actor, params.tankId, query),
+    readingHistory(deps.db, deps.reads, actor, params.tankId, query),
   ),
 );
 readingsRouter.post(
@@ -47,7 +47,7 @@ readingsRouter.get(
   '/list',
   can('readings:read'),
   route({ params: tankIdParams, query: readingListQuery }, ({ deps, actor, params, query }) =>
-    listReadings(deps.db, actor, params.tankId, query),
+    listReadings(deps.db, deps.reads, actor, params.tankId, query),
   ),
 );
 readingsRouter.get(
@@ -55,7 +55,7 @@ readingsRouter.get(
   can('readings:read'),
   route({ params: tankIdParams, query: readingExportQuery }, async (ctx) => {
     const { deps, actor, params, query } = ctx;
-    const csv = await exportReadingsCsv(deps.db, actor, params.tankId, query, deps.clock());
+    const csv = await exportReadingsCsv(deps.db, deps.reads, actor, params.tankId, query, deps.clock());
     await recordReadingsExport(deps.db, actor, params.tankId, query, auditSourceOf(ctx));
     return streamed(
       {

@@ -4,6 +4,7 @@ import type { ParameterKey } from '@shared/parameters/keys';
 import { bucketOrigin, bucketWidthMs } from '@shared/readings/buckets';
 import type { ReadingBucket, ReadingHistory, ReadingHistoryQuery } from '@shared/schemas/readings';
 import type { Db } from '../db/client';
+import type { ReadRouting } from '../db/replica';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
 import { parameterLimitsInForce } from './limits';
@@ -28,29 +29,46 @@ type BucketRow = {
  */
 export async function readingHistory(
   db: Db,
+  reads: ReadRouting,
   actor: Actor,
   tankId: string,
   query: ReadingHistoryQuery,
 ): Promise<ReadingHistory> {
   const tank = await findTankFor(db, actor, tankId, 'read');
   const { parameter, from, to, points } = query;
-  const window = sql`r.tank_id = ${tank.id} and r.parameter = ${parameter}
-    and r.measured_at >= ${from}::timestamptz and r.measured_at <= ${to}::timestamptz`;
   const bucketMs = bucketWidthMs(Date.parse(to) - Date.parse(from), points);
 
-  const [bucketed, limits] = await Promise.all([
-    db.execute<BucketRow>(bucketQuery(tank.id, parameter, from, to, bucketMs)),
+  const [limits, history] = await Promise.all([
     parameterLimitsInForce(db, tank, parameter),
+    // The readings themselves may come from a replica a moment behind (api/db/replica.ts).
+    reads.read(tank.id, (source) => windowOf(source, tank.id, query, bucketMs)),
   ]);
+  return { parameter, from, to, total: history.total, limits, ...history.shape };
+}
+
+type WindowShape = Pick<ReadingHistory, 'mode' | 'bucketMs' | 'buckets' | 'readings' | 'latest'>;
+
+async function windowOf(
+  db: Db,
+  tankId: string,
+  query: ReadingHistoryQuery,
+  bucketMs: number,
+): Promise<{ total: number; shape: WindowShape }> {
+  const { parameter, from, to, points } = query;
+  const window = sql`r.tank_id = ${tankId} and r.parameter = ${parameter}
+    and r.measured_at >= ${from}::timestamptz and r.measured_at <= ${to}::timestamptz`;
+  const bucketed = await db.execute<BucketRow>(bucketQuery(tankId, parameter, from, to, bucketMs));
   const total = bucketed.rows.reduce((sum, row) => sum + row.count, 0);
-  const base = { parameter, from, to, total, limits };
 
   if (total <= points) {
     const raw = await db.execute<ReadingRow>(sql`
       select ${readingColumns(sql`r`)} from readings r where ${window}
       order by r.measured_at, r.id`);
     const readings = raw.rows.map(readingFromRow);
-    return { ...base, mode: 'raw', bucketMs: null, buckets: [], readings, latest: readings.at(-1) ?? null };
+    return {
+      total,
+      shape: { mode: 'raw', bucketMs: null, buckets: [], readings, latest: readings.at(-1) ?? null },
+    };
   }
 
   // The people's readings stay one by one (the newest `points` of them), so the chart can say
@@ -76,12 +94,14 @@ export async function readingHistory(
     bySource: { device: row.device, 'home-test': row.home, visit: row.visit },
   }));
   return {
-    ...base,
-    mode: 'buckets',
-    bucketMs,
-    buckets,
-    readings: people.rows.map(readingFromRow),
-    latest: latest.rows[0] ? readingFromRow(latest.rows[0]) : null,
+    total,
+    shape: {
+      mode: 'buckets',
+      bucketMs,
+      buckets,
+      readings: people.rows.map(readingFromRow),
+      latest: latest.rows[0] ? readingFromRow(latest.rows[0]) : null,
+    },
   };
 }
 

@@ -17,6 +17,7 @@ import type { Reading } from '@shared/readings/reading';
 import type { ManualSource, ReadingSource } from '@shared/readings/sources';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
+import type { ReadRouting } from '../db/replica';
 import { readings, type tanks } from '../db/schema/index';
 import { badRequest, forbidden, type ErrorIssue } from '../lib/http-error';
 import { roleCan } from '@shared/people/permissions';
@@ -67,6 +68,7 @@ export async function commitReadings<T>(
   write: (tx: Tx) => Promise<{ stored: readonly StoredReading[]; result: T }>,
 ): Promise<T> {
   const { stored, result } = await deps.db.transaction(write);
+  deps.reads.wrote(tankId);
   await raiseAlertsFor(deps, tankId, stored);
   return result;
 }
@@ -277,12 +279,13 @@ async function readingsPage(
 
 export async function listReadings(
   db: Db,
+  reads: ReadRouting,
   actor: Actor,
   tankId: string,
   query: ReadingListQuery,
 ): Promise<ReadingPage> {
   const tank = await findTankFor(db, actor, tankId, 'read');
-  const rows = await readingsPage(db, tank.id, query, query.limit + 1);
+  const rows = await reads.read(tank.id, (source) => readingsPage(source, tank.id, query, query.limit + 1));
   const page = rows.slice(0, query.limit);
   return { readings: page, next: rows.length > query.limit ? cursorOf(page.at(-1)!) : null };
 }
@@ -394,6 +397,7 @@ function exportRange(query: ReadingExportQuery, now: Date): { from: string; to?:
  */
 export async function exportReadingsCsv(
   db: Db,
+  reads: ReadRouting,
   actor: Actor,
   tankId: string,
   query: ReadingExportQuery,
@@ -410,8 +414,9 @@ export async function exportReadingsCsv(
   const parameters = query.parameter ? [query.parameter] : [...parameterKeys];
   async function* lines() {
     yield csvHeaderLine();
+    const source = reads.choose(tank.id);
     const streams = parameters.map((parameter) =>
-      parameterPages(db, tank.id, parameter, { ...range, source: query.source }),
+      parameterPages(source, tank.id, parameter, { ...range, source: query.source }),
     );
     let chunk: string[] = [];
     for await (const row of mergedReadings(streams)) {

@@ -3,6 +3,8 @@ import { pipeline } from 'node:stream/promises';
 import { eq, sql } from 'drizzle-orm';
 import { bench, describe } from 'vitest';
 import type { Database } from '../../api/db/client';
+import { createReadRouting } from '../../api/db/replica';
+import { createLogger } from '../../api/lib/logger';
 import { tanks } from '../../api/db/schema/index';
 import { exportReadingsCsv } from '../../api/services/readings';
 import type { Actor } from '../../api/services/actors';
@@ -29,6 +31,8 @@ const parameters = [
 // (top-level await) and torn down by the bench's own teardown after the measured run.
 const cluster = await startTestCluster();
 const database = await createDatabaseFrom(cluster.baseUrl);
+/** No replica here: every read is the primary's. */
+const reads = createReadRouting(database, { maxLagMs: 0, logger: createLogger('silent') });
 const { actor, tankId, rowCount } = await arrange(database.db);
 
 async function arrange(db: Database['db']) {
@@ -57,7 +61,7 @@ async function arrange(db: Database['db']) {
 
 /** One whole export into a byte-counting sink; returns its lines and bytes. */
 async function exportOnce() {
-  const csv = await exportReadingsCsv(database.db, actor, tankId, query, now);
+  const csv = await exportReadingsCsv(database.db, reads, actor, tankId, query, now);
   let bytes = 0;
   let lines = 0;
   await pipeline(

@@ -1,6 +1,8 @@
 import { eq, sql } from 'drizzle-orm';
 import { bench, describe } from 'vitest';
 import type { Database } from '../../api/db/client';
+import { createReadRouting } from '../../api/db/replica';
+import { createLogger } from '../../api/lib/logger';
 import { tanks } from '../../api/db/schema/index';
 import { readingHistory } from '../../api/services/history';
 import type { Actor } from '../../api/services/actors';
@@ -25,6 +27,8 @@ const query = {
 // (top-level await) and torn down by the bench's own teardown after the measured run.
 const cluster = await startTestCluster();
 const database = await createDatabaseFrom(cluster.baseUrl);
+/** No replica here: every read is the primary's. */
+const reads = createReadRouting(database, { maxLagMs: 0, logger: createLogger('silent') });
 const { actor, tankId } = await arrange(database.db);
 
 async function arrange(db: Database['db']): Promise<{ actor: Actor; tankId: string }> {
@@ -48,7 +52,7 @@ async function arrange(db: Database['db']): Promise<{ actor: Actor; tankId: stri
   await db.execute(sql`analyze readings`);
   const rows = await db.execute<{ n: number }>(sql`select count(*)::int as n from readings`);
   const first = performance.now();
-  const history = await readingHistory(db, reader, tank.id, query);
+  const history = await readingHistory(db, reads, reader, tank.id, query);
   const took = performance.now() - first;
   if (history.mode !== 'buckets' || history.buckets.length > 500 || history.total !== rows.rows[0]!.n) {
     throw new Error(
@@ -66,7 +70,7 @@ describe('readings history', () => {
   bench(
     'one year of 5-minute readings → ≤ 500 buckets',
     async () => {
-      await readingHistory(database.db, actor, tankId, query);
+      await readingHistory(database.db, reads, actor, tankId, query);
     },
     {
       iterations: 30,

@@ -160,6 +160,7 @@ export async function startTestStack(
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await jobs?.stop({ graceful: false, timeout: 2000 });
       await events?.close();
+      await deps.reads.close();
       await push?.close();
       await proxy?.close();
       await idp.close();
