@@ -1,7 +1,6 @@
-import { and, eq } from 'drizzle-orm';
 import type { Db } from '../db/client';
+import { preparedStatement } from '../db/prepared';
 import type { Role } from '@shared/people/permissions';
-import { companies, users } from '../db/schema/index';
 
 export type { Role };
 
@@ -14,18 +13,15 @@ export interface Actor {
   email: string;
 }
 
+/** On every signed-in request, so prepared once per connection (db/prepared.ts). */
+const activeActor = preparedStatement<Actor, [userId: string]>(
+  'active-actor',
+  `select u.id, u.company_id as "companyId", c.name as "companyName", u.role, u.name, u.email
+   from users u join companies c on c.id = u.company_id
+   where u.id = $1 and u.status = 'active'`,
+);
+
 export async function findActiveActor(db: Db, userId: string): Promise<Actor | null> {
-  const [row] = await db
-    .select({
-      id: users.id,
-      companyId: users.companyId,
-      companyName: companies.name,
-      role: users.role,
-      name: users.name,
-      email: users.email,
-    })
-    .from(users)
-    .innerJoin(companies, eq(companies.id, users.companyId))
-    .where(and(eq(users.id, userId), eq(users.status, 'active')));
+  const [row] = await activeActor(db, userId);
   return row ?? null;
 }

@@ -172,22 +172,26 @@ function listFilters(db: Db, query: TankListQuery): SQL[] {
 /** Summaries of these tanks, in this order, with the health given (or judged now). */
 async function summariesOf(
   db: Db,
-  ids: string[],
+  rows: SummaryRow[],
   now: Date,
   judged?: Map<string, TankHealthSummary>,
 ): Promise<TankSummary[]> {
-  if (ids.length === 0) return [];
-  const [rows, owners, health, next] = await Promise.all([
-    summaryQuery(db).where(inArray(tanks.id, ids)),
+  if (rows.length === 0) return [];
+  const ids = rows.map((row) => row.tank.id);
+  const [owners, health, next] = await Promise.all([
     ownersOf(db, ids),
     judged ?? healthForTanks(db, ids, now),
     nextVisitsOf(db, ids, now),
   ]);
-  const byId = new Map(rows.map((row) => [row.tank.id, row]));
-  return ids.flatMap((id) => {
-    const row = byId.get(id);
-    return row ? [toSummary(row, owners.get(id) ?? [], now, health.get(id), next.get(id) ?? null)] : [];
-  });
+  return rows.map((row) =>
+    toSummary(
+      row,
+      owners.get(row.tank.id) ?? [],
+      now,
+      health.get(row.tank.id),
+      next.get(row.tank.id) ?? null,
+    ),
+  );
 }
 
 export async function listTanks(
@@ -196,16 +200,10 @@ export async function listTanks(
   query: TankListQuery,
   now: Date,
 ): Promise<TankSummary[]> {
-  const rows = await db
-    .select({ id: tanks.id })
-    .from(tanks)
+  const rows = await summaryQuery(db)
     .where(and(visibleTanks(db, actor), ...listFilters(db, query)))
     .orderBy(asc(tanks.name), asc(tanks.id));
-  return summariesOf(
-    db,
-    rows.map((row) => row.id),
-    now,
-  );
+  return summariesOf(db, rows, now);
 }
 
 /**
@@ -256,8 +254,14 @@ export async function tankOverview(
     number
   >;
   for (const row of counted) counts[row.status] = row.count;
+  const byId = new Map(
+    ids.length === 0
+      ? []
+      : (await summaryQuery(db).where(inArray(tanks.id, ids))).map((row) => [row.tank.id, row]),
+  );
+  const rows = ids.flatMap((id) => byId.get(id) ?? []);
   return {
-    tanks: await summariesOf(db, ids, now, judged),
+    tanks: await summariesOf(db, rows, now, judged),
     next:
       page.length > tankOverviewPageSize && last
         ? encodeTankOverviewCursor({ rank: last.rank, since: last.since.toISOString(), id: last.id })

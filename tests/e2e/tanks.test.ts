@@ -146,6 +146,50 @@ describe('tanks, livestock and equipment in the browser', () => {
       expect(new URL(page.url()).searchParams.get('technicianId')).not.toBeNull();
     });
 
+    it('filters by status with each count in its label, keeps it in the address, and clears an empty result', async () => {
+      await page.goto('/console?technicianId=everyone');
+      const summary = page.getByText(/^\d+ tanks? for \d+ clients?$/);
+      const all = Number((await summary.innerText()).split(' ')[0]);
+      const statuses = page.getByRole('group', { name: 'Status' });
+      const labels = await statuses.locator('label').allInnerTexts();
+      const counts = Object.fromEntries(
+        labels.map((label): [string, number] => {
+          const [, word = label, count] = /^(.+) \((\d+)\)$/.exec(label.trim()) ?? [];
+          return [word, Number(count)];
+        }),
+      );
+      expect(Object.keys(counts)).toEqual(['Alert', 'Watch', 'No recent data', 'Healthy']);
+      expect(Object.values(counts).reduce((sum, count) => sum + count, 0)).toBe(all);
+      // The demo keeps some tanks on watch; the list is short enough to come in one page.
+      const onWatch = counts.Watch!;
+      expect(onWatch).toBeGreaterThan(0);
+      expect(await page.getByRole('button', { name: 'Show more tanks' }).count()).toBe(0);
+
+      await statuses.getByRole('checkbox', { name: /^Watch/ }).check();
+      const badges = (word: string) =>
+        page.getByRole('main').getByText(word, { exact: true }).filter({ visible: true }).count();
+      await page.getByText(new RegExp(`^${onWatch} tanks? for \\d+ clients?$`)).waitFor();
+      expect(new URL(page.url()).searchParams.get('status')).toBe('watch');
+      expect(await badges('Watch')).toBe(onWatch);
+      expect(await badges('Healthy')).toBe(0);
+
+      // A reload (or a shared link) shows the same list.
+      await page.reload();
+      await page.getByText(new RegExp(`^${onWatch} tanks? for \\d+ clients?$`)).waitFor();
+      expect(await statuses.getByRole('checkbox', { name: /^Watch/ }).isChecked()).toBe(true);
+      expect(await badges('Watch')).toBe(onWatch);
+
+      await page.getByRole('searchbox', { name: /Search/ }).fill('no tank is called this');
+      await checkScreen(page, 'console-tanks-no-match', () =>
+        page.getByText('No tanks match these filters').waitFor(),
+      );
+      await page.getByRole('link', { name: 'Clear the filters' }).click();
+      await page.getByText(`${all} tanks for`, { exact: false }).waitFor();
+      expect(await statuses.getByRole('checkbox', { name: /^Watch/ }).isChecked()).toBe(false);
+      expect(await page.getByRole('searchbox', { name: /Search/ }).inputValue()).toBe('');
+      expect(new URL(page.url()).searchParams.get('status')).toBeNull();
+    });
+
     it('warns before adding a species that stings its neighbours, and adds it once acknowledged', async () => {
       await page.goto(`/console/tanks/${livingRoomReef}/livestock`);
       const form = page.getByRole('form', { name: 'Add livestock' });

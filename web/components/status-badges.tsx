@@ -59,7 +59,7 @@ export const statusToneClasses: Record<StatusTone, string> = {
   none: 'border bg-nodata-100 text-nodata-700 border-nodata-700/30',
 };
 
-const tankStatuses: Record<TankStatus, { label: string; tone: StatusTone }> = {
+export const tankStatusWords: Record<TankStatus, { label: string; tone: StatusTone }> = {
   healthy: { label: 'Healthy', tone: 'good' },
   watch: { label: 'Watch', tone: 'watch' },
   alert: { label: 'Alert', tone: 'alert' },
@@ -68,7 +68,7 @@ const tankStatuses: Record<TankStatus, { label: string; tone: StatusTone }> = {
 
 /** A tank's status at a glance: shape, word and colour together, never colour alone. */
 export function TankStatusBadge({ status, size = 'md' }: { status: TankStatus; size?: 'md' | 'lg' }) {
-  const { label, tone } = tankStatuses[status];
+  const { label, tone } = tankStatusWords[status];
   return (
     <Badge
       tone={statusToneClasses[tone]}

@@ -10,6 +10,8 @@ export const tankKeys = {
   all: ['tanks'] as const,
   lists: () => [...tankKeys.all, 'list'] as const,
   list: (query: Partial<TankListQuery> = {}) => [...tankKeys.lists(), query] as const,
+  /** The staff overview's pages for one set of filters (the cursor is each page's, not the key's). */
+  overview: (filters: object) => [...tankKeys.all, 'overview', filters] as const,
   detail: (tankId: string) => [...tankKeys.all, 'detail', tankId] as const,
   photos: (tankId: string) => [...tankKeys.detail(tankId), 'photos'] as const,
   readings: (tankId: string) => [...tankKeys.detail(tankId), 'readings'] as const,
