@@ -66,11 +66,19 @@ export function withTankAlerts<T>(
 ): Promise<T> {
   return db.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${tankId}))`);
-    return work(storeFor(tx, tankId));
+    const { store, recordedEvents } = storeFor(tx, tankId);
+    const result = await work(store);
+    // Nothing but rule state written (a reading that changed no alert, the common case on every
+    // device batch): that commit need not wait for the disk. A crash in the next moment loses at
+    // most that state's last step, which only delays an alert by a reading; the readings themselves
+    // are already durable, and every alert change commits durably.
+    if (!recordedEvents()) await tx.execute(sql`set local synchronous_commit = off`);
+    return result;
   });
 }
 
-function storeFor(tx: Tx, tankId: string): TankAlertStore {
+function storeFor(tx: Tx, tankId: string): { store: TankAlertStore; recordedEvents: () => boolean } {
+  let events = 0;
   const record = async (
     alert: AlertRow,
     event: Omit<typeof alertEvents.$inferInsert, 'alertId' | 'id'>,
@@ -79,7 +87,30 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
       .insert(alertEvents)
       .values({ ...event, alertId: alert.id })
       .returning({ id: alertEvents.id });
+    events += 1;
     return row!.id;
+  };
+
+  /*
+   * The tank's alerts not resolved, read once (locked) and kept up to date by the writes below:
+   * every rule of a batch asks for its open alert, and under the tank's lock nobody else changes them.
+   */
+  let openByRule: Map<string, AlertRow> | null = null;
+  const openAlerts = async () => {
+    openByRule ??= new Map(
+      (
+        await tx
+          .select()
+          .from(alerts)
+          .where(and(eq(alerts.tankId, tankId), ne(alerts.status, 'resolved')))
+          .for('update')
+      ).map((row) => [row.ruleKey, row]),
+    );
+    return openByRule;
+  };
+  const remember = (alert: AlertRow, changes: Partial<AlertRow>) => {
+    const known = openByRule?.get(alert.ruleKey);
+    if (known?.id === alert.id) openByRule!.set(alert.ruleKey, { ...known, ...changes });
   };
 
   const change = async (alert: AlertRow, next: AlertChange, type: 'escalated' | 'de-escalated') => {
@@ -94,18 +125,20 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
         lastSeenAt: next.at,
       })
       .where(eq(alerts.id, alert.id));
+    remember(alert, {
+      severity: next.severity,
+      title: next.title,
+      body: next.body,
+      value: next.value,
+      limitValue: next.limitValue,
+      lastSeenAt: next.at,
+    });
     return record(alert, { type, severity: next.severity, value: next.value, at: next.at });
   };
 
-  const findOpen = (ruleKey: string) =>
-    tx
-      .select()
-      .from(alerts)
-      .where(and(eq(alerts.tankId, tankId), eq(alerts.ruleKey, ruleKey), ne(alerts.status, 'resolved')))
-      .for('update')
-      .then((rows) => rows[0] ?? null);
+  const findOpen = async (ruleKey: string) => (await openAlerts()).get(ruleKey) ?? null;
 
-  return {
+  const store: TankAlertStore = {
     tx,
     tankId,
     findOpen,
@@ -138,6 +171,7 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
           lastSeenAt: alert.at,
         })
         .returning();
+      (await openAlerts()).set(created!.ruleKey, created!);
       return record(created!, { type: 'opened', severity: alert.severity, value: alert.value, at: alert.at });
     },
 
@@ -163,6 +197,7 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
           ...(actorId ? { resolvedBy: actorId } : {}),
         })
         .where(eq(alerts.id, alert.id));
+      if (openByRule?.get(alert.ruleKey)?.id === alert.id) openByRule.delete(alert.ruleKey);
       return record(alert, {
         type: 'resolved',
         severity: last?.severity ?? alert.severity,
@@ -178,6 +213,7 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
         .update(alerts)
         .set({ status: 'acknowledged', acknowledgedAt: at, acknowledgedBy: actorId })
         .where(eq(alerts.id, alert.id));
+      remember(alert, { status: 'acknowledged', acknowledgedAt: at, acknowledgedBy: actorId });
       // Acknowledging tells nobody new; it is recorded, and the board updates live.
       return record(alert, {
         type: 'acknowledged',
@@ -189,4 +225,5 @@ function storeFor(tx: Tx, tankId: string): TankAlertStore {
       });
     },
   };
+  return { store, recordedEvents: () => events > 0 };
 }
