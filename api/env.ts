@@ -29,6 +29,11 @@ const envSchema = z.object({
     .optional(),
   /** How far behind the primary the replica may be before its reads go to the primary. */
   REPLICA_MAX_LAG_MS: z.coerce.number().int().min(0).default(2_000),
+  /**
+   * Device readings older than this many whole months are deleted by the daily job; home tests,
+   * visit readings and the hourly and daily summaries are kept. Unset keeps everything.
+   */
+  READINGS_DEVICE_RETENTION_MONTHS: z.coerce.number().int().min(1).optional(),
   PGPORT_LOCAL: port.default(54329),
   DATA_DIR: z.string().min(1).default('.data'),
   /** OpenID provider; the demo runs its own stand-in here. */

@@ -10,6 +10,7 @@ import { checkUnreadEmail, type UnreadEmailCheck } from './conversation-notify';
 import { fanOutAlertEvent, fanOutCareTip, fanOutVisitReport, pendingFanOuts } from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
+import { maintainReadingPartitions } from './reading-partitions';
 import { rejudgeStaleStatuses } from './tank-status';
 import { escalateOverdueRequests, fanOutUrgentEvent, unannouncedUrgentEvents } from './urgent-notify';
 
@@ -69,24 +70,34 @@ export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boole
         .where(eq(deliveries.id, job.data.deliveryId));
     }
   });
-  await boss.work<{ overdue?: boolean; auditRetention?: boolean }>(queues.sweep, async (jobs) => {
-    for (const job of jobs) {
-      if (job.data?.auditRetention) {
-        await purgeExpiredAudit(deps);
-        continue;
+  await boss.work<{ overdue?: boolean; auditRetention?: boolean; partitions?: boolean }>(
+    queues.sweep,
+    async (jobs) => {
+      for (const job of jobs) {
+        if (job.data?.auditRetention) {
+          await purgeExpiredAudit(deps);
+          continue;
+        }
+        if (job.data?.partitions) {
+          await maintainReadingPartitions(deps);
+          continue;
+        }
+        const opened = job.data?.overdue ? await sweepOverdueTests(deps) : await sweepStaleDevices(deps);
+        await afterAlertEvents(deps, opened);
+        for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
+        for (const visitId of await unannouncedVisits(deps, 60_000)) await fanOutVisitReport(deps, visitId);
+        await escalateOverdueRequests(deps);
+        for (const eventId of await unannouncedUrgentEvents(deps, 60_000))
+          await fanOutUrgentEvent(deps, eventId);
+        await sendDueTips(deps);
+        await rejudgeStaleStatuses(deps.db, deps.clock());
       }
-      const opened = job.data?.overdue ? await sweepOverdueTests(deps) : await sweepStaleDevices(deps);
-      await afterAlertEvents(deps, opened);
-      for (const eventId of await pendingFanOuts(deps, 60_000)) await fanOutAlertEvent(deps, eventId);
-      for (const visitId of await unannouncedVisits(deps, 60_000)) await fanOutVisitReport(deps, visitId);
-      await escalateOverdueRequests(deps);
-      for (const eventId of await unannouncedUrgentEvents(deps, 60_000))
-        await fanOutUrgentEvent(deps, eventId);
-      await sendDueTips(deps);
-      await rejudgeStaleStatuses(deps.db, deps.clock());
-    }
-  });
+    },
+  );
+  // The months ahead exist before any reading needs them, also after a long stop.
+  await maintainReadingPartitions(deps);
   await boss.schedule(queues.sweep, '* * * * *', {}, { key: 'stale-devices' });
+  await boss.schedule(queues.sweep, '15 2 * * *', { partitions: true }, { key: 'reading-partitions' });
   if (options.dailySweeps === false) {
     await boss.unschedule(queues.sweep, 'overdue-tests');
     await boss.unschedule(queues.sweep, 'audit-retention');

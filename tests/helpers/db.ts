@@ -16,12 +16,16 @@ export function createTestDatabase(): Promise<TestDatabase> {
   return createDatabaseFrom(inject('postgresBaseUrl'));
 }
 
-export async function createDatabaseFrom(base: string): Promise<TestDatabase> {
+/** A new database from the run's migrated template, or another (`template0`: an empty one). */
+export async function createDatabaseFrom(
+  base: string,
+  options: { template?: string } = {},
+): Promise<TestDatabase> {
   const name = `test_${randomBytes(6).toString('hex')}`;
   const admin = new pg.Client({ connectionString: `${base}/postgres` });
   await admin.connect();
   try {
-    await admin.query(`create database ${name} template ${templateDatabase}`);
+    await admin.query(`create database ${name} template ${options.template ?? templateDatabase}`);
   } finally {
     await admin.end();
   }

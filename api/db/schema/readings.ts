@@ -52,7 +52,7 @@ export const devices = pgTable(
 export const readings = pgTable(
   'readings',
   {
-    id: bigint('id', { mode: 'number' }).primaryKey().generatedAlwaysAsIdentity(),
+    id: bigint('id', { mode: 'number' }).notNull().generatedAlwaysAsIdentity(),
     companyId: uuid('company_id')
       .notNull()
       .references(() => companies.id, { onDelete: 'cascade' }),
@@ -76,6 +76,8 @@ export const readings = pgTable(
     ...timestamps,
   },
   (t) => [
+    // Partitioned by measured_at (drizzle/0020), which every unique key must include.
+    primaryKey({ columns: [t.id, t.measuredAt] }),
     index('readings_history_idx').on(t.tankId, t.parameter, t.measuredAt),
     // A device's reading is idempotent on (device, parameter, measured at): re-sending adds nothing.
     uniqueIndex('readings_device_key')
