@@ -3,14 +3,13 @@ import os from 'node:os';
 import path from 'node:path';
 import { sql } from 'drizzle-orm';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { migrationsFolder } from '../../api/db/migrations';
 import { maintainReadingPartitions } from '../../api/services/reading-partitions';
 import { createDatabaseFrom } from '../helpers/db';
 import { days } from '../helpers/clock';
 import { startTestStack, type TestStack } from '../helpers/stack';
 import { deviceFor, readingsWorld } from './readings-kit';
-import { inject } from 'vitest';
 
 /**
  * `readings` is partitioned by month (drizzle/0020): the months ahead are made by the daily job,
