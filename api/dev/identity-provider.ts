@@ -1,6 +1,7 @@
-import { createHash, generateKeyPairSync, randomBytes, timingSafeEqual } from 'node:crypto';
+import { createHash, generateKeyPair, randomBytes, timingSafeEqual } from 'node:crypto';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { promisify } from 'node:util';
 import express, { type NextFunction, type Request, type Response } from 'express';
 import Provider, {
   errors,
@@ -123,14 +124,16 @@ class AccountBook {
   }
 }
 
-let signingKeys: JWKS | undefined;
+let signingKeys: Promise<JWKS> | undefined;
 
-/** One RSA key per process: tokens only need to outlive the in-memory sessions that issued them. */
-function devSigningKeys(): JWKS {
-  if (!signingKeys) {
-    const { privateKey } = generateKeyPairSync('rsa', { modulusLength: 2048 });
-    signingKeys = { keys: [{ ...privateKey.export({ format: 'jwk' }), use: 'sig', alg: 'RS256' }] };
-  }
+/**
+ * One RSA key per process: tokens only need to outlive the in-memory sessions that issued them.
+ * Made off the main thread, which `npm start` spends loading the app meanwhile.
+ */
+function devSigningKeys(): Promise<JWKS> {
+  signingKeys ??= promisify(generateKeyPair)('rsa', { modulusLength: 2048 }).then(({ privateKey }) => ({
+    keys: [{ ...privateKey.export({ format: 'jwk' }), use: 'sig', alg: 'RS256' }],
+  }));
   return signingKeys;
 }
 
@@ -192,7 +195,7 @@ export async function startIdentityProvider(
       token_endpoint_auth_method: client.tokenEndpointAuthMethod ?? 'client_secret_basic',
     })),
     findAccount,
-    jwks: options.signingKeys ?? devSigningKeys(),
+    jwks: options.signingKeys ?? (await devSigningKeys()),
     claims: { openid: ['sub'], email: ['email', 'email_verified'], profile: ['name'] },
     // No refresh tokens here, so offline_access is not offered.
     scopes: ['openid'],

@@ -6,17 +6,20 @@ import pg from 'pg';
 import { afterAll, describe, expect, it } from 'vitest';
 import { ensurePostgresBinaries, stopLeftoverServer } from '../../../api/dev/postgres';
 import { freePort } from '../../helpers/free-port';
+import { copyProject, markClientBuilt } from '../../helpers/project-copy';
 
 /*
  * `npm start` killed with SIGKILL leaves its PostgreSQL running on the data folder. The next start
  * must come up by itself, with the data intact, and a normal stop must leave nothing running.
- * This runs the real launcher (api/dev/start.ts) as a separate process, as `npm start` does.
+ * This runs the real launcher (api/dev/start.ts) as a separate process, as `npm start` does, in a
+ * copy of the project whose client counts as built, so it never rebuilds the dist/web others serve.
  */
 
 const dataDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-restart-'));
 // The server runs as the postgres user, which must be able to reach the folder like `.data`.
 chmodSync(dataDir, 0o755);
 const pgDataDir = path.join(dataDir, 'postgres', 'data');
+const project = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-restart-project-'));
 const children: ChildProcess[] = [];
 
 async function demoEnv() {
@@ -42,6 +45,7 @@ type DemoEnv = Awaited<ReturnType<typeof demoEnv>>;
 
 function startDemo(env: DemoEnv) {
   const child = spawn(process.execPath, ['--import', 'tsx', 'api/dev/start.ts'], {
+    cwd: project,
     env: env as NodeJS.ProcessEnv,
     stdio: ['ignore', 'ignore', 'pipe'],
   });
@@ -85,10 +89,13 @@ afterAll(() => {
   for (const child of children) if (child.exitCode === null) child.kill('SIGKILL');
   if (existsSync(pgDataDir)) stopLeftoverServer(ensurePostgresBinaries(), pgDataDir, () => {});
   rmSync(dataDir, { recursive: true, force: true });
+  rmSync(project, { recursive: true, force: true });
 });
 
 describe('npm start after a kill -9', () => {
   it('comes up by itself with the data intact, and a normal stop leaves no PostgreSQL behind', async () => {
+    await copyProject(project);
+    await markClientBuilt(project);
     const env = await demoEnv();
     const first = startDemo(env);
     await waitForHealth(env, first);
