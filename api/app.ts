@@ -9,12 +9,13 @@ import expressStaticGzip from 'express-static-gzip';
 import helmet, { strictTransportSecurity } from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { AppDeps } from './deps';
+import { createClientShell } from './lib/client-shell';
 import { loggableUrl, safeError } from './lib/logger';
 import { appOrigin } from './env';
 import { loadActor } from './middleware/actor';
 import { sameOriginOnly } from './middleware/csrf';
 import { apiNotFound, errorHandler, requireContentType } from './middleware/error-handler';
-import { createSessionMiddleware, isHttps } from './middleware/session';
+import { createSessionMiddleware, isHttps, sessionCookieName } from './middleware/session';
 import { authRouter } from './routes/auth';
 import { apiRouters, sessionlessRouters } from './routes/index';
 
@@ -105,7 +106,8 @@ export function createApp(deps: AppDeps) {
   app.use('/api', compressResponses, api);
   app.use('/auth', noStore, sessions, sameOrigin, authRouter);
 
-  if (deps.webDist && existsSync(deps.webDist)) serveClient(app, deps.webDist);
+  if (deps.webDist && existsSync(deps.webDist))
+    serveClient(app, deps.webDist, sessionCookieName(isHttps(deps.env)));
 
   app.use(errorHandler);
   return app;
@@ -121,7 +123,7 @@ function onlyOverHttps(env: AppDeps['env'], middleware: RequestHandler): Request
   return (req, res, next) => (httpsOrigin || req.secure ? middleware(req, res, next) : next());
 }
 
-function serveClient(app: express.Express, webDist: string) {
+function serveClient(app: express.Express, webDist: string, sessionCookie: string) {
   // Build files go out as built: the .br or .gz written beside each (vite.config.ts), whichever
   // the browser takes, brotli first; the file itself otherwise.
   app.use(
@@ -132,13 +134,20 @@ function serveClient(app: express.Express, webDist: string) {
       serveStatic: { index: false, maxAge: '1h', setHeaders: setCacheHeaders },
     }),
   );
-  const indexHtml = path.join(webDist, 'index.html');
+  const shellFor = createClientShell(webDist);
+  // A session cookie is enough to guess: one that has expired costs a few unused preloads, and
+  // looking the session up would put a database read in front of every page.
+  const hasSession = new RegExp(`(?:^|;\\s*)${sessionCookie}=`);
   // Client-side routes: any other GET that wants a page gets the app shell. A build file that is
   // not there is a 404, never the shell, which the service worker would keep as that file.
   app.get(/^\/(?!api\/|auth\/|assets\/).*/, compressResponses, (req, res, next) => {
     if (!req.accepts('html')) return next();
+    const url = new URL(req.originalUrl, 'http://shell');
+    const signedIn = hasSession.test(req.headers.cookie ?? '');
     res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(indexHtml);
+    // The preloads differ with and without a session: a shared cache must not hand one to the other.
+    res.vary('Cookie');
+    res.type('html').send(shellFor(url.pathname, url.search, { signedIn }));
   });
 }
 

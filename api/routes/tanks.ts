@@ -13,6 +13,7 @@ import {
   createTank,
   getTankDetail,
   listAssignableStaff,
+  listTankChoices,
   listTanks,
   tankOverview,
   updateTank,
@@ -43,6 +44,11 @@ tanksRouter.get(
   '/technicians',
   can('tanks:write'),
   route({}, ({ deps, actor }) => listAssignableStaff(deps.db, actor)),
+);
+tanksRouter.get(
+  '/choices',
+  can('tanks:read'),
+  route({}, ({ deps, actor }) => listTankChoices(deps.db, actor)),
 );
 tanksRouter.get(
   '/:tankId',

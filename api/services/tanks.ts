@@ -10,6 +10,7 @@ import type {
   createTankInput,
   PersonRef,
   PhotoRef,
+  TankChoice,
   TankDetail,
   TankListQuery,
   TankOverviewPage,
@@ -204,6 +205,30 @@ export async function listTanks(
     .where(and(visibleTanks(db, actor), ...listFilters(db, query)))
     .orderBy(asc(tanks.name), asc(tanks.id));
   return summariesOf(db, rows, now);
+}
+
+/** Every tank the actor may see, for pickers and labels: one statement, owners' names folded in. */
+export function listTankChoices(db: Db, actor: Actor): Promise<TankChoice[]> {
+  const owners = db
+    .select({
+      names: sql<string[]>`array_agg(${users.name} order by ${users.name}, ${users.id})`.as('names'),
+    })
+    .from(tankMembers)
+    .innerJoin(users, eq(users.id, tankMembers.userId))
+    .where(eq(tankMembers.tankId, tanks.id))
+    .as('owners');
+  return db
+    .select({
+      id: tanks.id,
+      name: tanks.name,
+      siteLabel: tanks.siteLabel,
+      serviceIntervalDays: tanks.serviceIntervalDays,
+      ownerNames: sql<string[]>`coalesce(${owners.names}, '{}')`,
+    })
+    .from(tanks)
+    .leftJoinLateral(owners, sql`true`)
+    .where(visibleTanks(db, actor))
+    .orderBy(asc(tanks.name), asc(tanks.id));
 }
 
 /**

@@ -189,3 +189,17 @@ export const tankOverviewPage = z.object({
   counts: z.record(tankStatusSchema, z.int()),
 });
 export type TankOverviewPage = z.infer<typeof tankOverviewPage>;
+
+/**
+ * A tank as a picker or a label needs it: no health, photos or visits, so a company's every tank
+ * fits in one light answer. The service interval stays for the plan-a-visit form's repeat hint.
+ */
+export const tankChoice = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  siteLabel: z.string().nullable(),
+  serviceIntervalDays: z.int(),
+  /** By name, as the tank list orders its owners. */
+  ownerNames: z.array(z.string()),
+});
+export type TankChoice = z.infer<typeof tankChoice>;

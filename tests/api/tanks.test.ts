@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { TankDetail, TankSummary } from '@shared/schemas/tanks';
+import type { TankChoice, TankDetail, TankSummary } from '@shared/schemas/tanks';
 import { tankMembers, tanks, visits } from '../../api/db/schema/index';
 import { issuePaths, signedIn, type ApiSession } from '../helpers/api-session';
 import { days } from '../helpers/clock';
@@ -397,6 +397,104 @@ describe('tanks API', () => {
       const tank = await createTank(stack.database.db, { companyId, owners: [people.owner], name: 'Owned' });
 
       expect((await as.owner.patch(`/api/tanks/${tank.id}`, { name: 'Renamed' })).status).toBe(403);
+    });
+  });
+
+  describe('GET /api/tanks/choices', () => {
+    // Companies of their own, so the tanks the other blocks add never show up here.
+    const choosers = {} as Record<'technician' | 'owner' | 'otherAdmin', ApiSession>;
+    const tankIds = {} as Record<'lounge' | 'twinA' | 'twinB' | 'office' | 'elsewhere', string>;
+
+    beforeAll(async () => {
+      const { db } = stack.database;
+      const issuer = stack.idp.issuer;
+      const ours = await createCompany(db);
+      const theirs = await createCompany(db);
+      const technician = await createPerson(db, { companyId: ours.id, role: 'technician', issuer });
+      const owner = await createPerson(db, { companyId: ours.id, role: 'owner', issuer, name: 'Zara Coral' });
+      const coOwner = await createPerson(db, {
+        companyId: ours.id,
+        role: 'owner',
+        issuer,
+        name: 'Abel Kelp',
+      });
+      const otherAdmin = await createPerson(db, { companyId: theirs.id, role: 'admin', issuer });
+      const otherOwner = await createPerson(db, {
+        companyId: theirs.id,
+        role: 'owner',
+        issuer,
+        name: 'Ida Far',
+      });
+      const twins = [
+        await createTank(db, { companyId: ours.id, name: 'Twin nano', serviceIntervalDays: 7 }),
+        await createTank(db, { companyId: ours.id, name: 'Twin nano', serviceIntervalDays: 7 }),
+      ].sort((a, b) => a.id.localeCompare(b.id));
+      tankIds.twinA = twins[0]!.id;
+      tankIds.twinB = twins[1]!.id;
+      tankIds.lounge = (
+        await createTank(db, {
+          companyId: ours.id,
+          name: 'Lounge reef',
+          siteLabel: 'Harbour Road house',
+          serviceIntervalDays: 14,
+          owners: [owner, coOwner],
+        })
+      ).id;
+      tankIds.office = (
+        await createTank(db, { companyId: ours.id, name: 'Office planted', serviceIntervalDays: 21 })
+      ).id;
+      tankIds.elsewhere = (
+        await createTank(db, { companyId: theirs.id, name: 'Elsewhere lagoon', owners: [otherOwner] })
+      ).id;
+      choosers.technician = await signedIn(stack, technician);
+      choosers.owner = await signedIn(stack, owner);
+      choosers.otherAdmin = await signedIn(stack, otherAdmin);
+    });
+
+    it("gives staff every tank of their company by name, with its owners' names and nothing heavier", async () => {
+      const res = await choosers.technician.get<TankChoice[]>('/api/tanks/choices');
+
+      expect(res.status).toBe(200);
+      expect(res.body).toEqual([
+        {
+          id: tankIds.lounge,
+          name: 'Lounge reef',
+          siteLabel: 'Harbour Road house',
+          serviceIntervalDays: 14,
+          ownerNames: ['Abel Kelp', 'Zara Coral'],
+        },
+        {
+          id: tankIds.office,
+          name: 'Office planted',
+          siteLabel: null,
+          serviceIntervalDays: 21,
+          ownerNames: [],
+        },
+        { id: tankIds.twinA, name: 'Twin nano', siteLabel: null, serviceIntervalDays: 7, ownerNames: [] },
+        { id: tankIds.twinB, name: 'Twin nano', siteLabel: null, serviceIntervalDays: 7, ownerNames: [] },
+      ]);
+    });
+
+    it('gives an owner only the tanks they belong to', async () => {
+      const res = await choosers.owner.get<TankChoice[]>('/api/tanks/choices');
+
+      expect(res.status).toBe(200);
+      expect(res.body.map((tank) => tank.id)).toEqual([tankIds.lounge]);
+    });
+
+    it("gives another company's staff none of ours", async () => {
+      const res = await choosers.otherAdmin.get<TankChoice[]>('/api/tanks/choices');
+
+      expect(res.status).toBe(200);
+      expect(res.body).toEqual([
+        {
+          id: tankIds.elsewhere,
+          name: 'Elsewhere lagoon',
+          siteLabel: null,
+          serviceIntervalDays: expect.any(Number),
+          ownerNames: ['Ida Far'],
+        },
+      ]);
     });
   });
 

@@ -150,6 +150,10 @@ describe('Brinewatch installed and offline', () => {
         ),
       )
       .toEqual([true, true, true]);
+    // The kept shell opens at any address, so it keeps none of one page's preloads.
+    const keptShell = await page.evaluate(async () => (await caches.match('/'))?.text());
+    expect(keptShell).toContain('<div id="root"></div>');
+    expect(keptShell).not.toContain('data-first-load');
     // A screen opened once while online is kept as it loads.
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Calculators' }).click();
     await page.getByRole('heading', { level: 1, name: 'Water calculators' }).waitFor();

@@ -2,11 +2,12 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { roleCan, type Permission } from '@shared/people/permissions';
 import type { Me } from '@shared/schemas/users';
 import { api, ApiError } from './api-client';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 /** The signed-in person, or null when nobody is signed in (a 401 is an answer here, not an error). */
 export async function getMe(signal?: AbortSignal): Promise<Me | null> {
   try {
-    return await api<Me>('/me', { signal });
+    return await api<Me>(apiPaths.me(), { signal });
   } catch (error) {
     if (error instanceof ApiError && error.status === 401) return null;
     throw error;

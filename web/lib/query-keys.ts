@@ -12,6 +12,8 @@ export const tankKeys = {
   list: (query: Partial<TankListQuery> = {}) => [...tankKeys.lists(), query] as const,
   /** The staff overview's pages for one set of filters (the cursor is each page's, not the key's). */
   overview: (filters: object) => [...tankKeys.all, 'overview', filters] as const,
+  /** Every visible tank's name, site and owners, for pickers and labels. */
+  choices: () => [...tankKeys.all, 'choices'] as const,
   detail: (tankId: string) => [...tankKeys.all, 'detail', tankId] as const,
   photos: (tankId: string) => [...tankKeys.detail(tankId), 'photos'] as const,
   readings: (tankId: string) => [...tankKeys.detail(tankId), 'readings'] as const,

@@ -12,7 +12,7 @@
  */
 
 // Raise the version when what is kept changes shape: activate then drops every older cache.
-const cacheName = 'brinewatch-shell-v1';
+const cacheName = 'brinewatch-shell-v2';
 const cachePrefix = 'brinewatch-';
 const shellUrl = '/';
 // A page that has not answered by then is shown from the kept shell instead (a few seconds is
@@ -23,8 +23,8 @@ self.addEventListener('install', (event) => {
   event.waitUntil(
     (async () => {
       try {
-        const cache = await caches.open(cacheName);
-        await cache.add(new Request(shellUrl, { cache: 'reload' }));
+        const response = await fetch(new Request(shellUrl, { cache: 'reload' }));
+        if (isShell(response)) await keepShell(response);
       } catch {
         // Installed without a connection: push must work all the same, and the next page load keeps the shell.
       }
@@ -81,18 +81,35 @@ function isShell(response) {
 }
 
 /**
- * Every app address answers with the same index.html, so the newest one from any page is kept as
- * the shell. The copy is taken before the page can start reading the body.
+ * The server names the reads and the lazy module of the page asked for in its HTML, as links marked
+ * `data-first-load`. The kept shell opens at any address, where another page's would be fetched
+ * for nothing (and warned about as unused), so it is kept without them.
+ */
+async function keepShell(response) {
+  const html = await response.text();
+  const headers = new Headers(response.headers);
+  // The body kept is the decoded text, of a new length.
+  headers.delete('content-encoding');
+  headers.delete('content-length');
+  const shell = new Response(html.replace(/[ \t]*<link\b[^>]*\bdata-first-load\b[^>]*>\n?/g, ''), {
+    status: response.status,
+    statusText: response.statusText,
+    headers,
+  });
+  const cache = await caches.open(cacheName);
+  await cache.put(shellUrl, shell);
+}
+
+/**
+ * Every app address answers with the same index.html (but for its first-load links), so the newest
+ * one from any page is kept as the shell. The copy is taken before the page can start reading the body.
  */
 function pageFromNetworkFirst(event) {
   const fromNetwork = fetch(event.request);
   event.waitUntil(
     fromNetwork
       .then(async (response) => {
-        if (!isShell(response)) return;
-        const copy = response.clone();
-        const cache = await caches.open(cacheName);
-        await cache.put(shellUrl, copy);
+        if (isShell(response)) await keepShell(response.clone());
       })
       .catch(() => undefined),
   );

@@ -63,6 +63,7 @@ const expected: Record<string, Row> = {
   'POST /api/tanks': staffOnly(201),
   'GET /api/tanks/overview': staffOnly(200),
   'GET /api/tanks/technicians': staffOnly(200),
+  'GET /api/tanks/choices': everyoneSignedIn(200),
   'GET /api/tanks/:tankId': tankARead,
   'PATCH /api/tanks/:tankId': tankAStaffWrite(200),
   'GET /api/tanks/:tankId/comfort-range': tankARead,

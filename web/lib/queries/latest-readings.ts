@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TankHealthSummary } from '@shared/schemas/readings';
 import { api } from '../api-client';
 import { tankKeys } from '../query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 /*
  * A tank's latest reading of each parameter, judged against its limits. The readings section and
@@ -9,7 +10,7 @@ import { tankKeys } from '../query-keys';
  */
 
 export const getLatestReadings = (tankId: string, signal?: AbortSignal) =>
-  api<TankHealthSummary>(`/tanks/${tankId}/readings/latest`, { signal });
+  api<TankHealthSummary>(apiPaths.latestReadings(tankId), { signal });
 
 export const latestReadingsQueryOptions = (tankId: string) =>
   queryOptions({

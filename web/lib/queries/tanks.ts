@@ -2,10 +2,11 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import type { TankListQuery, TankSummary } from '@shared/schemas/tanks';
 import { api } from '../api-client';
 import { tankKeys } from '../query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 /*
- * The list of tanks the signed-in person may see: the tanks pages, the alerts board's tank filter
- * and the client invitation's tank picker all read this one query.
+ * The list of tanks the signed-in person may see, each judged and summarised, for the tanks pages.
+ * Pickers and labels that only name tanks read the lighter `useTankChoices` (./tank-choices.ts).
  */
 
 export function getTanks(query: Partial<TankListQuery> = {}, signal?: AbortSignal) {
@@ -13,7 +14,7 @@ export function getTanks(query: Partial<TankListQuery> = {}, signal?: AbortSigna
   if (query.q) params.set('q', query.q);
   if (query.technicianId) params.set('technicianId', query.technicianId);
   const search = params.size > 0 ? `?${params}` : '';
-  return api<TankSummary[]>(`/tanks${search}`, { signal });
+  return api<TankSummary[]>(`${apiPaths.tanks()}${search}`, { signal });
 }
 
 export const tanksQueryOptions = (query: Partial<TankListQuery> = {}) =>

@@ -2,16 +2,13 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import type { AlertListQuery, AlertView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
 import { alertKeys } from '../../../lib/query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 export type AlertFilters = Partial<Pick<AlertListQuery, 'status' | 'severity' | 'tankId'>>;
 
 /** The API sorts: the most severe first, then the oldest (resolved ones: the latest first). */
-export function listAlerts(filters: AlertFilters, signal?: AbortSignal) {
-  const query = new URLSearchParams();
-  for (const [key, value] of Object.entries(filters)) if (value) query.set(key, value);
-  const search = query.toString();
-  return api<AlertView[]>(search ? `/alerts?${search}` : '/alerts', { signal });
-}
+export const listAlerts = (filters: AlertFilters, signal?: AbortSignal) =>
+  api<AlertView[]>(apiPaths.alerts(filters), { signal });
 
 export const alertsQueryOptions = (filters: AlertFilters) =>
   queryOptions({

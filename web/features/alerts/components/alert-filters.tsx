@@ -6,7 +6,7 @@ import { severityLabels } from '../../../components/alert-badges';
 import { Form, useZodForm } from '../../../components/form';
 import { SelectField } from '../../../components/form-fields';
 import { blankAsUndefined } from '../../../lib/form-values';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 import type { AlertFilters } from '../api/list-alerts';
 
 export type BoardStatus = AlertListQuery['status'];
@@ -43,7 +43,7 @@ export function AlertFiltersBar({
   filters: Required<Pick<AlertFilters, 'status'>> & AlertFilters;
   onChange: (next: AlertFilters) => void;
 }) {
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   // The address is the truth: the form follows it (a link, the back button) and writes each choice to it.
   const form = useZodForm(filtersForm, {
     values: { status: filters.status, severity: filters.severity ?? '', tankId: filters.tankId ?? '' },

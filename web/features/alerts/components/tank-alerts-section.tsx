@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { tankSummaryAlertStatus } from '@shared/first-load/api-paths';
 import type { AlertView } from '@shared/schemas/alerts';
 import { AlertStatusBadge, SeverityBadge, severityEdge } from '../../../components/alert-badges';
 import { ErrorState, LoadingState } from '../../../components/states';
@@ -44,7 +45,7 @@ export function TankAlertsSection({
   tankId: string;
   recentResolved?: number;
 }) {
-  const alerts = useAlerts({ tankId, status: 'all' });
+  const alerts = useAlerts({ tankId, status: tankSummaryAlertStatus });
   const { data: me } = useMe();
   const now = useNow();
   const open = alerts.data?.filter((alert) => alert.status !== 'resolved') ?? [];

@@ -8,17 +8,13 @@ import {
 import { tipFeedCursorOf, type TipFeedItem } from '@shared/schemas/care-tips';
 import { api } from '../../../lib/api-client';
 import { tipKeys } from '../../../lib/query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 /** A page of the tips a person's tanks received (one tank's with `tankId`), newest first. */
 export const getTipFeed = (
   { tankId, cursor, limit }: { tankId: string | null; cursor: string | null; limit: number },
   signal?: AbortSignal,
-) => {
-  const params = new URLSearchParams({ limit: String(limit) });
-  if (tankId) params.set('tankId', tankId);
-  if (cursor) params.set('cursor', cursor);
-  return api<TipFeedItem[]>(`/care-tips/feed?${params}`, { signal });
-};
+) => api<TipFeedItem[]>(apiPaths.tipFeed({ tankId, cursor, limit }), { signal });
 
 export const tipFeedQueryOptions = (tankId: string | null, limit: number) =>
   infiniteQueryOptions({

@@ -6,7 +6,7 @@ import { FieldError } from '../../../components/field-error';
 import { CheckboxGroupField, RadioGroupField, SelectField } from '../../../components/form-fields';
 import { capitalise, formatCount } from '../../../lib/format';
 import { useSpecies, useSpeciesByName } from '../../../lib/queries/species';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 import { useAudienceCount } from '../api/count-audience';
 import { audienceOf, type AudienceKind, type TipFormValues } from '../utils/tip-form';
 
@@ -90,7 +90,7 @@ function SpeciesChoice() {
 }
 
 function TankChoice() {
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   if (tanks.isPending)
     return (
       <p role="status" className="text-ink-700">
@@ -110,9 +110,7 @@ function TankChoice() {
           <span className="min-w-0">
             {tank.name}
             <span className="block text-sm font-normal text-ink-700">
-              {[tank.siteLabel, tank.owners.map((owner) => owner.name).join(', ') || 'No owner yet']
-                .filter(Boolean)
-                .join(' · ')}
+              {[tank.siteLabel, tank.ownerNames.join(', ') || 'No owner yet'].filter(Boolean).join(' · ')}
             </span>
           </span>
         ),

@@ -8,7 +8,7 @@ import { SelectField } from '../../../components/form-fields';
 import { RadioGroup } from '../../../components/radio-group';
 import { ErrorState } from '../../../components/states';
 import { useTankPhotos } from '../../../lib/queries/photos';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 import type { TipFormValues } from '../utils/tip-form';
 
 const noPhoto = 'none';
@@ -40,7 +40,7 @@ export function PhotoFields() {
   const id = useId();
   const { field, fieldState } = useController<TipFormValues, 'photoId'>({ name: 'photoId' });
   const tankId = useWatch<TipFormValues, 'photoTankId'>({ name: 'photoTankId' });
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   const photos = useTankPhotos(tankId, tankId !== '');
   const tank = tanks.data?.find((t) => t.id === tankId) ?? null;
   const choices = (photos.data ?? []).filter(offeredToAll);

@@ -11,7 +11,7 @@ import { TipCategoryBadge, TipStatusBadge } from '../../../components/tip-badges
 import { TipPhoto } from '../../../components/tip-photo';
 import { formatCount, formatDateTime } from '../../../lib/format';
 import { useSpecies } from '../../../lib/queries/species';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 import { useTipReach } from '../api/get-care-tip';
 import { tipMoment } from './care-tip-list';
 
@@ -20,7 +20,7 @@ const plural = (count: number, one: string, many: string) =>
 
 function AudienceWords({ audience }: { audience: TipAudience }) {
   const species = useSpecies(audience.kind === 'species' ? audience.speciesId : null);
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   switch (audience.kind) {
     case 'all':
       return <>All the company’s tanks</>;

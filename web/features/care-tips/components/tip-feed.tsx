@@ -1,4 +1,5 @@
 import { useId, useState } from 'react';
+import { tankSummaryTipLimit } from '@shared/first-load/api-paths';
 import type { TipFeedItem } from '@shared/schemas/care-tips';
 import { Button } from '../../../components/button';
 import { FieldError } from '../../../components/field-error';
@@ -176,7 +177,7 @@ export function TankTipsFeed({ tankId, companyName }: { tankId: string; companyN
       </h2>
       <TipFeedList
         tankId={tankId}
-        limit={3}
+        limit={tankSummaryTipLimit}
         emptyText={`Advice from ${companyName} about this tank will appear here.`}
       />
     </section>

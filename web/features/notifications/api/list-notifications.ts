@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { NotificationView } from '@shared/schemas/alerts';
 import { api } from '../../../lib/api-client';
 import { notificationKeys } from '../../../lib/query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 export interface NotificationInbox {
   unread: number;
@@ -10,7 +11,7 @@ export interface NotificationInbox {
 
 /** The latest 50 in-app notifications, newest first, and how many of all of them are unread. */
 export const listNotifications = (signal?: AbortSignal) =>
-  api<NotificationInbox>('/notifications', { signal });
+  api<NotificationInbox>(apiPaths.notifications(), { signal });
 
 export const notificationsQueryOptions = () =>
   queryOptions({

@@ -1,10 +1,10 @@
 import type { FieldValues, Path } from 'react-hook-form';
 import { SelectField } from '../../../components/form-fields';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 
 /** The tank a client is invited to follow, bound to `name`; its own loading, empty and error states. */
 export function TankField<T extends FieldValues>({ name }: { name: Path<T> }) {
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   const hint = tanks.isPending
     ? 'Loading tanks…'
     : tanks.isError

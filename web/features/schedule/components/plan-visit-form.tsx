@@ -5,7 +5,7 @@ import { scheduleVisitInput, visitKindLabels, visitKinds, type VisitSummary } fr
 import { Button } from '../../../components/button';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
 import { CheckboxField, SelectField, TextAreaField, TextField } from '../../../components/form-fields';
-import { useTanks } from '../../../lib/queries/tanks';
+import { useTankChoices } from '../../../lib/queries/tank-choices';
 import { useTechnicians } from '../../../lib/queries/technicians';
 import { useScheduleVisit } from '../api/schedule-visit';
 
@@ -32,7 +32,7 @@ export function PlanVisitForm({
   onPlanned: (visit: VisitSummary) => void;
   onCancel: () => void;
 }) {
-  const tanks = useTanks();
+  const tanks = useTankChoices();
   const staff = useTechnicians();
   const schedule = useScheduleVisit();
   const form = useZodForm(planVisitForm, {

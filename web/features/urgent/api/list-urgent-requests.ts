@@ -3,6 +3,7 @@ import { openUrgentStatuses, type UrgentStatus } from '@shared/urgent/lifecycle'
 import type { UrgentRequestView } from '@shared/schemas/urgent-requests';
 import { api } from '../../../lib/api-client';
 import { urgentKeys } from '../../../lib/query-keys';
+import { apiPaths } from '@shared/first-load/api-paths';
 
 export type UrgentBoardState = 'open' | 'closed';
 
@@ -27,7 +28,7 @@ export function useOpenUrgentCount(enabled: boolean): number | null {
 
 /** A tank's requests, newest first. */
 export const listTankUrgentRequests = (tankId: string, signal?: AbortSignal) =>
-  api<UrgentRequestView[]>(`/tanks/${tankId}/urgent-requests`, { signal });
+  api<UrgentRequestView[]>(apiPaths.tankUrgentRequests(tankId), { signal });
 
 export const tankUrgentRequestsQueryOptions = (tankId: string) =>
   queryOptions({
