@@ -1,11 +1,14 @@
 import { spawnSync, execFileSync } from 'node:child_process';
 import { appendFileSync, mkdirSync } from 'node:fs';
 import os from 'node:os';
+import path from 'node:path';
 import { alertLatency } from './benches/alert-latency';
 import { history } from './benches/history';
 import { ingest } from './benches/ingest';
 import { overview } from './benches/overview';
 import { ownerTanks } from './benches/owner-tanks';
+import { start } from './benches/start';
+import { twoInstances } from './benches/two-instances';
 import { benchScale } from './seed/plan';
 import type { Bench } from './support/bench';
 import { startBenchStack } from './support/bench-stack';
@@ -13,10 +16,11 @@ import { formatHeader, formatTable } from './support/table';
 
 /*
  * `npm run bench [-- name…]`: the benches on the seeded cluster (`npm run bench:seed` first), each
- * printing a table with its same-run baseline, to stdout and tests/artifacts/bench-<date>.md.
+ * printing a table with its same-run baseline, to stdout and tests/artifacts/bench-<date>.md (or the
+ * file BENCH_ARTIFACT names).
  * The four older vitest benches run in vitest's bench mode, each on its own throwaway cluster.
  */
-const stackBenches: Bench[] = [ownerTanks, overview, history, ingest, alertLatency];
+const stackBenches: Bench[] = [ownerTanks, overview, history, ingest, alertLatency, twoInstances, start];
 const vitestBenches = ['demo-seed', 'live-messages', 'readings-export', 'readings-history'];
 
 const wanted = process.argv.slice(2);
@@ -29,8 +33,8 @@ if (unknown.length > 0) {
 const chosen = (name: string) => wanted.length === 0 || wanted.includes(name);
 
 const date = new Date().toISOString();
-const artifact = `tests/artifacts/bench-${date.slice(0, 10)}.md`;
-mkdirSync('tests/artifacts', { recursive: true });
+const artifact = process.env.BENCH_ARTIFACT ?? `tests/artifacts/bench-${date.slice(0, 10)}.md`;
+mkdirSync(path.dirname(artifact), { recursive: true });
 const emit = (text: string) => {
   console.log(text);
   appendFileSync(artifact, `${text}\n`);

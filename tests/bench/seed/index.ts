@@ -180,14 +180,15 @@ async function seed(client: pg.Client) {
       encode(sha256(convert_to(t.device_token, 'UTF8')), 'hex'), left(t.device_token, 10), now()
     from bench_tanks t join tanks k on k.id = t.tank_id where t.device_id is not null`);
 
-  // Foreign keys are checked by system triggers; with no triggers of the product's own on
-  // readings, skipping them (the rows above are consistent by construction) saves most of the
-  // seed's time. When the schema keeps derived data by trigger, the triggers run.
-  const { rows: userTriggers } = await run(
-    `select count(*)::int as n from pg_trigger where tgrelid = 'readings'::regclass and not tgisinternal`,
+  // Foreign keys and the summary triggers are skipped while the year of readings goes in (the
+  // rows are consistent by construction); the summaries are rebuilt set-based afterwards, which
+  // is far quicker than the statement triggers over millions of rows.
+  await run(`set session_replication_role = replica`);
+  // Readings are partitioned by month: make every month the year of history touches, so none
+  // lands in the default partition readings_older (which would then block that month's table).
+  await run(
+    `select ensure_reading_partitions(now() - interval '${historyDays + 1} days', now() + interval '3 months')`,
   );
-  const bypass = userTriggers[0].n === 0;
-  if (bypass) await run(`set session_replication_role = replica`);
 
   const history = await run(`select t.tank_id, t.device_id, k.company_id, t.n from bench_tanks t
     join bench_plan p using (company) join tanks k on k.id = t.tank_id
@@ -241,22 +242,12 @@ async function seed(client: pg.Client) {
        case when k.water_type = 'fresh' then '°dKH' else 'dKH' end)
     ) x(parameter, value, unit)
     where p.home_tests and t.n > p.device_history_tanks`);
-  if (bypass) await run(`set session_replication_role = origin`);
+  await run(`set session_replication_role = origin`);
 
-  // Derived reading data the schema of the day keeps (rollups, latest readings) is rebuilt
-  // set-based when the schema offers a function for it.
-  const { rows: rebuild } = await run(
-    `select p.oid::regprocedure::text as signature, p.pronargs as args from pg_proc p
-     where p.oid = to_regproc('rebuild_reading_rollups')`,
-  ).catch(() => ({ rows: [] as Array<{ signature: string; args: number }> }));
-  if (rebuild[0]) {
-    say(`rebuilding rollups with ${rebuild[0].signature}`);
-    if (rebuild[0].args === 0) await run(`select rebuild_reading_rollups()`);
-    else if (rebuild[0].args === 4) {
-      await run(`select rebuild_reading_rollups(tank_id, parameter, '-infinity', 'infinity')
-        from (select distinct tank_id, parameter from readings) x`);
-    } else say(`not called: ${rebuild[0].signature} takes arguments this seed does not know`);
-  }
+  // Derived reading data (latest readings, hourly and daily rollups) rebuilt set-based by the
+  // schema's own function (drizzle/0016).
+  say('rebuilding latest readings and rollups');
+  await run(`select rebuild_all_reading_summaries()`);
   say('analyze');
   await run('analyze');
   const { rows: counts } = await run(`select count(*)::bigint as n from readings`);

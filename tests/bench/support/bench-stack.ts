@@ -40,6 +40,11 @@ export interface BenchStack {
   vapidPublicKey: string;
   /** A seeded person, looked up in bench_people. */
   person(company: BenchCompany, role: BenchPerson['role'], n: number): Promise<BenchPerson>;
+  /**
+   * Another API process on the same cluster and stand-ins (its own port; sessions live in the
+   * database, so a cookie from `signIn` works on it too). The caller stops it.
+   */
+  startApi(): Promise<ApiProcess>;
   /** Signs a seeded person in through the identity provider stand-in, as a browser does. */
   signIn(person: BenchPerson): Promise<HttpBrowser>;
   /** Headers a request from the app's own pages carries on a state change. */
@@ -89,31 +94,29 @@ export async function startBenchStack(): Promise<BenchStack> {
     const vapid = webpush.generateVAPIDKeys();
 
     mkdirSync('tests/artifacts', { recursive: true });
-    const api = await startApiProcess({
-      port,
-      logFile: path.resolve('tests/artifacts/bench-api.log'),
-      env: {
-        NODE_ENV: 'production',
-        LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? 'info',
-        APP_ORIGIN: origin,
-        DATABASE_URL: cluster.url,
-        DATA_DIR: runDir,
-        OIDC_ISSUER: idp.issuer,
-        OIDC_CLIENT_ID: client.clientId,
-        OIDC_CLIENT_SECRET: client.clientSecret,
-        SESSION_SECRET: sessionSecret,
-        SMTP_PORT: String(mail.smtpPort),
-        S3_ENDPOINT: storage.endpoint,
-        S3_BUCKET: storage.bucket,
-        S3_ACCESS_KEY_ID: storage.accessKeyId,
-        S3_SECRET_ACCESS_KEY: storage.secretAccessKey,
-        VAPID_PUBLIC_KEY: vapid.publicKey,
-        VAPID_PRIVATE_KEY: vapid.privateKey,
-        PUSH_TRUSTED_CA_FILE: caFile,
-        // One address signs in every bench person: the per-address limit would stop the harness.
-        SIGN_IN_STARTS_PER_10_MIN: '100000',
-      },
-    });
+    const apiEnv = {
+      NODE_ENV: 'production',
+      LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? 'info',
+      APP_ORIGIN: origin,
+      DATABASE_URL: cluster.url,
+      DATA_DIR: runDir,
+      OIDC_ISSUER: idp.issuer,
+      OIDC_CLIENT_ID: client.clientId,
+      OIDC_CLIENT_SECRET: client.clientSecret,
+      SESSION_SECRET: sessionSecret,
+      SMTP_PORT: String(mail.smtpPort),
+      S3_ENDPOINT: storage.endpoint,
+      S3_BUCKET: storage.bucket,
+      S3_ACCESS_KEY_ID: storage.accessKeyId,
+      S3_SECRET_ACCESS_KEY: storage.secretAccessKey,
+      VAPID_PUBLIC_KEY: vapid.publicKey,
+      VAPID_PRIVATE_KEY: vapid.privateKey,
+      PUSH_TRUSTED_CA_FILE: caFile,
+      // One address signs in every bench person: the per-address limit would stop the harness.
+      SIGN_IN_STARTS_PER_10_MIN: '100000',
+    };
+    const logFile = path.resolve('tests/artifacts/bench-api.log');
+    const api = await startApiProcess({ port, logFile, env: apiEnv });
     closers.push(() => api.stop());
 
     const enrolled = new Set<string>();
@@ -127,6 +130,7 @@ export async function startBenchStack(): Promise<BenchStack> {
       push,
       vapidPublicKey: vapid.publicKey,
       sameOrigin,
+      startApi: async () => startApiProcess({ port: await freePort(), logFile, env: apiEnv }),
       async person(company, role, n) {
         const { rows } = await pool.query<BenchPerson>(
           `select p.user_id as id, p.company, p.role, p.n, p.subject, p.email, u.name
