@@ -1,16 +1,16 @@
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AudienceCount, CareTip, TipFeedItem } from '@shared/schemas/care-tips';
 import { demoId } from '../../api/dev/seed/index';
 import {
   apiInPage,
   artifactsDir,
-  axeViolations,
+  type BrowserSession,
+  expectAxeClean,
+  expectNoSidewaysScroll,
   openBrowser,
   screenshot,
   signInAt,
   viewports,
-  type BrowserSession,
 } from '../helpers/browser';
 
 /*
@@ -24,19 +24,6 @@ import {
 const livingRoomReef = demoId('ashdown-reef');
 const reefCoverPhoto = demoId('photo:ashdown-reef:cover');
 const duncan = { kind: 'species', speciesId: 'duncan-coral' } as const;
-
-async function expectAxeClean(page: Page, where: string) {
-  const violations = await axeViolations(page);
-  expect(
-    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
-    `axe on ${where}`,
-  ).toEqual([]);
-}
-
-async function expectNoSidewaysScroll(page: Page, where: string) {
-  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-  expect(overflow, `${where} scrolls sideways`).toBeLessThanOrEqual(0);
-}
 
 describe('care tips in the browser', () => {
   let session: BrowserSession;

@@ -1,5 +1,4 @@
 import path from 'node:path';
-import type { Page } from 'playwright-core';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MessagePage } from '@shared/schemas/conversations';
@@ -7,12 +6,13 @@ import { demoTankId } from '../../api/dev/seed/ids';
 import {
   apiInPage,
   artifactsDir,
-  axeViolations,
+  type BrowserSession,
+  expectAxeClean,
+  expectNoSidewaysScroll,
   openBrowser,
   screenshot,
   signInAt,
   viewports,
-  type BrowserSession,
 } from '../helpers/browser';
 
 /*
@@ -29,19 +29,6 @@ const waitingRoomReef = demoTankId('quayside-reef');
  * arrives without a reload; how fast is measured in tests/bench/live-messages.bench.ts, never here.
  */
 const liveWithinMs = 30_000;
-
-async function expectAxeClean(page: Page, where: string) {
-  const violations = await axeViolations(page);
-  expect(
-    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
-    `axe on ${where}`,
-  ).toEqual([]);
-}
-
-async function expectNoSidewaysScroll(page: Page, where: string) {
-  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-  expect(overflow, `${where} scrolls sideways`).toBeLessThanOrEqual(0);
-}
 
 describe('conversations in the browser', () => {
   let session: BrowserSession;

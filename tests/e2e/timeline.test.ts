@@ -5,12 +5,12 @@ import { demoId } from '../../api/dev/seed/index';
 import {
   apiInPage,
   artifactsDir,
-  axeViolations,
+  type BrowserSession,
+  expectAxeClean,
   openBrowser,
   screenshot,
   signInAt,
   viewports,
-  type BrowserSession,
 } from '../helpers/browser';
 
 /*
@@ -21,14 +21,6 @@ import {
  */
 
 const tankId = demoId('ashdown-reef');
-
-async function expectAxeClean(page: Page, where: string) {
-  const violations = await axeViolations(page);
-  expect(
-    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
-    `axe on ${where}`,
-  ).toEqual([]);
-}
 
 /** A temperature taken at a visit, recorded by the signed-in technician through the app's API. */
 const recordTemperature = (page: Page, celsius: number) =>

@@ -9,12 +9,13 @@ import { demoId } from '../../api/dev/seed/index';
 import {
   apiInPage,
   artifactsDir,
-  axeViolations,
+  type BrowserSession,
+  expectAxeClean,
+  expectNoSidewaysScroll,
   openBrowser,
   screenshot,
   signInAt,
   viewports,
-  type BrowserSession,
 } from '../helpers/browser';
 
 /*
@@ -36,19 +37,6 @@ interface Mail {
   subject: string;
   text: string;
   headers: Record<string, string>;
-}
-
-async function expectAxeClean(page: Page, where: string) {
-  const violations = await axeViolations(page);
-  expect(
-    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
-    `axe on ${where}`,
-  ).toEqual([]);
-}
-
-async function expectNoSidewaysScroll(page: Page, where: string) {
-  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-  expect(overflow, `${where} scrolls sideways`).toBeLessThanOrEqual(0);
 }
 
 /** axe, no sideways scroll and a full-page picture at each width; ends at `end`. */

@@ -5,11 +5,11 @@ import type { VisitDetail, VisitSummary } from '@shared/schemas/visits';
 import { demoId } from '../../api/dev/seed/index';
 import {
   apiInPage,
-  axeViolations,
+  type BrowserSession,
+  expectAxeClean,
   openBrowser,
   screenshot,
   signInAt,
-  type BrowserSession,
 } from '../helpers/browser';
 
 /*
@@ -30,14 +30,6 @@ const todayInLondon = () =>
     month: '2-digit',
     day: '2-digit',
   }).format(new Date());
-
-async function expectAxeClean(page: Page, where: string) {
-  const violations = await axeViolations(page);
-  expect(
-    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
-    `axe on ${where}`,
-  ).toEqual([]);
-}
 
 describe('a visit report written on a phone', () => {
   let session: BrowserSession;

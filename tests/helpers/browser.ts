@@ -2,7 +2,7 @@ import { mkdirSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { inject } from 'vitest';
+import { expect, inject } from 'vitest';
 import { demoPassword } from '../../api/dev/demo-people';
 import { chromiumPath } from './chromium';
 
@@ -127,4 +127,19 @@ export async function apiInPage<T>(page: Page, method: string, path: string, bod
     },
     { method, path, body },
   ) as Promise<T>;
+}
+
+/** Fails with each axe violation's rule and elements, named by where the page was. */
+export async function expectAxeClean(page: Page, where: string) {
+  const violations = await axeViolations(page);
+  expect(
+    violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
+    `axe on ${where}`,
+  ).toEqual([]);
+}
+
+/** The page fits its viewport's width: nothing makes a phone scroll sideways. */
+export async function expectNoSidewaysScroll(page: Page, where: string) {
+  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+  expect(overflow, `${where} scrolls sideways`).toBeLessThanOrEqual(0);
 }
