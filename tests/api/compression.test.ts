@@ -1,17 +1,12 @@
-import { once } from 'node:events';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import http, { type IncomingHttpHeaders } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { brotliCompressSync, brotliDecompressSync, gzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../api/app';
-import { createDeps } from '../../api/deps';
-import { createLogger } from '../../api/lib/logger';
 import { createCompany, createPerson, createTank } from '../helpers/factories';
 import { HttpBrowser } from '../helpers/http-browser';
-import { signIn, startTestStack, type TestStack } from '../helpers/stack';
+import { serveBuild, signIn, startTestStack, type TestStack } from '../helpers/stack';
 
 interface RawAnswer {
   status: number;
@@ -37,7 +32,7 @@ function rawGet(url: string, headers: Record<string, string>): Promise<RawAnswer
 
 describe('compression', () => {
   let stack: TestStack;
-  let server: http.Server;
+  let served: Awaited<ReturnType<typeof serveBuild>> | undefined;
   let base: string;
   let cookie: string;
   let webDist: string;
@@ -75,22 +70,14 @@ describe('compression', () => {
     writeFileSync(path.join(webDist, 'sw.js.br'), brotliCompressSync(script));
 
     // The same app, with the same database and sessions, serving that build.
-    const deps = createDeps({
-      env: stack.deps.env,
-      database: stack.database,
-      logger: createLogger('silent'),
-      clock: stack.clock.now,
-      webDist,
-    });
-    server = http.createServer(createApp(deps));
-    server.listen(0, '127.0.0.1');
-    await once(server, 'listening');
-    base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+    served = await serveBuild(stack, webDist);
+
+    base = served.base;
   });
 
   afterAll(async () => {
-    server?.closeAllConnections();
-    server?.close();
+    served?.close();
     if (webDist) rmSync(webDist, { recursive: true, force: true });
     await stack?.close();
   });

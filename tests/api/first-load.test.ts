@@ -1,16 +1,10 @@
-import { once } from 'node:events';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../api/app';
-import { createDeps } from '../../api/deps';
-import { createLogger } from '../../api/lib/logger';
 import { createCompany, createPerson, createTank } from '../helpers/factories';
 import { HttpBrowser } from '../helpers/http-browser';
-import { signIn, startTestStack, type TestStack } from '../helpers/stack';
+import { serveBuild, signIn, startTestStack, type TestStack } from '../helpers/stack';
 
 /** A build as Vite leaves it, reduced to what the shell reads: index.html and the manifest. */
 const indexHtml = [
@@ -54,7 +48,7 @@ interface ShellLinks {
 
 describe('GET of a page: the app shell with its first-load preloads', () => {
   let stack: TestStack;
-  let server: http.Server;
+  let served: Awaited<ReturnType<typeof serveBuild>> | undefined;
   let base: string;
   let cookie: string;
   let webDist: string;
@@ -75,22 +69,15 @@ describe('GET of a page: the app shell with its first-load preloads', () => {
     writeFileSync(path.join(webDist, 'index.html'), indexHtml);
     writeFileSync(path.join(webDist, '.vite', 'manifest.json'), JSON.stringify(manifest));
 
-    const deps = createDeps({
-      env: stack.deps.env,
-      database: stack.database,
-      logger: createLogger('silent'),
-      clock: stack.clock.now,
-      webDist,
-    });
-    server = http.createServer(createApp(deps));
-    server.listen(0, '127.0.0.1');
-    await once(server, 'listening');
-    base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+    // The same app, with the same database and sessions, serving that build.
+
+    served = await serveBuild(stack, webDist);
+
+    base = served.base;
   });
 
   afterAll(async () => {
-    server?.closeAllConnections();
-    server?.close();
+    served?.close();
     if (webDist) rmSync(webDist, { recursive: true, force: true });
     await stack?.close();
   });

@@ -241,3 +241,30 @@ function enrolOnce(stack: TestStack, person: TestPerson) {
   seen.add(person.sub);
   enrol(stack, person);
 }
+
+/**
+ * The stack's app again, on its database, sessions and clock, serving a build folder the test
+ * made (the stack itself serves no client). Close it before the stack.
+ */
+export async function serveBuild(
+  stack: TestStack,
+  webDist: string,
+): Promise<{ base: string; close(): void }> {
+  const deps = createDeps({
+    env: stack.deps.env,
+    database: stack.database,
+    logger: createLogger('silent'),
+    clock: stack.clock.now,
+    webDist,
+  });
+  const server = createServer(createApp(deps));
+  server.listen(0, '127.0.0.1');
+  await once(server, 'listening');
+  return {
+    base: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
+    close() {
+      server.closeAllConnections();
+      server.close();
+    },
+  };
+}

@@ -3,7 +3,7 @@ import { chmodSync, existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ensurePostgresBinaries, stopLeftoverServer } from '../../../api/dev/postgres';
-import { freePort } from '../../helpers/free-port';
+import { demoEnv } from '../../helpers/demo-launcher';
 import { copyProject, markClientBuilt } from '../../helpers/project-copy';
 import type { Bench } from '../support/bench';
 import { formatFigure, median } from '../support/stats';
@@ -56,25 +56,10 @@ export const start: Bench = {
       // The client build is recorded as up to date: a second start skips it whatever it holds.
       await markClientBuilt(project);
       mkdirSync(dataDir, { mode: 0o755 });
-      const [port, pgPort, idpPort, smtpPort, mailboxPort, s3Port] = await Promise.all(
-        Array.from({ length: 6 }, () => freePort()),
-      );
-      const { DATABASE_URL: _ownCluster, ...inherited } = process.env;
-      const env: NodeJS.ProcessEnv = {
-        ...inherited,
-        NODE_ENV: 'test',
-        LOG_LEVEL: 'warn',
-        PORT: String(port),
-        PGPORT_LOCAL: String(pgPort),
-        OIDC_ISSUER: `http://127.0.0.1:${idpPort}`,
-        SMTP_PORT: String(smtpPort),
-        MAILBOX_PORT: String(mailboxPort),
-        S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
-        DATA_DIR: dataDir,
-      };
-      const first = await timedStart(project, env, String(port));
+      const env = await demoEnv(dataDir);
+      const first = await timedStart(project, env, env.PORT);
       const again: number[] = [];
-      for (let i = 0; i < starts; i++) again.push(await timedStart(project, env, String(port)));
+      for (let i = 0; i < starts; i++) again.push(await timedStart(project, env, env.PORT));
       const typical = median(again);
       return [
         {
