@@ -17,7 +17,7 @@ import { sameOriginOnly } from './middleware/csrf';
 import { apiNotFound, errorHandler, requireContentType } from './middleware/error-handler';
 import { createSessionMiddleware, isHttps, sessionCookieName } from './middleware/session';
 import { authRouter } from './routes/auth';
-import { apiRouters, sessionlessRouters } from './routes/index';
+import { apiRouters, paymentWebhookPath, sessionlessRouters } from './routes/index';
 
 export type { AppDeps } from './deps';
 
@@ -97,6 +97,8 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   api.use(requireContentType(['application/json', 'multipart/form-data']));
+  // The provider signs the webhook's exact bytes, so that one path keeps them (express.json then skips it).
+  api.use(paymentWebhookPath, express.raw({ type: 'application/json', limit: '1mb' }));
   api.use(express.json({ limit: '1mb' }));
   api.use(noStore);
   for (const [mountPath, router] of sessionlessRouters) api.use(mountPath, router);

@@ -9,6 +9,7 @@ import { systemClock, type Clock } from './lib/clock';
 import type { Logger } from './lib/logger';
 import { createMailer, type Mailer } from './lib/mailer';
 import { objectStorageFromEnv, type ObjectStorage } from './lib/object-storage';
+import { createPaymentProvider, type PaymentProvider } from './lib/payments';
 import { createOidcClient, type OidcClient } from './lib/oidc-client';
 import type { EventListener } from './lib/event-bus';
 import { createPushSender, type PushSender } from './lib/web-push-sender';
@@ -29,6 +30,8 @@ export interface AppDeps {
   jobs: PgBoss | null;
   /** Web push sender; null when no VAPID keys are configured. */
   push: PushSender | null;
+  /** The payment provider's SDK; null when online payment is not configured. */
+  payments: PaymentProvider | null;
   /** This process's LISTEN connection for live events; null where nothing streams. */
   events: EventListener | null;
   /** Built client to serve; omitted in API-only tests and when Vite serves the client. */
@@ -87,6 +90,7 @@ export function createDeps(options: {
               : {}),
           })
         : null,
+    payments: createPaymentProvider(env),
     webDist: options.webDist,
   };
 }

@@ -73,6 +73,22 @@ const envSchema = z.object({
     .default('mailto:alerts@driftglass.test'),
   /** PEM of a CA the push sender should trust besides the system's (the demo's local push service). */
   PUSH_TRUSTED_CA_FILE: z.string().min(1).optional(),
+  /**
+   * The payment provider (hosted checkout). Online payment is offered when both the secret key and
+   * the webhook signing secret are set; the demo makes test values under DATA_DIR.
+   */
+  STRIPE_SECRET_KEY: z
+    .string()
+    .regex(/^(sk|rk)_(test|live)_\w{8,}$/, 'must be a secret or restricted key (sk_… or rk_…)')
+    .optional(),
+  STRIPE_WEBHOOK_SECRET: z
+    .string()
+    .regex(/^whsec_[\w+/=]{8,}$/, 'must be a webhook signing secret (whsec_…)')
+    .optional(),
+  /** Where the SDK sends its requests instead of the provider's API: the demo's and tests' stand-in. */
+  STRIPE_API_URL: z.url().optional(),
+  /** The payment stand-in's port in the demo (its API and its hosted payment page). */
+  PAYMENTS_PORT: port.default(3032),
   /** The demo's mailbox page (the SMTP stand-in's viewer). */
   MAILBOX_PORT: port.default(3025),
   INVITATION_DAYS: z.coerce.number().int().positive().default(7),

@@ -10,6 +10,15 @@ import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 's
  * in memory, and an optional mailbox page to read them in a browser.
  */
 
+export interface CapturedAttachment {
+  /** As the sender named it, or "attachment-<n>" when it had no name. */
+  filename: string;
+  contentType: string;
+  /** Bytes of the decoded content. */
+  size: number;
+  content: Buffer;
+}
+
 export interface CapturedMail {
   id: string;
   /** ISO 8601 time the message was accepted. */
@@ -23,6 +32,8 @@ export interface CapturedMail {
   html: string | null;
   /** Header names in lower case; values unfolded but otherwise as sent; repeats joined by ", ". */
   headers: Record<string, string>;
+  /** In the order the message carries them; the mailbox page links each for download. */
+  attachments: CapturedAttachment[];
 }
 
 export interface MailServerOptions {
@@ -120,6 +131,12 @@ function capture(parsed: ParsedMail, session: SMTPServerSession): CapturedMail {
     text: parsed.text ?? '',
     html: typeof parsed.html === 'string' ? parsed.html : null,
     headers: headerRecord(parsed),
+    attachments: parsed.attachments.map((attachment, index) => ({
+      filename: attachment.filename ?? `attachment-${index + 1}`,
+      contentType: attachment.contentType,
+      size: attachment.content.length,
+      content: attachment.content,
+    })),
   };
 }
 
@@ -299,6 +316,7 @@ pre{white-space:pre-wrap;overflow-wrap:anywhere;background:#fff;border:1px solid
 .messages li{padding:.75rem;border-top:1px solid #dde4e5;overflow-wrap:anywhere}
 .messages li:first-child{border-top:0}
 .subject{font-weight:600}
+.meta-inline{font-size:.875rem;color:#465a5e}
 .meta{margin:.25rem 0 0;font-size:.875rem;color:#465a5e;display:flex;flex-wrap:wrap;gap:.25rem 1rem}
 iframe{width:100%;min-height:28rem;border:1px solid #c9d3d4;border-radius:.5rem;background:#fff}
 footer{margin-top:2rem;font-size:.875rem;color:#465a5e}
@@ -325,13 +343,42 @@ const timeElement = (iso: string) =>
 
 const subjectOrPlaceholder = (subject: string) => (subject.trim() === '' ? '(no subject)' : subject);
 
+const attachmentPath = (m: CapturedMail, index: number) =>
+  `/messages/${encodeURIComponent(m.id)}/attachments/${index}`;
+
+function attachmentCount(m: CapturedMail): string {
+  const count = m.attachments.length;
+  if (count === 0) return '';
+  return ` <span>${count === 1 ? '1 attachment' : `${count} attachments`}</span>`;
+}
+
+function byteSize(bytes: number): string {
+  if (bytes < 1024) return `${bytes} B`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} KB`;
+  return `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+}
+
+function attachmentsSection(m: CapturedMail): string {
+  if (m.attachments.length === 0) return '';
+  const items = m.attachments
+    .map(
+      (attachment, index) =>
+        `<li><a href="${escapeHtml(attachmentPath(m, index))}" download>${escapeHtml(attachment.filename)}</a> <span class="meta-inline">${escapeHtml(attachment.contentType)}, ${byteSize(attachment.size)}</span></li>`,
+    )
+    .join('\n');
+  return `<h2>Attachments</h2>
+<ul class="messages">
+${items}
+</ul>`;
+}
+
 function listPage(mail: CapturedMail[]): string {
   const items = [...mail]
     .reverse()
     .map(
       (m) => `<li>
 <a class="subject" href="/messages/${encodeURIComponent(m.id)}">${escapeHtml(subjectOrPlaceholder(m.subject))}</a>
-<p class="meta"><span>From ${escapeHtml(m.from)}</span> <span>To ${escapeHtml(m.to.join(', '))}</span> ${timeElement(m.receivedAt)}</p>
+<p class="meta"><span>From ${escapeHtml(m.from)}</span> <span>To ${escapeHtml(m.to.join(', '))}</span> ${timeElement(m.receivedAt)}${attachmentCount(m)}</p>
 </li>`,
     )
     .join('\n');
@@ -373,6 +420,7 @@ function messagePage(m: CapturedMail): string {
 <dt>To</dt><dd>${escapeHtml(m.to.join(', '))}</dd>
 <dt>Received</dt><dd>${timeElement(m.receivedAt)}</dd>
 </dl>
+${attachmentsSection(m)}
 <h2>Plain text version</h2>
 <pre>${linkify(m.text)}</pre>
 ${htmlSection}
@@ -403,6 +451,45 @@ const sendHtml = (res: ServerResponse, status: number, html: string) =>
 const sendJson = (res: ServerResponse, status: number, value: unknown) =>
   send(res, status, 'application/json; charset=utf-8', JSON.stringify(value));
 
+/** A message as JSON: attachments are described and linked, their bytes served by their own route. */
+function mailJson(m: CapturedMail) {
+  return {
+    ...m,
+    attachments: m.attachments.map((attachment, index) => ({
+      filename: attachment.filename,
+      contentType: attachment.contentType,
+      size: attachment.size,
+      url: attachmentPath(m, index),
+    })),
+  };
+}
+
+// A sender's name and type go into response headers: anything unusual is replaced, never echoed.
+const mediaType = /^[a-z0-9!#$&^_.+-]+\/[a-z0-9!#$&^_.+-]+$/i;
+
+function contentDisposition(filename: string): string {
+  const fallback = filename.replace(/[^\x20-\x7e]|["\\]/g, '_');
+  const encoded = encodeURIComponent(filename).replace(
+    /['()*]/g,
+    (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`,
+  );
+  return `attachment; filename="${fallback}"; filename*=UTF-8''${encoded}`;
+}
+
+function sendAttachment(res: ServerResponse, attachment: CapturedAttachment): void {
+  res.writeHead(200, {
+    ...mailboxHeaders,
+    // Whatever the file holds, it never runs as a page of this origin.
+    'Content-Security-Policy': "sandbox; default-src 'none'",
+    'Content-Type': mediaType.test(attachment.contentType)
+      ? attachment.contentType
+      : 'application/octet-stream',
+    'Content-Disposition': contentDisposition(attachment.filename),
+    'Content-Length': String(attachment.content.length),
+  });
+  res.end(attachment.content);
+}
+
 function safeDecode(segment: string): string {
   try {
     return decodeURIComponent(segment);
@@ -417,6 +504,7 @@ function serveMailbox(inbox: Inbox, req: IncomingMessage, res: ServerResponse): 
   const reading = method === 'GET' || method === 'HEAD';
   const messageId = /^\/messages\/([^/]+)$/.exec(pathname)?.[1];
   const apiMessageId = /^\/api\/messages\/([^/]+)$/.exec(pathname)?.[1];
+  const attachmentRoute = /^\/messages\/([^/]+)\/attachments\/(\d{1,4})$/.exec(pathname);
 
   if (pathname === '/api/messages' && method === 'DELETE') {
     inbox.clear();
@@ -428,12 +516,17 @@ function serveMailbox(inbox: Inbox, req: IncomingMessage, res: ServerResponse): 
     return;
   }
   if (pathname === '/') return sendHtml(res, 200, listPage(inbox.all()));
-  if (pathname === '/api/messages') return sendJson(res, 200, inbox.all().reverse());
+  if (pathname === '/api/messages') return sendJson(res, 200, inbox.all().reverse().map(mailJson));
+  if (attachmentRoute) {
+    const [, id = '', index = ''] = attachmentRoute;
+    const attachment = inbox.find(safeDecode(id))?.attachments[Number(index)];
+    return attachment ? sendAttachment(res, attachment) : sendHtml(res, 404, notFoundPage());
+  }
   if (messageId !== undefined || apiMessageId !== undefined) {
     const mail = inbox.find(safeDecode(messageId ?? apiMessageId ?? ''));
     if (apiMessageId !== undefined) {
       return mail
-        ? sendJson(res, 200, mail)
+        ? sendJson(res, 200, mailJson(mail))
         : sendJson(res, 404, { error: { code: 'not_found', message: 'No such message.' } });
     }
     return mail ? sendHtml(res, 200, messagePage(mail)) : sendHtml(res, 404, notFoundPage());

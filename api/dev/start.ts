@@ -25,9 +25,14 @@ async function main() {
     parsedEnv.VAPID_PUBLIC_KEY && parsedEnv.VAPID_PRIVATE_KEY
       ? null
       : await loadOrCreateVapidKeys(path.join(parsedEnv.DATA_DIR, 'vapid'));
-  const env = vapid
+  const withVapid = vapid
     ? { ...parsedEnv, VAPID_PUBLIC_KEY: vapid.publicKey, VAPID_PRIVATE_KEY: vapid.privateKey }
     : parsedEnv;
+  // Online payment goes to the local payment stand-in unless told otherwise (never in production).
+  const env =
+    withVapid.STRIPE_API_URL || withVapid.NODE_ENV === 'production'
+      ? withVapid
+      : { ...withVapid, STRIPE_API_URL: `http://127.0.0.1:${withVapid.PAYMENTS_PORT}` };
   const logger = createLogger(env.LOG_LEVEL);
   const say = (line: string) => logger.info(line);
   const took = (step: string) =>
@@ -98,6 +103,9 @@ async function main() {
   say(
     `Mail stand-in: SMTP on 127.0.0.1:${standIns.mail.smtpPort}, mailbox at http://127.0.0.1:${standIns.mail.httpPort}`,
   );
+  if (standIns.payments) {
+    say(`Payment provider stand-in (test cards, e.g. 4242 4242 4242 4242) at ${standIns.payments.url}`);
+  }
 
   const client = await clientBuilding;
   if (client) say(client === 'built' ? 'Client built into dist/web' : 'Client in dist/web is up to date');

@@ -1,11 +1,18 @@
 import nodemailer from 'nodemailer';
 
+export interface MailAttachment {
+  filename: string;
+  content: Buffer;
+  contentType: string;
+}
+
 export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
   html: string;
   headers?: Record<string, string>;
+  attachments?: MailAttachment[];
 }
 
 export interface Mailer {

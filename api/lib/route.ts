@@ -40,6 +40,8 @@ export interface RequestContext<S extends Schemas> extends Parsed<S> {
   /** The uploaded file, where a multipart middleware ran before the handler. */
   file: Request['file'];
   originalUrl: string;
+  /** The body's bytes as received, where a raw parser ran (the payment provider's signed webhook). */
+  rawBody: Buffer | undefined;
   header(name: string): string | undefined;
   setHeader(name: string, value: string): void;
 }
@@ -189,6 +191,7 @@ function contextOf<S extends Schemas>(schemas: S, req: Request, res: Response): 
     },
     file: req.file,
     originalUrl: req.originalUrl,
+    rawBody: Buffer.isBuffer(req.body) ? req.body : undefined,
     header: (name) => req.get(name),
     setHeader: (name, value) => void res.setHeader(name, value),
   };

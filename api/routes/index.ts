@@ -1,6 +1,8 @@
 import type { Router } from 'express';
 import { alertsRouter, eventsRouter, notificationsRouter, pushRouter } from './alerts';
 import { auditRouter } from './audit';
+import { billingRouter } from './billing';
+import { invoicesRouter, paymentWebhookRouter, paymentsRouter } from './invoices';
 import { careTipsRouter, tankTipSuggestionsRouter } from './care-tips';
 import { conversationsRouter, tankConversationRouter } from './conversations';
 import { calendarFeedRouter, calendarRouter } from './calendar';
@@ -25,17 +27,24 @@ import { tankUrgentRequestsRouter, urgentRequestsRouter, urgentSettingsRouter } 
 /**
  * Answer before sessions are read: health still answers when the session store cannot, and
  * device ingest authenticates by bearer token, never by cookie (so no session or CSRF check); a
- * calendar feed, by the secret in its address.
+ * calendar feed, by the secret in its address; the payment provider's webhook, by its signature.
  */
 export const sessionlessRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/health', healthRouter],
   ['/ingest', ingestRouter],
   ['/calendar', calendarRouter],
+  ['/payments/webhook', paymentWebhookRouter],
 ];
+
+/** Where the payment provider posts its signed events (its raw body is kept for the signature). */
+export const paymentWebhookPath = '/payments/webhook';
 
 /** Every other API router and where it is mounted under /api. The route audit test walks both lists. */
 export const apiRouters: ReadonlyArray<readonly [string, Router]> = [
   ['/me', meRouter],
+  ['/billing', billingRouter],
+  ['/invoices', invoicesRouter],
+  ['/payments', paymentsRouter],
   ['/me/calendar-feed', calendarFeedRouter],
   ['/tanks', tanksRouter],
   ['/tanks/:tankId/equipment', equipmentRouter],

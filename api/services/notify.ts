@@ -250,14 +250,14 @@ function stepsFor(alert: typeof alerts.$inferSelect, severity: AlertSeverity) {
   return firstSteps(alert.parameter, alert.direction as LimitDirection, 'critical');
 }
 
-async function markSent(deps: AppDeps, deliveryId: string) {
+export async function markSent(deps: AppDeps, deliveryId: string) {
   await deps.db
     .update(deliveries)
     .set({ status: 'sent', sentAt: deps.clock(), attempts: sql`${deliveries.attempts} + 1` })
     .where(eq(deliveries.id, deliveryId));
 }
 
-async function markAttempt(deps: AppDeps, deliveryId: string, error: string) {
+export async function markAttempt(deps: AppDeps, deliveryId: string, error: string) {
   await deps.db
     .update(deliveries)
     .set({ attempts: sql`${deliveries.attempts} + 1`, lastError: error.slice(0, 500) })
@@ -265,7 +265,7 @@ async function markAttempt(deps: AppDeps, deliveryId: string, error: string) {
 }
 
 /** Header values never carry a line break, whatever a tank is called. */
-const headerSafe = (value: string) => value.replace(/[\r\n]+/g, ' ').slice(0, 200);
+export const headerSafe = (value: string) => value.replace(/[\r\n]+/g, ' ').slice(0, 200);
 
 export async function deliverEmail(deps: AppDeps, deliveryId: string) {
   const news = await loadNewsDelivery(deps, deliveryId);

@@ -29,6 +29,7 @@ import {
   type UrgentStatus,
 } from '@shared/urgent/lifecycle';
 import { wallTimeOf } from '@shared/visits/recurrence';
+import { formatMoney } from '@shared/billing/money';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import {
@@ -49,6 +50,7 @@ import { findTankFor, isStaff, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
 import { recordAudit, type AuditSource } from './audit';
 import { latestReadings } from './readings';
+import { callOutFeeOf } from './price-list';
 import { unattachedPhoto } from './photos';
 import { invalidFields } from './tanks';
 import { announceUrgentEvent, outletOf, recordUrgentEvent } from './urgent-notify';
@@ -65,7 +67,6 @@ type UrgentCategory = (typeof urgentCategories)[number];
 const urgentVisitMs = 2 * 3_600_000;
 /** The staff board's closed list: the latest ones, not the whole history. */
 const closedBoardLimit = 100;
-const defaultCurrency = 'EUR';
 
 /* ------------------------------------------------------------------ settings */
 
@@ -83,7 +84,9 @@ function storedFirstAid(row: SettingsRow | undefined): Partial<Record<UrgentCate
   >;
 }
 
-function settingsViewOf(row: SettingsRow | undefined): UrgentSettingsView {
+type CallOutFee = Awaited<ReturnType<typeof callOutFeeOf>>;
+
+function settingsViewOf(row: SettingsRow | undefined, fee: CallOutFee): UrgentSettingsView {
   const own = storedFirstAid(row);
   const firstAid = Object.fromEntries(
     urgentCategories.map((category) => {
@@ -98,22 +101,24 @@ function settingsViewOf(row: SettingsRow | undefined): UrgentSettingsView {
   ) as UrgentSettingsView['firstAid'];
   return {
     ackTargetMinutes: row?.ackTargetMinutes ?? defaultAckTargetMinutes,
-    callOutFeeCents: row?.callOutFeeCents ?? null,
-    currency: row?.currency ?? defaultCurrency,
+    callOutFeeCents: fee.callOutFeeMinor,
+    currency: fee.currency,
     firstAid,
   };
 }
 
 export async function getUrgentSettings(db: Db, actor: Actor): Promise<UrgentSettingsView> {
-  return settingsViewOf(await settingsRowOf(db, actor.companyId));
+  const [row, fee] = await Promise.all([
+    settingsRowOf(db, actor.companyId),
+    callOutFeeOf(db, actor.companyId),
+  ]);
+  return settingsViewOf(row, fee);
 }
 
 /** What the audit trail keeps of the settings: the numbers, and which categories have the company's own text. */
 function auditValuesOf(view: UrgentSettingsView) {
   return {
     ackTargetMinutes: view.ackTargetMinutes,
-    callOutFeeCents: view.callOutFeeCents,
-    currency: view.currency,
     ownFirstAid: urgentCategories.filter((category) => view.firstAid[category].custom),
   };
 }
@@ -131,18 +136,17 @@ export async function saveUrgentSettings(
   const firstAid = Object.fromEntries(Object.entries(input.firstAid).filter(([, text]) => text));
   const values = {
     ackTargetMinutes: input.ackTargetMinutes,
-    callOutFeeCents: input.callOutFeeCents,
-    currency: input.currency,
     firstAid,
   };
   return db.transaction(async (tx) => {
-    const before = settingsViewOf(await settingsRowOf(tx, actor.companyId));
+    const fee = await callOutFeeOf(tx, actor.companyId);
+    const before = settingsViewOf(await settingsRowOf(tx, actor.companyId), fee);
     const [saved] = await tx
       .insert(urgentSettings)
       .values({ companyId: actor.companyId, ...values })
       .onConflictDoUpdate({ target: urgentSettings.companyId, set: values })
       .returning();
-    const after = settingsViewOf(saved);
+    const after = settingsViewOf(saved, fee);
     await recordAudit(tx, {
       companyId: actor.companyId,
       actor,
@@ -356,9 +360,6 @@ async function requestIssues(db: Db, actor: Actor, tankId: string, input: NewReq
   return issues;
 }
 
-const feeInWords = (cents: number, currency: string) =>
-  new Intl.NumberFormat('en-GB', { style: 'currency', currency }).format(cents / 100);
-
 /**
  * Asks for an urgent visit: checks what it names, that the owner saw the call-out fee now in force,
  * attaches what the tank looks like right now, and writes the request, its photos and its first
@@ -374,13 +375,17 @@ export async function createUrgentRequest(
   const tank = await findTankFor(db, actor, tankId, 'read');
   const issues = await requestIssues(db, actor, tank.id, input);
   if (issues.length > 0) throw invalidFields(issues);
-  const settings = settingsViewOf(await settingsRowOf(db, tank.companyId));
+  const [settingsRow, fee] = await Promise.all([
+    settingsRowOf(db, tank.companyId),
+    callOutFeeOf(db, tank.companyId),
+  ]);
+  const settings = settingsViewOf(settingsRow, fee);
   if (input.acceptedCallOutFeeCents !== settings.callOutFeeCents) {
     throw conflict(
       'fee_changed',
       settings.callOutFeeCents === null
         ? 'There is no call-out fee for urgent visits any more. Check the request and send it again.'
-        : `The call-out fee for urgent visits is now ${feeInWords(settings.callOutFeeCents, settings.currency)}. Check the request and send it again.`,
+        : `The call-out fee for urgent visits is now ${formatMoney(settings.callOutFeeCents, settings.currency)}. Check the request and send it again.`,
     );
   }
   const now = deps.clock();

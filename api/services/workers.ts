@@ -10,6 +10,8 @@ import { checkUnreadEmail, type UnreadEmailCheck } from './conversation-notify';
 import { fanOutAlertEvent, fanOutCareTip, fanOutVisitReport, pendingFanOuts } from './notify';
 import { unannouncedVisits } from './visits';
 import { purgeExpiredAudit, sweepOverdueTests, sweepStaleDevices } from './sweeps';
+import { announceInvoiceEvent, unannouncedInvoiceEvents } from './invoice-notify';
+import { sweepOverdueInvoices } from './invoices';
 import { maintainReadingPartitions } from './reading-partitions';
 import { rejudgeStaleStatuses } from './tank-status';
 import { escalateOverdueRequests, fanOutUrgentEvent, unannouncedUrgentEvents } from './urgent-notify';
@@ -91,6 +93,9 @@ export async function startWorkers(deps: AppDeps, options: { dailySweeps?: boole
           await fanOutUrgentEvent(deps, eventId);
         await sendDueTips(deps);
         await rejudgeStaleStatuses(deps.db, deps.clock());
+        await sweepOverdueInvoices(deps);
+        for (const eventId of await unannouncedInvoiceEvents(deps, 60_000))
+          await announceInvoiceEvent(deps, eventId);
       }
     },
   );

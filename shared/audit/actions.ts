@@ -19,6 +19,11 @@ export const auditActions = [
   'readings.exported',
   'photo.deleted',
   'urgent-settings.changed',
+  'billing-settings.changed',
+  'invoice.issued',
+  'invoice.voided',
+  'invoice.credited',
+  'invoice.payment-recorded',
 ] as const;
 export const auditAction = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditAction>;
@@ -38,10 +43,15 @@ export const auditActionLabels: Readonly<Record<AuditAction, string>> = {
   'readings.exported': 'Downloaded readings',
   'photo.deleted': 'Deleted a photo',
   'urgent-settings.changed': 'Changed urgent visit settings',
+  'billing-settings.changed': 'Changed billing settings',
+  'invoice.issued': 'Issued an invoice',
+  'invoice.voided': 'Cancelled an invoice',
+  'invoice.credited': 'Issued a credit note',
+  'invoice.payment-recorded': 'Recorded a payment',
 };
 
 /** What an entry is about. */
-export const auditTargetKinds = ['user', 'invitation', 'device', 'tank', 'photo'] as const;
+export const auditTargetKinds = ['user', 'invitation', 'device', 'tank', 'photo', 'invoice'] as const;
 export const auditTargetKind = z.enum(auditTargetKinds);
 export type AuditTargetKind = z.infer<typeof auditTargetKind>;
 
@@ -51,4 +61,5 @@ export const auditTargetKindLabels: Readonly<Record<AuditTargetKind, string>> = 
   device: 'Device',
   tank: 'Tank',
   photo: 'Photo',
+  invoice: 'Invoice',
 };

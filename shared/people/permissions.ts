@@ -12,6 +12,7 @@ export type StaffRole = (typeof staffRoles)[number];
 const everyone: readonly Role[] = roles;
 const staff: readonly Role[] = staffRoles;
 const admins: readonly Role[] = ['admin'];
+const owners: readonly Role[] = ['owner'];
 
 export const permissions = {
   'me:read': everyone,
@@ -61,6 +62,15 @@ export const permissions = {
   'urgent:read': everyone,
   'urgent:manage': staff,
   'urgent:settings': admins,
+  /** The price list: staff read it (consumables on a visit report); admins set it. */
+  'billing:read': staff,
+  'billing:manage': admins,
+  /** Owners read the invoices of their own tanks; staff read every invoice of the company. */
+  'invoices:read': everyone,
+  'invoices:manage': admins,
+  /** Paying online: an owner pays their own invoice (staff never pay for a client). */
+  'invoices:pay': owners,
+  'invoices:export': admins,
 } satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

@@ -145,15 +145,13 @@ export const urgentSettingsInput = z.object({
     .int()
     .min(5)
     .max(24 * 60),
-  /** Shown to the owner before sending; null for none. */
-  callOutFeeCents: z.int().min(0).max(10_000_00).nullable(),
-  currency: z.string().regex(/^[A-Z]{3}$/, 'Use a three-letter currency code (ISO 4217), such as EUR.'),
   firstAid: z.partialRecord(urgentCategory, firstAidText.nullable()),
 });
 export type UrgentSettingsInput = z.infer<typeof urgentSettingsInput>;
 
 export interface UrgentSettingsView {
   ackTargetMinutes: number;
+  /** The call-out fee from the price list, in minor units, shown to the owner before sending; null for none. */
   callOutFeeCents: number | null;
   currency: string;
   /** The text owners see for each category: the company's own, or the default. */

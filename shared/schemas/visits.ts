@@ -119,6 +119,19 @@ export const nextVisitEntry = z
   .refine((v) => v.endTime > v.startTime, { path: ['endTime'], message: 'ends after it starts' });
 export type NextVisitEntry = z.infer<typeof nextVisitEntry>;
 
+/** Hundredths are the finest quantity a line can bill (shared/billing/money.ts). */
+const inHundredths = (value: number) => Math.abs(value * 100 - Math.round(value * 100)) < 1e-6;
+
+export const itemUsed = z.object({
+  priceItemId: z.uuid(),
+  quantity: z
+    .number()
+    .gt(0, 'more than 0')
+    .max(10_000, 'at most 10,000')
+    .refine(inHundredths, 'at most two decimals'),
+});
+export type ItemUsed = z.infer<typeof itemUsed>;
+
 export const maxNotesLength = 20_000;
 
 export const visitReportContent = z
@@ -142,6 +155,8 @@ export const visitReportContent = z
     /** Things to do next time; they appear on the next report's checklist until ticked off. */
     nextItems: z.array(z.string().trim().min(1, 'say what to do').max(300)).max(20).default([]),
     nextVisit: nextVisitEntry.nullable().default(null),
+    /** Consumables used and parts fitted, from the company's price list; the invoice is drafted from them. */
+    itemsUsed: z.array(itemUsed).max(30).default([]),
   })
   .superRefine((report, ctx) => {
     if (

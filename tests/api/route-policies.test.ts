@@ -29,6 +29,7 @@ const publicRoutes = [
   'GET /api/health',
   'GET /api/me/access',
   'GET /api/calendar/:token.ics',
+  'POST /api/payments/webhook',
   'GET /auth/login',
   'GET /auth/callback',
   'POST /auth/logout',

@@ -25,6 +25,7 @@ import type { RunningPushService } from '../../api/dev/push-service';
 import {
   alerts,
   auditEvents,
+  billingSettings,
   deliveries,
   notificationPreferences,
   notifications,
@@ -160,8 +161,27 @@ describe('urgent visit requests', () => {
     stack.clock.reset();
     const { db } = stack.database;
     await db.delete(urgentSettings).where(eq(urgentSettings.companyId, companyId));
+    await db.delete(billingSettings).where(eq(billingSettings.companyId, companyId));
     await stack.database.pool.query('delete from on_call_shifts');
   });
+
+  /** The call-out fee lives on the company's price list (billing settings), typed in the major unit. */
+  async function setCallOutFee(callOutFee: string | null, currency = 'GBP') {
+    const res = await ada.put<ErrorBody>('/api/billing/settings', {
+      currency,
+      taxRate: '20',
+      taxLabel: 'VAT',
+      pricesIncludeTax: true,
+      paymentTermsDays: 14,
+      hourlyRate: null,
+      callOutFee,
+      sellerName: '',
+      sellerAddress: '',
+      sellerTaxId: '',
+      invoiceFooter: '',
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+  }
 
   /** The per-tank budget of 5 an hour, spent again from zero (only the rate-limit test spends it up). */
   const refillBudgets = () =>
@@ -293,7 +313,7 @@ describe('urgent visit requests', () => {
       expect(body.firstAid.power).toEqual({ ...defaultFirstAid.power, custom: false });
     });
 
-    it('lets an admin set the fee, the target and one category’s own text, and records it in the audit trail', async () => {
+    it('lets an admin set the target and one category’s own text, shows the fee from the price list, and records it in the audit trail', async () => {
       const own = {
         steps: [
           'Switch off at the main board if it is dry and safe to reach.',
@@ -301,10 +321,9 @@ describe('urgent visit requests', () => {
         ],
         cautions: ['Never reset a board that tripped while anything near the tank is wet.'],
       };
+      await setCallOutFee('85.00');
       const saved = await ada.put<UrgentSettingsView & ErrorBody>('/api/urgent-settings', {
         ackTargetMinutes: 20,
-        callOutFeeCents: 8500,
-        currency: 'GBP',
         firstAid: { power: own, leak: null },
       });
       const read = await olive.get<UrgentSettingsView>('/api/urgent-settings');
@@ -320,25 +339,39 @@ describe('urgent visit requests', () => {
         .where(and(eq(auditEvents.companyId, companyId), eq(auditEvents.action, 'urgent-settings.changed')));
       expect(entry).toMatchObject({
         actorId: people.ada.id,
-        before: { ackTargetMinutes: 30, callOutFeeCents: null, currency: 'EUR', ownFirstAid: [] },
-        after: { ackTargetMinutes: 20, callOutFeeCents: 8500, currency: 'GBP', ownFirstAid: ['power'] },
+        before: { ackTargetMinutes: 30, ownFirstAid: [] },
+        after: { ackTargetMinutes: 20, ownFirstAid: ['power'] },
       });
     });
 
-    it('refuses a currency that is no ISO 4217 code and a target under five minutes, naming the fields', async () => {
-      const res = await ada.put<ErrorBody>('/api/urgent-settings', {
-        ackTargetMinutes: 2,
-        callOutFeeCents: null,
+    it('refuses a target under five minutes, and a fee currency that is no ISO 4217 code, naming the fields', async () => {
+      const target = await ada.put<ErrorBody>('/api/urgent-settings', { ackTargetMinutes: 2, firstAid: {} });
+      const currency = await ada.put<ErrorBody>('/api/billing/settings', {
         currency: 'euro',
-        firstAid: {},
+        taxRate: '0',
+        taxLabel: 'VAT',
+        pricesIncludeTax: true,
+        paymentTermsDays: 14,
+        hourlyRate: null,
+        callOutFee: '45.00',
+        sellerName: '',
+        sellerAddress: '',
+        sellerTaxId: '',
+        invoiceFooter: '',
       });
 
-      expect(res.status).toBe(400);
-      expect(issuePaths(res.body)).toEqual(['body.ackTargetMinutes', 'body.currency']);
+      expect(target.status).toBe(400);
+      expect(issuePaths(target.body)).toEqual(['body.ackTargetMinutes']);
+      expect(currency.status).toBe(400);
+      expect(issuePaths(currency.body)).toEqual(['body.currency']);
+      expect((await olive.get<UrgentSettingsView>('/api/urgent-settings')).body).toMatchObject({
+        ackTargetMinutes: 30,
+        callOutFeeCents: null,
+      });
     });
 
     it('keeps the settings to admins', async () => {
-      const body = { ackTargetMinutes: 30, callOutFeeCents: null, currency: 'EUR', firstAid: {} };
+      const body = { ackTargetMinutes: 30, firstAid: {} };
       for (const who of [tess, olive]) {
         const res = await who.put<ErrorBody>('/api/urgent-settings', body);
         expect(res.status).toBe(403);
@@ -487,12 +520,7 @@ describe('urgent visit requests', () => {
     });
 
     it('refuses a request sent with a call-out fee other than the one in force (409 fee_changed)', async () => {
-      await ada.put('/api/urgent-settings', {
-        ackTargetMinutes: 30,
-        callOutFeeCents: 4500,
-        currency: 'GBP',
-        firstAid: {},
-      });
+      await setCallOutFee('45.00');
 
       const noFeeSeen = await ask(olive, reef, { acceptedCallOutFeeCents: null });
       const oldFee = await ask(olive, reef, { acceptedCallOutFeeCents: 4000 });
@@ -1013,12 +1041,7 @@ describe('urgent visit requests', () => {
     });
 
     it('leaves an acknowledged request alone, and follows the company’s own target', async () => {
-      await ada.put('/api/urgent-settings', {
-        ackTargetMinutes: 10,
-        callOutFeeCents: null,
-        currency: 'EUR',
-        firstAid: {},
-      });
+      await ada.put('/api/urgent-settings', { ackTargetMinutes: 10, firstAid: {} });
       const acknowledged = await asked();
       await moved(ada, acknowledged.id, { to: 'acknowledged', eta: inMinutes(30) });
       const waiting = await asked();

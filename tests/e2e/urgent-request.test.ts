@@ -318,7 +318,11 @@ describe('an urgent visit request in the browser', () => {
       'mara@driftglass.test',
     );
     const form = admin.getByRole('form', { name: 'Urgent visit settings' });
-    expect(await form.getByLabel('Call-out fee').inputValue()).toBe('85.00');
+    // The fee is set on the price list now; the settings page names it and links there.
+    await form.getByText('£85.00').waitFor();
+    expect(await form.getByRole('link', { name: 'price list' }).getAttribute('href')).toBe(
+      '/console/billing',
+    );
     const leak = form.getByRole('region', { name: 'Water leak or flood' });
     await leak.getByText('Default text (common practice)').waitFor();
     await checkAtBothWidths(admin, 'urgent-settings', 'desktop');

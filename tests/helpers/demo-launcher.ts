@@ -10,13 +10,19 @@ import { freePort } from './free-port';
  * starting, stopping and killing it.
  */
 
-export type DemoEnv = NodeJS.ProcessEnv & { PORT: string; PGPORT_LOCAL: string; DATA_DIR: string };
+export type DemoEnv = NodeJS.ProcessEnv & {
+  PORT: string;
+  PGPORT_LOCAL: string;
+  DATA_DIR: string;
+  /** The payment stand-in: http://127.0.0.1:PAYMENTS_PORT. */
+  PAYMENTS_PORT: string;
+};
 
 export async function demoEnv(dataDir: string): Promise<DemoEnv> {
-  const [port, pgPort, idpPort, smtpPort, mailboxPort, s3Port] = await Promise.all(
-    Array.from({ length: 6 }, () => freePort()),
+  const [port, pgPort, idpPort, smtpPort, mailboxPort, s3Port, paymentsPort] = await Promise.all(
+    Array.from({ length: 7 }, () => freePort()),
   );
-  const { DATABASE_URL: _ownCluster, ...inherited } = process.env;
+  const { DATABASE_URL: _ownCluster, STRIPE_API_URL: _ownPayments, ...inherited } = process.env;
   return {
     ...inherited,
     NODE_ENV: 'test',
@@ -26,6 +32,8 @@ export async function demoEnv(dataDir: string): Promise<DemoEnv> {
     OIDC_ISSUER: `http://127.0.0.1:${idpPort}`,
     SMTP_PORT: String(smtpPort),
     MAILBOX_PORT: String(mailboxPort),
+    // The launcher points the app at its payment stand-in here, with keys from DATA_DIR/secrets.
+    PAYMENTS_PORT: String(paymentsPort),
     S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
     DATA_DIR: dataDir,
   };

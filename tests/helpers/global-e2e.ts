@@ -17,6 +17,7 @@ import { ensureChromium } from './chromium';
 import { createDatabaseFrom } from './db';
 import { freePort } from './free-port';
 import { startTestCluster } from './global-db';
+import { testPaymentKeys } from './stack';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -27,6 +28,11 @@ declare module 'vitest' {
      * for someone (POST /api/push/subscriptions) and then read at `${origin}/api/received`.
      */
     pushStandIn: { origin: string; caCertPem: string; subscription: StandInSubscription };
+    /**
+     * The payment stand-in (STRIPE_API_URL): its payment pages are at `${url}/pay/…`, the event log at
+     * `${url}/_stand-in/events`; the secret key authorizes its POST controls (api/dev/payment-provider.ts).
+     */
+    paymentsStandIn: { url: string; secretKey: string; webhookSecret: string };
   }
 }
 
@@ -41,9 +47,9 @@ export default async function setup(project: TestProject) {
   }
   const cluster = await startTestCluster();
   const database = await createDatabaseFrom(cluster.baseUrl);
-  const [port, idpPort, smtpPort, mailboxPort, s3Port] = (await Promise.all(
-    Array.from({ length: 5 }, () => freePort()),
-  )) as [number, number, number, number, number];
+  const [port, idpPort, smtpPort, mailboxPort, s3Port, paymentsPort] = (await Promise.all(
+    Array.from({ length: 6 }, () => freePort()),
+  )) as [number, number, number, number, number, number];
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'brinewatch-e2e-'));
   const vapid = webpush.generateVAPIDKeys();
   const push = await startPushService({ port: 0, dir: path.join(dataDir, 'push') });
@@ -65,6 +71,8 @@ export default async function setup(project: TestProject) {
     VAPID_PUBLIC_KEY: vapid.publicKey,
     VAPID_PRIVATE_KEY: vapid.privateKey,
     PUSH_TRUSTED_CA_FILE: pushCaFile,
+    ...testPaymentKeys,
+    STRIPE_API_URL: `http://127.0.0.1:${paymentsPort}`,
   });
   const standIns = await startStandIns(env, { mailboxPort });
   const seeding = connectDatabase(database.url, { max: 1 });
@@ -86,6 +94,11 @@ export default async function setup(project: TestProject) {
     origin: push.origin,
     caCertPem: push.caCertPem,
     subscription: pushSubscription,
+  });
+  project.provide('paymentsStandIn', {
+    url: standIns.payments!.url,
+    secretKey: testPaymentKeys.STRIPE_SECRET_KEY,
+    webhookSecret: testPaymentKeys.STRIPE_WEBHOOK_SECRET,
   });
   project.provide('postgresBaseUrl', cluster.baseUrl);
   return async () => {

@@ -11,6 +11,7 @@ import { createDeps, type AppDeps } from '../../api/deps';
 import { startIdentityProvider, type RunningIdentityProvider } from '../../api/dev/identity-provider';
 import { startMailServer, type RunningMailServer } from '../../api/dev/mail-server';
 import { startObjectStorage } from '../../api/dev/object-storage';
+import { startPaymentProvider, type RunningPaymentProvider } from '../../api/dev/payment-provider';
 import { startPushService, type RunningPushService } from '../../api/dev/push-service';
 import { listenForEvents } from '../../api/lib/event-bus';
 import { startJobQueue } from '../../api/lib/job-queue';
@@ -27,6 +28,12 @@ import { startTokenForgingProxy, type IdTokenTamper } from './token-forging-prox
 
 export const testClient = { clientId: 'brinewatch-web', clientSecret: 'test-client-secret-3f9a1c7e' };
 
+/** The payment provider's test-mode keys the stacks give the app and the payment stand-in. */
+export const testPaymentKeys = {
+  STRIPE_SECRET_KEY: 'sk_test_brinewatchStack4b7e19c2a05d',
+  STRIPE_WEBHOOK_SECRET: 'whsec_brinewatchStack9d2f6a81c3e7',
+};
+
 export interface TestStack {
   origin: string;
   app: ReturnType<typeof createApp>;
@@ -34,6 +41,8 @@ export interface TestStack {
   database: TestDatabase;
   idp: RunningIdentityProvider;
   mail: RunningMailServer;
+  /** The payment stand-in (STRIPE_API_URL), posting its webhook events to the app on the stack's clock. */
+  payments: RunningPaymentProvider;
   /** The local push service, with `background`. */
   push: RunningPushService | null;
   clock: TestClock;
@@ -74,6 +83,15 @@ export async function startTestStack(
     port: await freePort(),
     dir: storageDir,
     bucket: 'test-photos',
+  });
+  const clock = createTestClock();
+  const payments = await startPaymentProvider({
+    port: 0,
+    secretKey: testPaymentKeys.STRIPE_SECRET_KEY,
+    webhookSecret: testPaymentKeys.STRIPE_WEBHOOK_SECRET,
+    webhookUrl: `${origin}/api/payments/webhook`,
+    clock: clock.now,
+    retryDelaysMs: [200, 500, 1000],
   });
   const clients = [
     { ...testClient, redirectUris: [`${origin}/auth/callback`], postLogoutRedirectUris: [`${origin}/`] },
@@ -126,10 +144,11 @@ export async function startTestStack(
     SMTP_PORT: String(mail.smtpPort),
     S3_ENDPOINT: storage.endpoint,
     S3_BUCKET: storage.bucket,
+    ...testPaymentKeys,
+    STRIPE_API_URL: payments.url,
     ...extraEnv,
     ...options.env,
   });
-  const clock = createTestClock();
   const logger = options.logger ?? createLogger('silent');
   const jobs = options.background ? await startJobQueue(database.url, logger) : null;
   const events = options.background ? listenForEvents(database.url, logger) : null;
@@ -147,6 +166,7 @@ export async function startTestStack(
     database,
     idp,
     mail,
+    payments,
     push,
     clock,
     sameOrigin: { origin, 'x-requested-with': 'brinewatch' },
@@ -165,6 +185,7 @@ export async function startTestStack(
       await proxy?.close();
       await idp.close();
       await mail.close();
+      await payments.close();
       deps.storage.close();
       await storage.close();
       rmSync(storageDir, { recursive: true, force: true });

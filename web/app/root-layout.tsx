@@ -40,9 +40,14 @@ function MainNav() {
     if (can(me, 'care-tips:write')) links.push({ to: '/console/tips', label: 'Care tips' });
     links.push({ to: '/console/clients', label: 'Clients' });
     links.push({ to: '/console/alerts', label: 'Alerts' });
+    if (can(me, 'invoices:read')) links.push({ to: '/console/invoices', label: 'Invoices' });
     if (can(me, 'staff:read')) links.push({ to: '/console/staff', label: 'Staff' });
+    if (can(me, 'billing:manage')) links.push({ to: '/console/billing', label: 'Price list' });
     if (can(me, 'audit:read')) links.push({ to: '/console/audit', label: 'Audit trail' });
-  } else if (me) links.push({ to: '/tanks', label: 'My tanks' });
+  } else if (me) {
+    links.push({ to: '/tanks', label: 'My tanks' });
+    if (can(me, 'invoices:pay')) links.push({ to: '/invoices', label: 'Invoices' });
+  }
   links.push({ to: '/calculators', label: 'Calculators' });
   return (
     <nav

@@ -60,6 +60,20 @@ const router = createBrowserRouter([
             ],
           },
           {
+            path: 'invoices',
+            element: <RequirePermission permission="invoices:read" />,
+            children: [
+              {
+                index: true,
+                lazy: async () => ({ Component: (await import('./routes/invoices')).OwnerInvoicesRoute }),
+              },
+              {
+                path: ':invoiceId',
+                lazy: async () => ({ Component: (await import('./routes/invoices')).OwnerInvoiceRoute }),
+              },
+            ],
+          },
+          {
             path: 'urgent/:requestId',
             element: <RequirePermission permission="urgent:read" />,
             children: [
@@ -182,6 +196,24 @@ const router = createBrowserRouter([
                 ],
               },
               {
+                path: 'invoices',
+                element: <RequirePermission permission="invoices:read" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-invoices')).ConsoleInvoicesRoute,
+                    }),
+                  },
+                  {
+                    path: ':invoiceId',
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-invoices')).ConsoleInvoiceRoute,
+                    }),
+                  },
+                ],
+              },
+              {
                 path: 'inbox',
                 element: <RequirePermission permission="conversations:inbox" />,
                 children: [
@@ -201,6 +233,18 @@ const router = createBrowserRouter([
                     index: true,
                     lazy: async () => ({
                       Component: (await import('./routes/console-audit')).ConsoleAuditRoute,
+                    }),
+                  },
+                ],
+              },
+              {
+                path: 'billing',
+                element: <RequirePermission permission="billing:manage" />,
+                children: [
+                  {
+                    index: true,
+                    lazy: async () => ({
+                      Component: (await import('./routes/console-billing')).ConsoleBillingRoute,
                     }),
                   },
                 ],

@@ -119,3 +119,24 @@ export const urgentKeys = {
   tank: (tankId: string) => [...urgentKeys.all, 'tank', tankId] as const,
   settings: () => ['urgent-settings'] as const,
 };
+
+/**
+ * The company's price list (billing settings and items): admins edit it, technicians pick the
+ * consumables and parts used on a visit report from it. The urgent settings carry its call-out fee.
+ */
+export const billingKeys = {
+  all: ['billing'] as const,
+  priceList: () => [...billingKeys.all, 'price-list'] as const,
+};
+
+/**
+ * Invoices and credit notes: the lists (one per filter set, the owner's own included) and each
+ * document. A change to one document can move its totals, its related documents and every list, so
+ * changes invalidate `invoiceKeys.all`.
+ */
+export const invoiceKeys = {
+  all: ['invoices'] as const,
+  lists: () => [...invoiceKeys.all, 'list'] as const,
+  list: (filters: object) => [...invoiceKeys.lists(), filters] as const,
+  detail: (invoiceId: string) => [...invoiceKeys.all, 'detail', invoiceId] as const,
+};

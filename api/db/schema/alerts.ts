@@ -24,6 +24,7 @@ import { careTips } from './care-tips';
 import { visits } from './visits';
 import { conversationMessages, conversations } from './conversations';
 import { urgentRequestEvents } from './urgent-requests';
+import { invoiceEvents } from './billing';
 
 export const alertKind = pgEnum('alert_kind', alertKinds);
 export const alertSeverity = pgEnum('alert_severity', alertSeverities);
@@ -165,6 +166,7 @@ export const deliveries = pgTable(
     tipId: uuid('tip_id').references(() => careTips.id, { onDelete: 'cascade' }),
     messageId: uuid('message_id').references(() => conversationMessages.id, { onDelete: 'cascade' }),
     urgentEventId: uuid('urgent_event_id').references(() => urgentRequestEvents.id, { onDelete: 'cascade' }),
+    invoiceEventId: uuid('invoice_event_id').references(() => invoiceEvents.id, { onDelete: 'cascade' }),
     userId: uuid('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -182,9 +184,10 @@ export const deliveries = pgTable(
     uniqueIndex('deliveries_tip_once_key').on(t.tipId, t.channel, t.destination),
     uniqueIndex('deliveries_message_once_key').on(t.messageId, t.channel, t.destination),
     uniqueIndex('deliveries_urgent_once_key').on(t.urgentEventId, t.channel, t.destination),
+    uniqueIndex('deliveries_invoice_once_key').on(t.invoiceEventId, t.channel, t.destination),
     check(
       'deliveries_one_subject',
-      sql`num_nonnulls(${t.alertEventId}, ${t.visitId}, ${t.tipId}, ${t.messageId}, ${t.urgentEventId}) = 1`,
+      sql`num_nonnulls(${t.alertEventId}, ${t.visitId}, ${t.tipId}, ${t.messageId}, ${t.urgentEventId}, ${t.invoiceEventId}) = 1`,
     ),
     index('deliveries_status_idx').on(t.status, t.createdAt),
   ],
@@ -205,6 +208,7 @@ export const notifications = pgTable(
     /** One per person and conversation, brought back to unread by each new message. */
     conversationId: uuid('conversation_id').references(() => conversations.id, { onDelete: 'cascade' }),
     urgentEventId: uuid('urgent_event_id').references(() => urgentRequestEvents.id, { onDelete: 'cascade' }),
+    invoiceEventId: uuid('invoice_event_id').references(() => invoiceEvents.id, { onDelete: 'cascade' }),
     severity: alertSeverity('severity').notNull(),
     title: text('title').notNull(),
     body: text('body').notNull(),
@@ -219,6 +223,7 @@ export const notifications = pgTable(
     uniqueIndex('notifications_tip_once_key').on(t.userId, t.tipId),
     uniqueIndex('notifications_conversation_key').on(t.userId, t.conversationId),
     uniqueIndex('notifications_urgent_once_key').on(t.userId, t.urgentEventId),
+    uniqueIndex('notifications_invoice_once_key').on(t.userId, t.invoiceEventId),
   ],
 );
 

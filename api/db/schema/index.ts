@@ -1,4 +1,5 @@
 export * from './alerts';
+export * from './billing';
 export * from './audit';
 export * from './care-tips';
 export * from './companies';

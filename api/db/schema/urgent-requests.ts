@@ -104,14 +104,15 @@ export const urgentRequestPhotos = pgTable(
   ],
 );
 
-/** One row per company that changed its urgent-visit settings; none means the defaults. */
+/**
+ * One row per company that changed its urgent-visit settings; none means the defaults. The call-out
+ * fee is on the price list (billing_settings).
+ */
 export const urgentSettings = pgTable('urgent_settings', {
   companyId: uuid('company_id')
     .primaryKey()
     .references(() => companies.id, { onDelete: 'cascade' }),
   ackTargetMinutes: integer('ack_target_minutes').notNull().default(30),
-  callOutFeeCents: integer('call_out_fee_cents'),
-  currency: text('currency').notNull().default('EUR'),
   /** Partial record category → { steps, cautions }; a missing category keeps the default text. */
   firstAid: jsonb('first_aid').notNull().default({}),
   ...timestamps,

@@ -21,6 +21,7 @@ import {
 import { seedDemoPhotos } from './photos';
 import { seedDemoCareTips } from './care-tips';
 import { seedDemoVisits } from './visits';
+import { seedDemoBilling } from './billing';
 import { seedDemoUrgent } from './urgent';
 import { demoEquipment, demoLivestock, demoTanks } from './scenario';
 
@@ -228,6 +229,8 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   if (options.raiseAlerts !== false) await raiseDemoAlerts(db, driftglass, now);
   // After the alerts: the open request's snapshot lists the ones open now.
   await seedDemoUrgent(db, { companyId: driftglass, people: userId, now });
+  // The price list and the invoices for visits already reported.
+  await seedDemoBilling(db, { companyId: driftglass, people: userId, now });
 }
 
 /**

@@ -222,10 +222,10 @@ export async function seedDemoUrgent(db: Db, options: SeedUrgentOptions): Promis
   await db.transaction(async (tx) => {
     await tx
       .insert(urgentSettings)
-      .values({ companyId, ackTargetMinutes: 30, callOutFeeCents: 8500, currency: 'GBP', firstAid: {} })
+      .values({ companyId, ackTargetMinutes: 30, firstAid: {} })
       .onConflictDoUpdate({
         target: urgentSettings.companyId,
-        set: { ackTargetMinutes: 30, callOutFeeCents: 8500, currency: 'GBP', firstAid: {} },
+        set: { ackTargetMinutes: 30, firstAid: {} },
       });
     await tx
       .insert(urgentRequests)

@@ -2,6 +2,7 @@ import { connect } from 'node:net';
 import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startMailServer, type CapturedMail, type RunningMailServer } from '../../../api/dev/mail-server';
+import { createMailer } from '../../../api/lib/mailer';
 
 function transportTo(port: number) {
   return nodemailer.createTransport({ host: '127.0.0.1', port, secure: false, ignoreTLS: true });
@@ -29,6 +30,17 @@ const alertMail = (overrides: Partial<SendMailOptions> = {}): SendMailOptions =>
   headers: { 'X-Brinewatch-Alert': 'al-2041' },
   ...overrides,
 });
+
+/** Every byte value, so a transfer encoding that mangles binary shows. */
+const binary = Buffer.from(Array.from({ length: 1024 }, (_, index) => (index * 7) % 256));
+const invoiceAttachments = [
+  { filename: 'INV-000042.pdf', content: binary, contentType: 'application/pdf' },
+  {
+    filename: 'Poznámky – návštěva.txt',
+    content: Buffer.from('Skimmer cup cleaned.\n'),
+    contentType: 'text/plain',
+  },
+];
 
 describe('mail stand-in', () => {
   let mail: RunningMailServer;
@@ -73,6 +85,41 @@ describe('mail stand-in', () => {
       const captured = await mail.waitFor((m) => m.subject === 'Plain only');
 
       expect(captured.html).toBeNull();
+    });
+
+    it('keeps the attachments the app sends, byte for byte, with their names and types', async () => {
+      const mailer = createMailer({
+        host: '127.0.0.1',
+        port: mail.smtpPort,
+        from: 'billing@brinewatch.test',
+      });
+
+      await mailer.send({
+        to: 'helen@ashdown-home.test',
+        subject: 'Invoice INV-000042',
+        text: 'Attached.',
+        html: '<p>Attached.</p>',
+        attachments: invoiceAttachments,
+      });
+      const captured = await mail.waitFor((m) => m.subject === 'Invoice INV-000042');
+
+      expect(captured.attachments).toEqual(
+        invoiceAttachments.map((a) => ({ ...a, size: a.content.length, content: expect.any(Buffer) })),
+      );
+      expect(
+        captured.attachments.map((a) =>
+          a.content.equals(invoiceAttachments.find((b) => b.filename === a.filename)!.content),
+        ),
+      ).toEqual([true, true]);
+      expect(captured.text.trim()).toBe('Attached.');
+    });
+
+    it('has no attachments for a message without any', async () => {
+      await transport.sendMail(alertMail({ subject: 'No files' }));
+
+      const captured = await mail.waitFor((m) => m.subject === 'No files');
+
+      expect(captured.attachments).toEqual([]);
     });
 
     it('resolves waitFor with a message that arrived before it was called', async () => {
@@ -159,6 +206,89 @@ describe('mail stand-in', () => {
       expect(frame).toContain('href=&quot;http://localhost:3000/x?a=1&amp;b=2&quot;');
       expect(html).not.toContain('<script>');
       expect(html).not.toContain('<img src=x');
+    });
+
+    it('lists attachments with download links and serves each one with its type and name', async () => {
+      await transport.sendMail(alertMail({ subject: 'With files', attachments: invoiceAttachments }));
+      const captured = await mail.waitFor((m) => m.subject === 'With files');
+
+      const list = await (await page('/')).text();
+      const html = await (await page(`/messages/${captured.id}`)).text();
+      const pdf = await page(`/messages/${captured.id}/attachments/0`);
+      const note = await page(`/messages/${captured.id}/attachments/1`);
+
+      expect(list).toContain('2 attachments');
+      expect(html).toContain(`<a href="/messages/${captured.id}/attachments/0" download>INV-000042.pdf</a>`);
+      expect(html).toContain('application/pdf, 1.0 KB');
+      expect(html).toContain(
+        `<a href="/messages/${captured.id}/attachments/1" download>Poznámky – návštěva.txt</a>`,
+      );
+      expect(pdf.status).toBe(200);
+      expect(pdf.headers.get('content-type')).toBe('application/pdf');
+      expect(pdf.headers.get('content-disposition')).toBe(
+        'attachment; filename="INV-000042.pdf"; filename*=UTF-8\'\'INV-000042.pdf',
+      );
+      expect(pdf.headers.get('content-security-policy')).toContain('sandbox');
+      expect(Buffer.from(await pdf.arrayBuffer()).equals(binary)).toBe(true);
+      expect(note.headers.get('content-disposition')).toBe(
+        `attachment; filename="Pozn_mky _ n_v_t_va.txt"; filename*=UTF-8''${encodeURIComponent('Poznámky – návštěva.txt')}`,
+      );
+      expect(await note.text()).toBe('Skimmer cup cleaned.\n');
+    });
+
+    it('escapes an attachment name on the page and keeps it out of the headers as sent', async () => {
+      const hostileName = '"><img src=x onerror=alert(1)>.html';
+      await transport.sendMail(
+        alertMail({
+          subject: 'Hostile file',
+          attachments: [
+            { filename: hostileName, content: '<script>alert(1)</script>', contentType: 'text/html' },
+          ],
+        }),
+      );
+      const captured = await mail.waitFor((m) => m.subject === 'Hostile file');
+
+      const html = await (await page(`/messages/${captured.id}`)).text();
+      const file = await page(`/messages/${captured.id}/attachments/0`);
+
+      expect(html).not.toContain('<img src=x');
+      expect(html).toContain('&quot;&gt;&lt;img src=x onerror=alert(1)&gt;.html');
+      expect(file.headers.get('content-disposition')).toMatch(
+        /^attachment; filename="_><img src=x onerror=alert\(1\)>\.html"; /,
+      );
+      expect(file.headers.get('content-security-policy')).toBe("sandbox; default-src 'none'");
+    });
+
+    it('answers 404 for an attachment it does not have', async () => {
+      await transport.sendMail(
+        alertMail({ subject: 'One file', attachments: invoiceAttachments.slice(0, 1) }),
+      );
+      const captured = await mail.waitFor((m) => m.subject === 'One file');
+
+      expect((await page(`/messages/${captured.id}/attachments/0`)).status).toBe(200);
+      expect((await page(`/messages/${captured.id}/attachments/1`)).status).toBe(404);
+      expect((await page('/messages/no-such-message/attachments/0')).status).toBe(404);
+    });
+
+    it('describes attachments in JSON with a link instead of their bytes', async () => {
+      await transport.sendMail(
+        alertMail({ subject: 'Described', attachments: invoiceAttachments.slice(0, 1) }),
+      );
+      const captured = await mail.waitFor((m) => m.subject === 'Described');
+
+      const listed = (await (await page('/api/messages')).json()) as { attachments: unknown }[];
+      const one = (await (await page(`/api/messages/${captured.id}`)).json()) as { attachments: unknown };
+
+      const described = [
+        {
+          filename: 'INV-000042.pdf',
+          contentType: 'application/pdf',
+          size: binary.length,
+          url: `/messages/${captured.id}/attachments/0`,
+        },
+      ];
+      expect(one.attachments).toEqual(described);
+      expect(listed[0]!.attachments).toEqual(described);
     });
 
     it('answers 404 for a message it does not have', async () => {

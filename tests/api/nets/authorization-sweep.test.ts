@@ -46,6 +46,9 @@ const staffOnly = (status: number) =>
 const adminsOnly = (status: number) =>
   signedIn({ ownerA: 403, ownerB: 403, technician: 403, admin: status, otherAdmin: status });
 const public_ = (status: number): Row => Object.fromEntries(principals.map((who) => [who, status])) as Row;
+/** A company-1 object only its admins change: owners and technicians refused by role, company 2 finds nothing. */
+const companyAdminWrite = (status: number) =>
+  signedIn({ ownerA: 403, ownerB: 403, technician: 403, admin: status, otherAdmin: 404 });
 
 const expected: Record<string, Row> = {
   'GET /api/health': public_(200),
@@ -264,6 +267,37 @@ const expected: Record<string, Row> = {
   'GET /api/urgent-requests/:requestId': tankARead,
   'POST /api/urgent-requests/:requestId/moves': tankAStaffWrite(200),
 
+  // Staff read the price list (consumables on a report); admins set it, each company its own.
+  'GET /api/billing/price-list': staffOnly(200),
+  'PUT /api/billing/settings': adminsOnly(200),
+  'POST /api/billing/price-items': adminsOnly(201),
+  'PUT /api/billing/price-items/:priceItemId': companyAdminWrite(200),
+  'DELETE /api/billing/price-items/:priceItemId': companyAdminWrite(204),
+
+  // Everyone lists invoices (owners their own tanks' issued ones); admins draft, issue, cancel,
+  // credit and record payments; only an owner pays online, and only their own.
+  'GET /api/invoices': everyoneSignedIn(200),
+  'GET /api/invoices/export.csv': adminsOnly(200),
+  'POST /api/invoices': companyAdminWrite(201),
+  'GET /api/invoices/:invoiceId': tankARead,
+  'GET /api/invoices/:invoiceId/pdf': tankARead,
+  'PUT /api/invoices/:invoiceId': companyAdminWrite(200),
+  'DELETE /api/invoices/:invoiceId': companyAdminWrite(204),
+  'POST /api/invoices/:invoiceId/issue': companyAdminWrite(200),
+  'POST /api/invoices/:invoiceId/void': companyAdminWrite(200),
+  'POST /api/invoices/:invoiceId/credit-notes': companyAdminWrite(201),
+  'POST /api/invoices/:invoiceId/payments': companyAdminWrite(200),
+  'POST /api/invoices/:invoiceId/checkout': signedIn({
+    ownerA: 200,
+    ownerB: 404,
+    technician: 403,
+    admin: 403,
+    otherAdmin: 403,
+  }),
+  'GET /api/payments/export.csv': adminsOnly(200),
+  // The provider's webhook is public, and its signature is the credential: an unsigned event is a 400 to anyone.
+  'POST /api/payments/webhook': public_(400),
+
   'GET /api/audit': adminsOnly(200),
   'GET /api/audit/export': adminsOnly(200),
 
@@ -311,7 +345,7 @@ describe('authorization sweep: every route × every caller', () => {
       const writesOnRefusal: string[] = [];
       const isWrite = route.method !== 'GET';
       for (const who of principals) {
-        const path = await world.fillPath(route.path, isWrite ? 'fresh' : 'shared');
+        const path = await world.fillPath(route.path, isWrite ? 'fresh' : 'shared', route.key);
         const request = validRequests[route.key]?.(world) ?? {};
         const before = isWrite ? await world.fingerprint() : null;
         const answer = await world.call(who, route.method, path, {

@@ -192,6 +192,9 @@ const routeQueryKeys: Record<string, string[]> = {
   'GET /api/urgent-requests': ['state'],
   'GET /api/tanks/:tankId/conversation/messages': ['before', 'limit'],
   'GET /api/conversations': ['filter', 'limit', 'offset'],
+  'GET /api/invoices': ['status', 'kind', 'tankId', 'clientId', 'month', 'after'],
+  'GET /api/invoices/export.csv': ['from', 'to'],
+  'GET /api/payments/export.csv': ['from', 'to'],
   'GET /auth/login': ['returnTo'],
   'POST /api/tanks/:tankId/livestock': ['dryRun'],
 };
@@ -462,7 +465,7 @@ describe('input fuzz: hostile input never breaks a route', () => {
           const fuzzCase = makeCase();
           let path = route.path;
           if (fuzzCase.param) path = path.replace(`:${fuzzCase.param.name}`, fuzzCase.param.value);
-          path = await world.fillPath(path, isWrite ? 'fresh' : 'shared');
+          path = await world.fillPath(path, isWrite ? 'fresh' : 'shared', route.key);
           const budget = refilledBudgets[route.key];
           if (budget) {
             await world.stack.database.pool.query('delete from rate_limits where key like $1', [

@@ -5,6 +5,7 @@ import { defaultNotificationPreferences } from '@shared/schemas/notifications';
 import { visitReportContent } from '@shared/schemas/visits';
 import {
   alerts,
+  billingSettings,
   careTipReaders,
   careTips,
   careTipTanks,
@@ -12,8 +13,11 @@ import {
   conversations,
   devices,
   invitations,
+  invoiceLines,
+  invoices,
   onCallShifts,
   photos,
+  priceItems,
   urgentRequestEvents,
   urgentRequests,
   users,
@@ -42,7 +46,8 @@ import { makeImage } from '../photos/test-images';
 /**
  * The world both permanent nets (authorization sweep, input fuzzer) run in: two companies, tank A
  * and tank B in company 1 with one owner each, staff, another company's admin, a device of tank A
- * and a deactivated admin, plus the objects of tank A that path parameters name.
+ * and a deactivated admin, plus the objects of tank A that path parameters name. Company 1 bills in
+ * GBP (20 % VAT included, no call-out fee, so an urgent request accepts none).
  */
 
 export const principals = [
@@ -148,6 +153,15 @@ export async function createNetWorld(stackOptions: Parameters<typeof startTestSt
   const tankB = await createTank(db, { companyId: company.id, name: 'Tank B', owners: [people.ownerB] });
   const otherTank = await createTank(db, { companyId: otherCompany.id, name: 'Elsewhere' });
   const png = await makeImage({ width: 64, height: 48, format: 'png' });
+  await db.insert(billingSettings).values({
+    companyId: company.id,
+    currency: 'GBP',
+    taxRateBp: 2000,
+    taxLabel: 'VAT',
+    pricesIncludeTax: true,
+    hourlyRateMinor: 6000,
+    callOutFeeMinor: null,
+  });
 
   const browsers = {} as Record<SignedInPrincipal, HttpBrowser>;
   for (const who of Object.keys(people) as SignedInPrincipal[]) {
@@ -205,6 +219,64 @@ export async function createNetWorld(stackOptions: Parameters<typeof startTestSt
     return row!.id;
   };
   let deviceToken = (await addDevice('Sump probe')).token;
+
+  /**
+   * An invoice of tank A to its owner for one routine service (95.00, VAT included). Issued ones take
+   * their number from the company's counter as the service does, so an issue through the API
+   * afterwards gets the next one.
+   */
+  const addInvoice = async (status: 'draft' | 'issued') => {
+    let number: number | null = null;
+    if (status === 'issued') {
+      const counter = await stack.database.pool.query<{ last_number: number }>(
+        `insert into billing_counters (company_id, kind, last_number) values ($1, 'invoice', 1)
+         on conflict (company_id, kind) do update set last_number = billing_counters.last_number + 1
+         returning last_number`,
+        [company.id],
+      );
+      number = Number(counter.rows[0]!.last_number);
+    }
+    const issueDate = new Date().toISOString().slice(0, 10);
+    const [row] = await db
+      .insert(invoices)
+      .values({
+        companyId: company.id,
+        tankId: tankA.id,
+        status,
+        number,
+        billToUserId: people.ownerA.id,
+        billToName: people.ownerA.name,
+        billToEmail: people.ownerA.email,
+        currency: 'GBP',
+        taxRateBp: 2000,
+        taxLabel: 'VAT',
+        pricesIncludeTax: true,
+        // 95.00 with 20 % included: net 95.00 / 1.2 = 79.1666… → 79.17, tax 15.83.
+        netMinor: 7917,
+        taxMinor: 1583,
+        totalMinor: 9500,
+        ...(status === 'issued' && {
+          issueDate,
+          dueDate: daysAhead(14),
+          issuedAt: new Date(),
+          issuedBy: people.admin.id,
+          seller: { name: company.name, address: '', taxId: '', footer: '' },
+        }),
+        createdBy: people.admin.id,
+      })
+      .returning();
+    await db.insert(invoiceLines).values({
+      invoiceId: row!.id,
+      position: 0,
+      kind: 'service',
+      description: 'Routine service',
+      quantityHundredths: 100,
+      unit: 'visit',
+      unitPriceMinor: 9500,
+      amountMinor: 9500,
+    });
+    return row!.id;
+  };
 
   /** Objects of tank A that path parameters name; `fresh` makes new ones for a call that may use them up. */
   const freshObject = {
@@ -329,6 +401,23 @@ export async function createNetWorld(stackOptions: Parameters<typeof startTestSt
       });
       return row!.id;
     },
+    /** A consumable on company 1's price list. */
+    priceItemId: async () => {
+      const [row] = await db
+        .insert(priceItems)
+        .values({
+          companyId: company.id,
+          kind: 'consumable',
+          name: `Filter floss ${unique()}`,
+          unit: 'roll',
+          unitPriceMinor: 375,
+        })
+        .returning();
+      return row!.id;
+    },
+    /** An issued invoice of tank A, awaiting payment (the routes in `draftInvoiceRoutes` get a draft). */
+    invoiceId: () => addInvoice('issued'),
+    draftInvoiceId: () => addInvoice('draft'),
     /** The earlier published version every visit above keeps. */
     version: () => Promise.resolve('1'),
     /**
@@ -389,10 +478,13 @@ export async function createNetWorld(stackOptions: Parameters<typeof startTestSt
   /**
    * The route's path with tank A's objects in it. A route that may use its object up (anything
    * but GET) gets new ones, so the callers it is tried with do not depend on one another.
+   * `routeKey` picks an object in the state the route acts on (a draft invoice to edit or issue).
    */
-  const fillPath = async (path: string, mode: 'shared' | 'fresh' = 'shared') => {
+  const fillPath = async (path: string, mode: 'shared' | 'fresh' = 'shared', routeKey?: string) => {
     let filled = path;
-    for (const [match, name] of path.matchAll(/:(\w+)/g)) {
+    for (const [match, param] of path.matchAll(/:(\w+)/g)) {
+      const name =
+        param === 'invoiceId' && routeKey && draftInvoiceRoutes.has(routeKey) ? 'draftInvoiceId' : param;
       let value: string;
       if (name === 'tankId') value = tankA.id;
       else if (name! in freshObject) {
@@ -509,6 +601,13 @@ export async function createNetWorld(stackOptions: Parameters<typeof startTestSt
     close: () => stack.close(),
   };
 }
+
+/** Routes that act on a draft invoice: their `:invoiceId` names a draft of tank A instead of an issued invoice. */
+const draftInvoiceRoutes = new Set([
+  'PUT /api/invoices/:invoiceId',
+  'DELETE /api/invoices/:invoiceId',
+  'POST /api/invoices/:invoiceId/issue',
+]);
 
 const minutesAgo = (n: number) => new Date(Date.now() - n * 60_000).toISOString();
 const daysAhead = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
@@ -631,9 +730,7 @@ export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = 
   'POST /api/tanks/:tankId/conversation/messages': () => ({ body: { body: 'The skimmer is quiet again.' } }),
   'POST /api/tanks/:tankId/conversation/read': (world) => ({ body: { messageId: world.messageId } }),
   'POST /api/tanks/:tankId/conversation/photos': (world) => ({ form: world.photoForm({ caption: 'Leak' }) }),
-  'PUT /api/urgent-settings': () => ({
-    body: { ackTargetMinutes: 30, callOutFeeCents: null, currency: 'EUR', firstAid: {} },
-  }),
+  'PUT /api/urgent-settings': () => ({ body: { ackTargetMinutes: 30, firstAid: {} } }),
   'POST /api/tanks/:tankId/urgent-requests': () => ({
     body: {
       category: 'leak',
@@ -645,6 +742,60 @@ export const validRequests: Record<string, (world: NetWorld) => ValidRequest> = 
   }),
   'POST /api/urgent-requests/:requestId/moves': () => ({
     body: { to: 'acknowledged', eta: new Date(Date.now() + 30 * 60_000).toISOString() },
+  }),
+  'PUT /api/billing/settings': () => ({
+    body: {
+      currency: 'GBP',
+      taxRate: '20',
+      taxLabel: 'VAT',
+      pricesIncludeTax: true,
+      paymentTermsDays: 14,
+      hourlyRate: '60.00',
+      callOutFee: null,
+      sellerName: 'Net World Aquatics',
+      sellerAddress: '1 Test Street',
+      sellerTaxId: '',
+      invoiceFooter: '',
+    },
+  }),
+  'POST /api/billing/price-items': () => ({
+    body: { kind: 'consumable', name: `Carbon ${unique()}`, unit: 'bag', unitPrice: '8.99' },
+  }),
+  'PUT /api/billing/price-items/:priceItemId': () => ({
+    body: { kind: 'consumable', name: `Carbon ${unique()}`, unit: 'bag', unitPrice: '9.49' },
+  }),
+  'GET /api/invoices/export.csv': () => ({ query: `from=${daysAhead(-30)}&to=${daysAhead(0)}` }),
+  'GET /api/payments/export.csv': () => ({ query: `from=${daysAhead(-30)}&to=${daysAhead(0)}` }),
+  'POST /api/invoices': (world) => ({ body: { tankId: world.tankA.id } }),
+  'PUT /api/invoices/:invoiceId': (world) => ({
+    body: {
+      version: 1,
+      billToUserId: world.people.ownerA.id,
+      note: 'Thank you.',
+      lines: [
+        { kind: 'service', description: 'Routine service', quantity: '1', unit: 'visit', unitPrice: '95.00' },
+      ],
+    },
+  }),
+  'POST /api/invoices/:invoiceId/issue': () => ({ body: { version: 1 } }),
+  'POST /api/invoices/:invoiceId/void': () => ({ body: { reason: 'Billed twice.' } }),
+  'POST /api/invoices/:invoiceId/credit-notes': () => ({
+    body: {
+      reason: 'Goodwill.',
+      lines: [{ kind: 'other', description: 'Goodwill', quantity: '1', unit: '', unitPrice: '1.00' }],
+    },
+  }),
+  'POST /api/invoices/:invoiceId/payments': () => ({
+    body: { method: 'bank-transfer', amount: '1.00', receivedOn: daysAhead(0), reference: 'BACS 1' },
+  }),
+  // Unsigned: the provider signs what it sends, so no caller gets further than the signature.
+  'POST /api/payments/webhook': () => ({
+    body: {
+      id: 'evt_unsigned',
+      object: 'event',
+      type: 'checkout.session.completed',
+      data: { object: { id: 'cs_unsigned', object: 'checkout.session', payment_status: 'paid' } },
+    },
   }),
   'POST /api/ingest/readings': () => ({
     body: { readings: [{ parameter: 'temperature', value: 25.3, unit: '°C', measuredAt: minutesAgo(5) }] },

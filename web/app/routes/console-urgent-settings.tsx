@@ -6,7 +6,7 @@ export function ConsoleUrgentSettingsRoute() {
   return (
     <Page
       title="Urgent visit settings"
-      description="How fast you aim to answer, the call-out fee owners see, and the first aid they read while they wait."
+      description="How fast you aim to answer, and the first aid owners read while they wait."
       actions={
         <Link
           to="/console/urgent"

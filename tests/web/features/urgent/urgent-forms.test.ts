@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { formatMoney } from '@shared/billing/money';
 import { defaultFirstAid, urgentCategories } from '@shared/urgent/categories';
 import {
   emptyRequestForm,
@@ -8,10 +9,11 @@ import {
 } from '../../../../web/features/urgent/utils/request-form';
 import {
   linesText,
+  settingsFieldFor,
   settingsFormSchema,
   type SettingsFormValues,
 } from '../../../../web/features/urgent/utils/settings-form';
-import { formatAge, formatMoney, waitAgainstTarget } from '../../../../web/features/urgent/utils/urgent-text';
+import { formatAge, waitAgainstTarget } from '../../../../web/features/urgent/utils/urgent-text';
 import { wallInstantText, wallText } from '../../../../web/features/urgent/utils/wall-clock';
 
 const photoId = '3b0b6c9e-1f1a-4c55-9a3e-5f1f0c7a2d11';
@@ -75,8 +77,6 @@ describe('the new-request form', () => {
 
 const defaults = (): SettingsFormValues => ({
   ackTargetMinutes: '30',
-  callOutFee: '',
-  currency: 'gbp',
   firstAid: Object.fromEntries(
     urgentCategories.map((category) => [
       category,
@@ -89,10 +89,21 @@ const defaults = (): SettingsFormValues => ({
 });
 
 describe('the settings form', () => {
-  it('reads the fee as money typed, blank as none', () => {
-    expect(settingsFormSchema.parse({ ...defaults(), callOutFee: '85,50' }).callOutFeeCents).toBe(8550);
-    expect(settingsFormSchema.parse(defaults()).callOutFeeCents).toBeNull();
-    expect(settingsFormSchema.parse(defaults()).currency).toBe('GBP');
+  it('sends the target and the first aid only, as the fee lives on the price list', () => {
+    const input = settingsFormSchema.parse({ ...defaults(), ackTargetMinutes: '45' });
+    expect(Object.keys(input).sort()).toEqual(['ackTargetMinutes', 'firstAid']);
+    expect(input.ackTargetMinutes).toBe(45);
+  });
+
+  it('refuses a target outside 5 to 1440 minutes, against its field', () => {
+    const issues = settingsFormSchema.safeParse({ ...defaults(), ackTargetMinutes: '2' }).error!.issues;
+    expect(issues.map((issue) => issue.path)).toEqual([['ackTargetMinutes']]);
+  });
+
+  it('places server issues under the target or a category, and nothing else', () => {
+    expect(settingsFieldFor('ackTargetMinutes')).toBe('ackTargetMinutes');
+    expect(settingsFieldFor('firstAid.leak.steps.2')).toBe('firstAid.leak.steps');
+    expect(settingsFieldFor('callOutFeeCents')).toBeNull();
   });
 
   it('sends the default text as null, so the category keeps following the default', () => {
@@ -166,8 +177,10 @@ describe('ages, targets and fees', () => {
     expect(waitAgainstTarget(created, 30, at(48))).toEqual({ waitedMs: 48 * minute, overByMs: 18 * minute });
   });
 
-  it('writes a fee in its currency', () => {
+  it('writes a fee from minor units in its currency, yen without decimals', () => {
     expect(formatMoney(8500, 'GBP')).toBe('£85.00');
     expect(formatMoney(12050, 'EUR')).toBe('€120.50');
+    // en-GB marks the yen as JP¥ (CLDR), to tell it from the yuan.
+    expect(formatMoney(8500, 'JPY')).toBe('JP¥8,500');
   });
 });

@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import { alertSeverities, type AlertSeverity } from '@shared/alerts/kinds';
+import { formatMoney } from '@shared/billing/money';
 import { parameterKey } from '@shared/parameters/keys';
 import { formatValue } from '@shared/parameters/units';
 import type { UrgentRequestView } from '@shared/schemas/urgent-requests';
@@ -8,10 +9,12 @@ import { defaultFirstAid, urgentCategoryNames } from '@shared/urgent/categories'
 import { openUrgentStatuses, urgentStatusNames, type UrgentStatus } from '@shared/urgent/lifecycle';
 import { SeverityBadge } from '../../../components/alert-badges';
 import { SectionCard } from '../../../components/section-card';
+import { can, useMe } from '../../../lib/auth';
 import { formatDateTime, formatNumber, relativeTime, useNow } from '../../../lib/format';
 import { useUrgentSettings } from '../api/get-urgent-settings';
-import { formatAge, formatMoney } from '../utils/urgent-text';
+import { formatAge } from '../utils/urgent-text';
 import { zoneName } from '../utils/wall-clock';
+import { DraftInvoiceButton } from '../../../components/draft-invoice-button';
 import { FirstAidPanel } from './first-aid-panel';
 import { UrgentStatusBadge } from './urgent-status-badge';
 import { UrgentStatusStepper } from './urgent-status-stepper';
@@ -53,6 +56,7 @@ function describeEvent(event: UrgentRequestView['events'][number]): string {
 /** Where the request stands: status, arrival, who is coming, or why not and what to do instead. */
 function StatusCard({ request, isStaff }: { request: UrgentRequestView; isStaff: boolean }) {
   const now = useNow(30_000);
+  const { data: me } = useMe();
   const visitHref =
     request.visitId === null
       ? null
@@ -138,6 +142,11 @@ function StatusCard({ request, isStaff }: { request: UrgentRequestView; isStaff:
             'The visit report follows once the technician has written it.'
           )}
         </p>
+      )}
+      {request.status === 'resolved' && isStaff && can(me, 'invoices:manage') && (
+        <div className="mt-3">
+          <DraftInvoiceButton source={{ urgentRequestId: request.id }} />
+        </div>
       )}
       {/* The answer first (why not, when, or done), then the way there. */}
       <div className="mt-4">

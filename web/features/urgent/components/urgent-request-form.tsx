@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { useController, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router';
+import { formatMoney } from '@shared/billing/money';
 import {
   defaultFirstAid,
   urgentCategories,
@@ -28,7 +29,6 @@ import {
   type RequestDraft,
   type RequestFormValues,
 } from '../utils/request-form';
-import { formatMoney } from '../utils/urgent-text';
 import { FirstAidPanel } from './first-aid-panel';
 import { RequestEquipmentField } from './request-equipment-field';
 import { RequestPhotosField } from './request-photos-field';
@@ -78,10 +78,11 @@ function useKeepDraft(form: RequestForm, tankId: string) {
   };
 }
 
-function CallOutFee({ cents, currency }: { cents: number; currency: string }) {
+/** `minor`: the fee in the currency's minor unit (cents, pence; whole yen). */
+function CallOutFee({ minor, currency }: { minor: number; currency: string }) {
   return (
     <div className="rounded-lg border-2 border-ink-800 bg-sand-100 p-4">
-      <p className="text-lg font-bold text-ink-900">Call-out fee: {formatMoney(cents, currency)}</p>
+      <p className="text-lg font-bold text-ink-900">Call-out fee: {formatMoney(minor, currency)}</p>
       <p className="mt-1 text-ink-900">The call-out fee is charged once a technician comes out.</p>
     </div>
   );
@@ -225,7 +226,7 @@ function RequestFields({
       </SectionCard>
       <div className="grid gap-3">
         {fee !== null && fee > 0 && settings.data && (
-          <CallOutFee cents={fee} currency={settings.data.currency} />
+          <CallOutFee minor={fee} currency={settings.data.currency} />
         )}
         {!online && (
           <p className="rounded-lg bg-watch-100 p-3 font-bold text-watch-700">

@@ -1,5 +1,7 @@
 import { useState } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
+import { Link } from 'react-router';
+import { formatMoney } from '@shared/billing/money';
 import type { UrgentSettingsView } from '@shared/schemas/urgent-requests';
 import {
   defaultFirstAid,
@@ -10,7 +12,7 @@ import {
 import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
 import { Form, FormProblem, SubmitButton, useZodForm } from '../../../components/form';
-import { DecimalField, TextAreaField, TextField } from '../../../components/form-fields';
+import { DecimalField, TextAreaField } from '../../../components/form-fields';
 import { SectionCard } from '../../../components/section-card';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { useUrgentSettings } from '../api/get-urgent-settings';
@@ -94,22 +96,19 @@ function SettingsForm({ settings }: { settings: UrgentSettingsView }) {
           suffix="min"
           className="sm:max-w-xs"
         />
-        <div className="grid gap-4 sm:grid-cols-[minmax(0,16rem)_minmax(0,10rem)]">
-          <DecimalField<SettingsFormValues>
-            name="callOutFee"
-            label="Call-out fee"
-            hint="Leave blank for none. Owners see it before they send a request."
-          />
-          <TextField<SettingsFormValues>
-            name="currency"
-            label="Currency"
-            hint="ISO 4217 code, e.g. GBP"
-            maxLength={3}
-            autoComplete="off"
-            spellCheck={false}
-            autoCapitalize="characters"
-          />
-        </div>
+        <p className="text-ink-900">
+          The call-out fee is set on the{' '}
+          <Link to="/console/billing" className="font-bold text-brine-700">
+            price list
+          </Link>
+          . Owners see it before they send a request; it is{' '}
+          {settings.callOutFeeCents === null || settings.callOutFeeCents === 0 ? (
+            'none at the moment'
+          ) : (
+            <strong>{formatMoney(settings.callOutFeeCents, settings.currency)}</strong>
+          )}
+          .
+        </p>
       </SectionCard>
       <div>
         <h2 className="text-xl font-bold text-ink-900">First aid by category</h2>
@@ -138,7 +137,7 @@ function SettingsForm({ settings }: { settings: UrgentSettingsView }) {
   );
 }
 
-/** The company's urgent-visit settings (admins): response target, call-out fee, first aid. */
+/** The company's urgent-visit settings (admins): response target and first aid; the fee is on the price list. */
 export function UrgentSettingsEditor() {
   const settings = useUrgentSettings();
   if (settings.isPending) return <LoadingState label="Loading the settings…" />;

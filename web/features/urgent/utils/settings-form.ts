@@ -8,9 +8,9 @@ import { defaultFirstAid, urgentCategories, type UrgentCategory } from '@shared/
 import { decimalText } from '../../../lib/form-values';
 
 /*
- * The settings as the screen holds them: the fee as money typed ("85" or "85,50"), blank for none,
- * and each category's steps and cautions as text, one per line. Text equal to the default is sent as
- * null, so the category keeps following the default.
+ * The settings as the screen holds them: the target as typed, and each category's steps and cautions
+ * as text, one per line. Text equal to the default is sent as null, so the category keeps following
+ * the default. The call-out fee is not here: it lives on the price list.
  */
 
 const lines = (text: string) =>
@@ -38,11 +38,6 @@ const firstAidText = z.object({ steps: z.string(), cautions: z.string() });
 export const settingsFormSchema = z
   .object({
     ackTargetMinutes: decimalText(urgentSettingsInput.shape.ackTargetMinutes),
-    callOutFee: z
-      .string()
-      .transform((text) => (text.trim() === '' ? null : text))
-      .pipe(decimalText(z.number().min(0, 'At least 0.').max(10_000, 'At most 10,000.')).nullable()),
-    currency: z.string().transform((text) => text.trim().toUpperCase()),
     firstAid: z.object(
       Object.fromEntries(urgentCategories.map((c) => [c, firstAidText])) as Record<
         UrgentCategory,
@@ -76,8 +71,6 @@ export const settingsFormSchema = z
   })
   .transform((form): UrgentSettingsInput => ({
     ackTargetMinutes: form.ackTargetMinutes,
-    callOutFeeCents: form.callOutFee === null ? null : Math.round(form.callOutFee * 100),
-    currency: form.currency,
     firstAid: Object.fromEntries(
       urgentCategories.map((category) => {
         const text = form.firstAid[category];
@@ -95,8 +88,6 @@ export type SettingsFormValues = z.input<typeof settingsFormSchema>;
 export function settingsFormValues(settings: UrgentSettingsView): SettingsFormValues {
   return {
     ackTargetMinutes: String(settings.ackTargetMinutes),
-    callOutFee: settings.callOutFeeCents === null ? '' : (settings.callOutFeeCents / 100).toFixed(2),
-    currency: settings.currency,
     firstAid: Object.fromEntries(
       urgentCategories.map((category) => [
         category,
@@ -109,11 +100,10 @@ export function settingsFormValues(settings: UrgentSettingsView): SettingsFormVa
   };
 }
 
-/** `callOutFeeCents` lands under the fee; `firstAid.leak.steps.2` under that category's steps. */
+/** `firstAid.leak.steps.2` lands under that category's steps. */
 export function settingsFieldFor(path: string): string | null {
-  if (path === 'callOutFeeCents') return 'callOutFee';
   const firstAid = /^firstAid\.(\w+)\.(steps|cautions)/.exec(path);
   if (firstAid) return `firstAid.${firstAid[1]}.${firstAid[2]}`;
-  if (path === 'ackTargetMinutes' || path === 'currency') return path;
+  if (path === 'ackTargetMinutes') return path;
   return null;
 }

@@ -1,6 +1,6 @@
 /*
- * How the urgent screens say ages and money. Ages count whole minutes the way a dispatcher says
- * them ("18 min", "1 h 05 min"); fees use the company's currency with the reader's conventions.
+ * How the urgent screens say ages: whole minutes the way a dispatcher says them ("18 min",
+ * "1 h 05 min"). Fees are written by formatMoney in shared/billing/money.ts.
  */
 
 const minuteMs = 60_000;
@@ -13,18 +13,6 @@ export function formatAge(ms: number): string {
   const hours = Math.floor(minutes / 60);
   if (hours < 24) return `${hours} h ${String(minutes % 60).padStart(2, '0')} min`;
   return `${Math.floor(hours / 24)} d ${hours % 24} h`;
-}
-
-const moneyFormats = new Map<string, Intl.NumberFormat>();
-
-/** "£85.00": an amount in cents (hundredths, as the API keeps every fee) in its ISO 4217 currency. */
-export function formatMoney(cents: number, currency: string): string {
-  let format = moneyFormats.get(currency);
-  if (!format) {
-    format = new Intl.NumberFormat('en-GB', { style: 'currency', currency });
-    moneyFormats.set(currency, format);
-  }
-  return format.format(cents / 100);
 }
 
 /**

@@ -7,16 +7,25 @@ import { Button } from '../../../components/button';
 import { Form, FormProblem, useZodForm } from '../../../components/form';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { TipSuggestions } from '../../../components/tip-suggestions';
+import { can, useMe } from '../../../lib/auth';
 import { applyServerIssues } from '../../../lib/form-issues';
 import { formatDateTime } from '../../../lib/format';
 import { useEquipment } from '../../../lib/queries/equipment';
 import { useVisit } from '../api/get-visit';
 import { usePublishReport } from '../api/publish-report';
-import { formValuesOf, reportFieldFor, reportFormSchema, type ReportFormValues } from '../utils/report-form';
+import {
+  formValuesOf,
+  keptFormValues,
+  reportFieldFor,
+  reportFormSchema,
+  type ReportFormValues,
+} from '../utils/report-form';
+import { DraftInvoiceButton } from '../../../components/draft-invoice-button';
 import { PhotosSection } from './report-photos';
 import {
   CarriedItemsSection,
   ChecklistSection,
+  ItemsUsedSection,
   LivestockSection,
   NextSection,
   NotesSection,
@@ -82,14 +91,15 @@ function ReportForm({
   const start: { values: ReportFormValues; state: SyncState } = !local
     ? { values: serverValues, state: { kind: 'saved', at: null } }
     : local.baseVersion === visit.version
-      ? { values: local.values, state: { kind: 'waiting' } }
-      : { values: local.values, state: { kind: 'conflict', theirs: visit } };
+      ? { values: keptFormValues(local.values), state: { kind: 'waiting' } }
+      : { values: keptFormValues(local.values), state: { kind: 'conflict', theirs: visit } };
   const [initial] = useState(start);
   const form = useZodForm(schema, { defaultValues: initial.values });
   const sync = useReportSync({ visit, form, schema, startVersion: visit.version, startState: initial.state });
   const publish = usePublishReport(visit.id);
   const [published, setPublished] = useState<string | null>(null);
   const wasPublished = visit.published !== null;
+  const { data: me } = useMe();
 
   return (
     <Form
@@ -149,6 +159,7 @@ function ReportForm({
           tank’s readings or livestock screens.
         </p>
       )}
+      <ItemsUsedSection />
       <PhotosSection tankId={visit.tankId} visitId={visit.id} />
       <NotesSection />
       <NextSection />
@@ -170,6 +181,15 @@ function ReportForm({
           {publish.isPending ? 'Publishing…' : wasPublished ? 'Publish the changes' : 'Publish report'}
         </Button>
       </div>
+      {wasPublished && can(me, 'invoices:manage') && (
+        <div className="rounded-card bg-white p-4 shadow-card">
+          <p className="mb-2 text-sm text-ink-700">
+            The invoice is drafted from the published report: its service, time on site, consumables and
+            parts.
+          </p>
+          <DraftInvoiceButton source={{ visitId: visit.id }} />
+        </div>
+      )}
       {published && <TipSuggestions tankId={visit.tankId} />}
     </Form>
   );

@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import { z } from 'zod';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
+import { priceItemKindLabels } from '@shared/billing/invoices';
 import { concentrationAfterWaterChanges } from '@shared/chemistry/index';
 import { parametersFor, parameterCatalogue } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
@@ -31,13 +32,15 @@ import {
 import { Markdown } from '../../../components/markdown';
 import { SheetDialog } from '../../../components/sheet-dialog';
 import { parseDecimal } from '../../../lib/decimal';
-import { blankAsUndefined, decimalText } from '../../../lib/form-values';
+import { blankAsUndefined, decimalDefault, decimalText } from '../../../lib/form-values';
 import { formatNumber } from '../../../lib/format';
 import { useLatestReadings } from '../../../lib/queries/latest-readings';
 import { useEquipment } from '../../../lib/queries/equipment';
 import { useLivestock } from '../../../lib/queries/livestock';
+import { useOnline } from '../../../lib/use-online';
 import { useCompatibility, useSpeciesSearch } from '../api/get-report-context';
-import { litresFor, percentFor, wallText, type ReportFormValues } from '../utils/report-form';
+import { usePriceList } from '../../../lib/queries/price-list';
+import { litresFor, percentFor, quantityUsed, wallText, type ReportFormValues } from '../utils/report-form';
 
 const nowIn = (zone: string) => wallText(new Date().toISOString(), zone);
 
@@ -583,6 +586,150 @@ function PickLivestock({
         </div>
       </Form>
     </SheetDialog>
+  );
+}
+
+const addItemForm = z.object({
+  priceItemId: z.string().min(1, 'choose an item from the price list'),
+  quantity: decimalText(quantityUsed),
+});
+type AddItemValues = z.input<typeof addItemForm>;
+
+/** Which consumable or part, and how many, in a sheet over the report. */
+function AddItemUsed({
+  options,
+  onDone,
+}: {
+  options: { value: string; label: string }[];
+  onDone: (item: { priceItemId: string; quantity: number } | null) => void;
+}) {
+  const form = useZodForm(addItemForm, { defaultValues: { priceItemId: '', quantity: '1' } });
+  return (
+    <SheetDialog title="Add a consumable or part" onClose={() => onDone(null)}>
+      <Form form={form} className="grid gap-3" onSubmit={(values) => onDone(values)}>
+        <SelectField<AddItemValues>
+          name="priceItemId"
+          label="Item from the price list"
+          options={[{ value: '', label: 'Choose an item' }, ...options]}
+        />
+        <DecimalField<AddItemValues>
+          name="quantity"
+          label="Quantity"
+          hint="Up to two decimals, such as 1.5 for one and a half bags."
+          className="max-w-48"
+        />
+        <FormProblem />
+        <div className="flex flex-col-reverse gap-2 sm:flex-row sm:justify-end">
+          <Button tone="secondary" onClick={() => onDone(null)}>
+            Cancel
+          </Button>
+          <SubmitButton pending="Adding…">Add to the report</SubmitButton>
+        </div>
+      </Form>
+    </SheetDialog>
+  );
+}
+
+/**
+ * Consumables used and parts fitted, picked from the company's price list. The list is read once
+ * and kept, so a report opened before the connection dropped can still add from it; without it the
+ * items already chosen stay editable and a note says why nothing can be added.
+ */
+export function ItemsUsedSection() {
+  const { fields, append, remove } = useFieldArray<ReportFormValues, 'itemsUsed'>({ name: 'itemsUsed' });
+  const chosen = useWatch<ReportFormValues, 'itemsUsed'>({ name: 'itemsUsed' });
+  const priceList = usePriceList();
+  const online = useOnline();
+  const [adding, setAdding] = useState(false);
+  const items = priceList.data?.items ?? [];
+  const byId = new Map(items.map((item) => [item.id, item]));
+  const offered = items
+    .filter(
+      (item) => item.kind !== 'routine' && !item.archived && !chosen.some((c) => c.priceItemId === item.id),
+    )
+    .sort((a, b) => a.kind.localeCompare(b.kind) || a.name.localeCompare(b.name));
+
+  let picker;
+  if (priceList.data) {
+    picker =
+      offered.length === 0 ? (
+        <p className="text-sm text-ink-700">
+          {items.some((item) => item.kind !== 'routine' && !item.archived)
+            ? 'Every consumable and part on the price list is on this report.'
+            : 'The price list has no consumables or parts yet; an admin adds them under Price list.'}
+        </p>
+      ) : (
+        <Button tone="secondary" onClick={() => setAdding(true)}>
+          Add a consumable or part
+        </Button>
+      );
+  } else if (!online || priceList.fetchStatus === 'paused') {
+    picker = (
+      <p className="rounded-lg bg-watch-100 p-3 text-sm font-bold text-watch-700">
+        You are offline and this phone has not loaded the price list yet. Add consumables and parts once you
+        are back online; the rest of the report is kept.
+      </p>
+    );
+  } else if (priceList.isError) {
+    picker = (
+      <div className="flex flex-wrap items-center gap-2">
+        <p className="text-sm font-bold text-alert-700">The price list could not be loaded.</p>
+        <Button tone="secondary" onClick={() => void priceList.refetch()}>
+          Try again
+        </Button>
+      </div>
+    );
+  } else {
+    picker = <p className="text-sm text-ink-700">Loading the price list…</p>;
+  }
+
+  return (
+    <SectionCard
+      title="Consumables and parts used"
+      hint="From the price list. Owners see what was used, without prices; the invoice is drafted from it."
+    >
+      {fields.length > 0 && (
+        <ul className="grid gap-3">
+          {fields.map((field, index) => {
+            const item = byId.get(chosen[index]?.priceItemId ?? field.priceItemId);
+            const name = item
+              ? `${item.name}${item.archived ? ' (no longer on the price list)' : ''}`
+              : priceList.data
+                ? 'An item no longer on the price list'
+                : 'An item from the price list';
+            return (
+              <li
+                key={field.id}
+                className="grid grid-cols-[minmax(0,1fr)_auto] items-end gap-2 rounded-lg border border-ink-100 p-3"
+              >
+                <DecimalField<ReportFormValues>
+                  name={`itemsUsed.${index}.quantity`}
+                  label={name}
+                  hint={item ? priceItemKindLabels[item.kind] : undefined}
+                  suffix={item?.unit}
+                />
+                <Button tone="secondary" className="mb-0.5" onClick={() => remove(index)}>
+                  Remove<span className="sr-only"> {name}</span>
+                </Button>
+              </li>
+            );
+          })}
+        </ul>
+      )}
+      {picker}
+      {adding && (
+        <AddItemUsed
+          options={offered.map((item) => ({
+            value: item.id,
+            label: `${item.name} (${priceItemKindLabels[item.kind].toLowerCase()}, per ${item.unit})`,
+          }))}
+          onDone={(item) => {
+            if (item) append({ priceItemId: item.priceItemId, quantity: decimalDefault(item.quantity) });
+            setAdding(false);
+          }}
+        />
+      )}
+    </SectionCard>
   );
 }
 

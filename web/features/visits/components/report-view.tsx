@@ -16,6 +16,7 @@ import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
 import { Markdown } from '../../../components/markdown';
 import { ErrorState, LoadingState } from '../../../components/states';
+import { can, useMe } from '../../../lib/auth';
 import {
   formatDate,
   formatDateTime,
@@ -26,6 +27,7 @@ import {
 } from '../../../lib/format';
 import { useEquipment } from '../../../lib/queries/equipment';
 import { useLivestock } from '../../../lib/queries/livestock';
+import { usePriceList } from '../../../lib/queries/price-list';
 import { useVisitVersion } from '../api/get-visit';
 
 /*
@@ -87,6 +89,10 @@ export function ReportBody({
   /** The tank's zone, which the report's times are read in. */
   timeZone: string;
 }) {
+  const { data: me } = useMe();
+  // Names come from the price list, which staff read; an owner's view leaves this part out for now.
+  const priceList = usePriceList(content.itemsUsed.length > 0 && can(me, 'billing:read'));
+  const priceItems = new Map((priceList.data?.items ?? []).map((item) => [item.id, item]));
   const equipment = useEquipment(tankId, content.equipmentChecks.length > 0);
   const livestock = useLivestock(tankId, content.livestockChanges.length > 0);
   const equipmentNames = new Map(
@@ -196,6 +202,23 @@ export function ReportBody({
             {content.livestockChanges.map((change, index) => (
               <li key={index}>{livestockLine(change, names)}</li>
             ))}
+          </ul>
+        </Part>
+      )}
+
+      {content.itemsUsed.length > 0 && priceList.data && (
+        <Part title="Consumables and parts used">
+          <ul className="grid gap-1">
+            {content.itemsUsed.map((used) => {
+              const item = priceItems.get(used.priceItemId);
+              return (
+                <li key={used.priceItemId}>
+                  <span className="font-bold tabular-nums">{formatNumber(used.quantity, 2)}</span> ×{' '}
+                  {item ? item.name : 'an item no longer on the price list'}
+                  {item && item.unit !== 'each' && <span className="text-ink-700"> ({item.unit})</span>}
+                </li>
+              );
+            })}
           </ul>
         </Part>
       )}

@@ -3,9 +3,11 @@ import { Link } from 'react-router';
 import type { CarriedItem, VisitSummary } from '@shared/schemas/visits';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { VisitKindBadge, VisitStatusBadge } from '../../../components/visit-badges';
+import { can, useMe } from '../../../lib/auth';
 import { formatDate, formatVisitWindow } from '../../../lib/format';
 import { useTankVisits } from '../api/get-tank-visits';
 import { useVisit } from '../api/get-visit';
+import { DraftInvoiceButton } from '../../../components/draft-invoice-button';
 import { NextVisitCard } from './next-visit-card';
 import { ReportView } from './report-view';
 
@@ -21,6 +23,7 @@ const linkClass = 'inline-flex min-h-11 items-center font-bold text-brine-700';
 /** The report chosen (a notification's link, or a tap in the list), or the newest one. */
 function ShownReport({ visitId, tank, focused }: { visitId: string; tank: TankFacts; focused: boolean }) {
   const visit = useVisit(visitId);
+  const { data: me } = useMe();
   const ref = useRef<HTMLDivElement>(null);
   const loaded = visit.isSuccess;
   // A link to one report lands on it, below the next visit.
@@ -42,13 +45,14 @@ function ShownReport({ visitId, tank, focused }: { visitId: string; tank: TankFa
     );
   }
   return (
-    <div ref={ref} className="scroll-mt-4">
+    <div ref={ref} className="grid scroll-mt-4 gap-3">
       <ReportView
         visit={visit.data}
         tankName={tank.name}
         siteLabel={tank.siteLabel}
         companyName={tank.companyName}
       />
+      {can(me, 'invoices:manage') && <DraftInvoiceButton source={{ visitId: visit.data.id }} />}
     </div>
   );
 }

@@ -4,6 +4,7 @@ import { manualReadingInput } from '@shared/schemas/readings';
 import {
   dosingRefill,
   equipmentCheckState,
+  itemUsed,
   livestockChange,
   nextVisitEntry,
   reportPhoto,
@@ -46,6 +47,11 @@ export function wallText(iso: string | null, zone: string): string {
 
 const optionalDecimal = <S extends z.ZodType>(schema: S) => decimalText(schema.optional());
 
+/** The shared rule for a quantity used, saying in its words that a blank one is missing. */
+export const quantityUsed = z
+  .number({ error: (issue) => (issue.input === undefined ? 'enter a quantity' : undefined) })
+  .pipe(itemUsed.shape.quantity);
+
 export function reportFormSchema(zone: string) {
   const at = instantIn(zone);
   return z
@@ -85,6 +91,12 @@ export function reportFormSchema(zone: string) {
       closedItemIds: z.array(z.string()),
       nextItems: z.array(z.object({ text: z.string() })),
       nextVisit: z.object({ date: z.string(), startTime: z.string(), endTime: z.string() }),
+      itemsUsed: z.array(
+        z.object({
+          priceItemId: itemUsed.shape.priceItemId,
+          quantity: decimalText(quantityUsed),
+        }),
+      ),
     })
     .transform((form, ctx): VisitReportInput => {
       const percent = form.waterChange.percent.trim();
@@ -155,6 +167,7 @@ export function reportFormSchema(zone: string) {
         closedItemIds: form.closedItemIds,
         nextItems: form.nextItems.map((item) => item.text.trim()).filter((text) => text !== ''),
         nextVisit,
+        itemsUsed: form.itemsUsed,
       };
     })
     .pipe(visitReportContent);
@@ -200,7 +213,20 @@ export function formValuesOf(
     closedItemIds: content.closedItemIds,
     nextItems: content.nextItems.map((text) => ({ text })),
     nextVisit: content.nextVisit ?? { date: '', startTime: '', endTime: '' },
+    itemsUsed: content.itemsUsed.map((item) => ({
+      priceItemId: item.priceItemId,
+      quantity: decimalDefault(item.quantity),
+    })),
   };
+}
+
+/**
+ * A copy kept on this phone before the report had every part it has now (consumables and parts
+ * came later) gets the missing parts empty, so it still opens and saves.
+ */
+export function keptFormValues(kept: ReportFormValues): ReportFormValues {
+  const partial = kept as Partial<ReportFormValues> & Omit<ReportFormValues, 'itemsUsed'>;
+  return { ...partial, itemsUsed: partial.itemsUsed ?? [] };
 }
 
 /** Where a server issue's path (`content.waterChange.litres`) lives on this form. */
