@@ -27,6 +27,7 @@ import {
   equipment,
   livestock,
   photos,
+  priceItems,
   tanks,
   users,
   visitItems,
@@ -213,17 +214,32 @@ async function detailOf(db: Db, actor: Actor, row: SummaryRow): Promise<VisitDet
     .where(eq(visitReportVersions.visitId, visit.id))
     .orderBy(desc(visitReportVersions.version));
   const staff = isStaff(actor);
+  const draft = staff ? contentOf(visit.draft) : null;
+  const published = visit.published === null ? null : contentOf(visit.published);
+  const usedIds = [
+    ...new Set(
+      [...(draft?.itemsUsed ?? []), ...(published?.itemsUsed ?? [])].map((item) => item.priceItemId),
+    ),
+  ];
+  const usedItems =
+    usedIds.length === 0
+      ? []
+      : await db
+          .select({ id: priceItems.id, name: priceItems.name, unit: priceItems.unit })
+          .from(priceItems)
+          .where(and(eq(priceItems.companyId, visit.companyId), inArray(priceItems.id, usedIds)));
   return {
     ...summaryOf(row, staff),
-    draft: staff ? contentOf(visit.draft) : null,
+    draft,
     version: visit.version,
-    published: visit.published === null ? null : contentOf(visit.published),
+    published,
     publishedBy:
       visit.publishedBy && row.publisherName ? { id: visit.publishedBy, name: row.publisherName } : null,
     carriedItems: staff ? await itemsFor(db, visit.tankId, visit.id) : [],
     systemVolumeL: tank!.display + tank!.sump,
     waterType: tank!.waterType,
     earlierVersions: versions.map((v) => ({ version: v.version, publishedAt: v.publishedAt.toISOString() })),
+    usedItems,
   };
 }
 

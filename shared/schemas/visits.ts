@@ -290,6 +290,8 @@ export interface VisitDetail extends VisitSummary {
   systemVolumeL: number;
   waterType: WaterType;
   earlierVersions: { version: number; publishedAt: string }[];
+  /** Names of the price-list items the report's consumables and parts name (owners cannot read the price list). */
+  usedItems: { id: string; name: string; unit: string }[];
 }
 
 export interface ReportConflict {

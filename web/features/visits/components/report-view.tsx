@@ -16,7 +16,6 @@ import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
 import { Markdown } from '../../../components/markdown';
 import { ErrorState, LoadingState } from '../../../components/states';
-import { can, useMe } from '../../../lib/auth';
 import {
   formatDate,
   formatDateTime,
@@ -27,7 +26,6 @@ import {
 } from '../../../lib/format';
 import { useEquipment } from '../../../lib/queries/equipment';
 import { useLivestock } from '../../../lib/queries/livestock';
-import { usePriceList } from '../../../lib/queries/price-list';
 import { useVisitVersion } from '../api/get-visit';
 
 /*
@@ -83,16 +81,16 @@ export function ReportBody({
   content,
   tankId,
   timeZone,
+  usedItems,
 }: {
   content: VisitReportContent;
   tankId: string;
   /** The tank's zone, which the report's times are read in. */
   timeZone: string;
+  /** Names of the consumables and parts the report names (the visit detail carries them for everyone). */
+  usedItems: VisitDetail['usedItems'];
 }) {
-  const { data: me } = useMe();
-  // Names come from the price list, which staff read; an owner's view leaves this part out for now.
-  const priceList = usePriceList(content.itemsUsed.length > 0 && can(me, 'billing:read'));
-  const priceItems = new Map((priceList.data?.items ?? []).map((item) => [item.id, item]));
+  const priceItems = new Map(usedItems.map((item) => [item.id, item]));
   const equipment = useEquipment(tankId, content.equipmentChecks.length > 0);
   const livestock = useLivestock(tankId, content.livestockChanges.length > 0);
   const equipmentNames = new Map(
@@ -206,7 +204,7 @@ export function ReportBody({
         </Part>
       )}
 
-      {content.itemsUsed.length > 0 && priceList.data && (
+      {content.itemsUsed.length > 0 && (
         <Part title="Consumables and parts used">
           <ul className="grid gap-1">
             {content.itemsUsed.map((used) => {
@@ -293,7 +291,14 @@ function EarlierVersion({ visit, version }: { visit: VisitDetail; version: numbe
       <ErrorState error={earlier.error} what="the earlier text" onRetry={() => void earlier.refetch()} />
     );
   }
-  return <ReportBody content={earlier.data} tankId={visit.tankId} timeZone={visit.timeZone} />;
+  return (
+    <ReportBody
+      content={earlier.data}
+      tankId={visit.tankId}
+      timeZone={visit.timeZone}
+      usedItems={visit.usedItems}
+    />
+  );
 }
 
 function EarlierVersions({ visit }: { visit: VisitDetail }) {
@@ -392,7 +397,7 @@ export function ReportView({
         </div>
       )}
       <div className="mt-5">
-        <ReportBody content={content} tankId={visit.tankId} timeZone={zone} />
+        <ReportBody content={content} tankId={visit.tankId} timeZone={zone} usedItems={visit.usedItems} />
       </div>
     </article>
   );
