@@ -1,5 +1,5 @@
 import { and, asc, eq, gte, lt, ne } from 'drizzle-orm';
-import { documentNumber, invoiceStatusLabels, paymentMethodLabels } from '@shared/billing/invoices';
+import { documentNumber, documentStatusLabel, paymentMethodLabels } from '@shared/billing/invoices';
 import { minorToText, quantityToText } from '@shared/billing/money';
 import { csvLine, guardText } from '@shared/readings/csv';
 import { addDays } from '@shared/schemas/equipment';
@@ -57,13 +57,13 @@ export function invoicesCsv(deps: AppDeps, actor: Actor, range: { from: string; 
     for (const { invoice, tankName } of rows) {
       const money = (minor: number) => minorToText(minor, invoice.currency);
       const balance =
-        invoice.kind === 'invoice' && invoice.status !== 'void'
+        invoice.kind === 'invoice' && invoice.status !== 'draft'
           ? invoice.totalMinor + invoice.creditedMinor - invoice.paidMinor
           : 0;
       yield csvLine([
         documentNumber(invoice.kind, invoice.number) ?? '',
         invoice.kind,
-        invoiceStatusLabels[invoice.status],
+        documentStatusLabel(invoice.kind, invoice.status),
         invoice.issueDate ?? '',
         invoice.dueDate ?? '',
         guardText(invoice.billToName),
@@ -118,7 +118,7 @@ export function paymentsCsv(deps: AppDeps, actor: Actor, range: { from: string; 
         paymentMethodLabels[payment.method],
         payment.currency,
         minorToText(payment.amountMinor, payment.currency),
-        guardText(payment.reference),
+        guardText(payment.reference || payment.providerPaymentId || payment.checkoutSessionId || ''),
       ]);
     }
   }

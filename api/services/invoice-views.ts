@@ -62,9 +62,8 @@ export async function invoiceFor(
 export const balanceOf = (
   row: Pick<InvoiceRow, 'status' | 'kind' | 'totalMinor' | 'creditedMinor' | 'paidMinor'>,
 ) =>
-  row.kind === 'invoice' && row.status !== 'draft' && row.status !== 'void'
-    ? row.totalMinor + row.creditedMinor - row.paidMinor
-    : 0;
+  // A cancelled invoice owes nothing, unless money came in anyway: then it shows as owed back.
+  row.kind === 'invoice' && row.status !== 'draft' ? row.totalMinor + row.creditedMinor - row.paidMinor : 0;
 
 export async function billToChoices(db: Db | Tx, tankId: string) {
   return db

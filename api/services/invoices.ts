@@ -90,6 +90,25 @@ function linesFrom(inputs: readonly InvoiceLineInput[], currency: string, sign: 
   return lines;
 }
 
+/** Lines may name price-list items of the company only; anything else is a 400 at the line. */
+async function checkPriceItems(db: Db | Tx, companyId: string, inputs: readonly InvoiceLineInput[]) {
+  const named = [
+    ...new Set(inputs.map((line) => line.priceItemId).filter((id): id is string => id !== null)),
+  ];
+  if (named.length === 0) return;
+  const known = await db
+    .select({ id: priceItems.id })
+    .from(priceItems)
+    .where(and(eq(priceItems.companyId, companyId), inArray(priceItems.id, named)));
+  const ids = new Set(known.map((row) => row.id));
+  const issues = inputs.flatMap((line, index) =>
+    line.priceItemId !== null && !ids.has(line.priceItemId)
+      ? [{ path: `body.lines.${index}.priceItemId`, message: 'No such item on the price list.' }]
+      : [],
+  );
+  if (issues.length > 0) throw badRequest('invalid_request', 'Some lines need attention.', issues);
+}
+
 function totalsOf(
   lines: readonly Pick<LineValues, 'amountMinor'>[],
   settings: Pick<BillingSettings, 'taxRateBp' | 'pricesIncludeTax'>,
@@ -427,6 +446,7 @@ export async function saveDraft(
   await deps.db.transaction(async (tx) => {
     const invoice = await lockedDraft(tx, actor, invoiceId, input.version);
     const settings = await billingSettingsOf(tx, actor.companyId);
+    await checkPriceItems(tx, actor.companyId, input.lines);
     const lines = linesFrom(input.lines, settings.currency, 1);
     const billTo = input.billToUserId
       ? (await billToChoices(tx, invoice.tankId)).find((owner) => owner.id === input.billToUserId)
@@ -611,6 +631,7 @@ export async function creditInvoice(
     if (invoice.kind !== 'invoice' || invoice.status === 'draft' || invoice.status === 'void') {
       throw conflict('not_creditable', 'Only an issued invoice can be credited.');
     }
+    await checkPriceItems(tx, actor.companyId, input.lines);
     const lines = linesFrom(input.lines, invoice.currency, -1);
     const note = await issueCreditNote(tx, deps, actor, invoice, lines, input.reason);
     const creditedMinor = invoice.creditedMinor + note.totalMinor;

@@ -240,7 +240,8 @@ async function applySessionEvent(
         typeof session.payment_intent === 'string'
           ? session.payment_intent
           : (session.payment_intent?.id ?? null),
-      reference: session.id,
+      // The session and payment ids are kept in their own columns; the reference is for people.
+      reference: '',
     });
     return { outcome: settledBefore ? 'paid-after-settled' : 'applied', receiptEvent, invoiceId };
   }

@@ -23,6 +23,15 @@ export const invoiceStatusLabels: Readonly<Record<InvoiceStatus, string>> = {
   void: 'Cancelled',
 };
 
+/**
+ * A credit note is never owed, so once issued it is simply "Issued", whatever state it is kept in;
+ * an invoice's states are the words above. Screens, e-mails and exports all say it this way.
+ */
+export function documentStatusLabel(kind: InvoiceKind, status: InvoiceStatus): string {
+  if (kind === 'credit-note' && status !== 'draft' && status !== 'void') return 'Issued';
+  return invoiceStatusLabels[status];
+}
+
 /** States in which the client still owes money. */
 export const unpaidStatuses: readonly InvoiceStatus[] = ['issued', 'overdue'];
 

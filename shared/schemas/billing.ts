@@ -216,7 +216,7 @@ export interface InvoiceSummary {
   billToName: string;
   currency: string;
   totalMinor: number;
-  /** What is still owed: total, less payments and credit notes (0 for drafts, paid and void). */
+  /** What is still owed: total, less credit notes and payments (0 for drafts; below 0 when more came in than was owed). */
   balanceMinor: number;
   issueDate: string | null;
   dueDate: string | null;

@@ -1,5 +1,4 @@
 import { request as httpsRequest } from 'node:https';
-import type { Page } from 'playwright-core';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, inject, it, onTestFinished } from 'vitest';
 import type { UrgentRequestView, UrgentSettingsView } from '@shared/schemas/urgent-requests';
@@ -11,11 +10,10 @@ import {
   artifactsDir,
   type BrowserSession,
   expectAxeClean,
-  expectNoSidewaysScroll,
+  checkAtBothWidths,
   openBrowser,
   screenshot,
   signInAt,
-  viewports,
 } from '../helpers/browser';
 
 /*
@@ -37,17 +35,6 @@ interface Mail {
   subject: string;
   text: string;
   headers: Record<string, string>;
-}
-
-/** axe, no sideways scroll and a full-page picture at each width; ends at `end`. */
-async function checkAtBothWidths(page: Page, name: string, end: keyof typeof viewports = 'phone') {
-  const order = end === 'phone' ? (['desktop', 'phone'] as const) : (['phone', 'desktop'] as const);
-  for (const viewport of order) {
-    await page.setViewportSize(viewports[viewport]);
-    await expectAxeClean(page, `${name} at ${viewports[viewport].width} px`);
-    await expectNoSidewaysScroll(page, `${name} at ${viewports[viewport].width} px`);
-    await screenshot(page, `${name}-${viewport}`);
-  }
 }
 
 /** What the push stand-in received, read over its own HTTPS with its self-signed certificate. */

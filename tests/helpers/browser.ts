@@ -143,3 +143,17 @@ export async function expectNoSidewaysScroll(page: Page, where: string) {
   const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
   expect(overflow, `${where} scrolls sideways`).toBeLessThanOrEqual(0);
 }
+
+/**
+ * A screen at both widths: axe clean, no sideways scroll, a screenshot of each. It ends at `end`'s
+ * width, so the test goes on at the width it was using.
+ */
+export async function checkAtBothWidths(page: Page, name: string, end: keyof typeof viewports = 'phone') {
+  const order = end === 'phone' ? (['desktop', 'phone'] as const) : (['phone', 'desktop'] as const);
+  for (const viewport of order) {
+    await page.setViewportSize(viewports[viewport]);
+    await expectAxeClean(page, `${name} at ${viewports[viewport].width} px`);
+    await expectNoSidewaysScroll(page, `${name} at ${viewports[viewport].width} px`);
+    await screenshot(page, `${name}-${viewport}`);
+  }
+}

@@ -1,4 +1,4 @@
-import { invoiceStatusLabels, type InvoiceKind, type InvoiceStatus } from '@shared/billing/invoices';
+import { documentStatusLabel, type InvoiceKind } from '@shared/billing/invoices';
 import { formatTaxRate } from '@shared/billing/money';
 import { formatDate, formatDay } from '../../../lib/format';
 
@@ -8,14 +8,8 @@ export function documentTitle(doc: { kind: InvoiceKind; number: string | null })
   return doc.number ? `${kind} ${doc.number}` : `Draft ${kind.toLowerCase()}`;
 }
 
-/**
- * A credit note is never owed, so once issued it is simply "Issued", whatever state the API keeps
- * it in; an invoice's states are the shared words.
- */
-export function statusLabel(kind: InvoiceKind, status: InvoiceStatus): string {
-  if (kind === 'credit-note' && status !== 'draft' && status !== 'void') return 'Issued';
-  return invoiceStatusLabels[status];
-}
+/** The shared words for a document's state (a credit note, once issued, is "Issued"). */
+export const statusLabel = documentStatusLabel;
 
 /** "VAT 20 %": the tax's own name with its rate. */
 export const taxLine = (taxLabel: string, taxRateBp: number) => `${taxLabel} ${formatTaxRate(taxRateBp)}`;
