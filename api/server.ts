@@ -1,7 +1,6 @@
 import { once } from 'node:events';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
 import { createDeps, type AppDeps } from './deps';
 import { listenForEvents } from './lib/event-bus';
@@ -12,9 +11,10 @@ import { connectDatabase } from './db/client';
 import { applyMigrations } from './db/migrations';
 import { loadEnvOrExit, type Env } from './env';
 import { isMain } from './lib/is-main';
+import { projectPath } from './lib/project-root';
 import { createLogger, type Logger } from './lib/logger';
 
-export const webDist = fileURLToPath(new URL('../dist/web', import.meta.url));
+export const webDist = projectPath('dist', 'web');
 
 export interface RunningServer {
   url: string;

@@ -21,6 +21,7 @@ const staticChecks: Check[] = [
   { name: 'lint', command: 'npx', args: ['eslint', '.', '--max-warnings', '0'] },
   { name: 'format', command: 'npx', args: ['prettier', '--check', '.', '--log-level', 'warn'] },
   { name: 'build', command: 'npx', args: ['vite', 'build', '--logLevel', 'warn'] },
+  { name: 'build the API bundle', command: 'npx', args: ['tsx', 'api/build.ts'] },
 ];
 
 function run(command: string, args: string[]): boolean {

@@ -1,8 +1,8 @@
-import { fileURLToPath } from 'node:url';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { projectPath } from '../lib/project-root';
 import type { Db } from './client';
 
-export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
+export const migrationsFolder = projectPath('drizzle');
 
 export async function applyMigrations(db: Db): Promise<void> {
   await migrate(db, { migrationsFolder });

@@ -1,4 +1,4 @@
-import { and, eq, exists, type SQL } from 'drizzle-orm';
+import { and, eq, exists, type Placeholder, type SQL } from 'drizzle-orm';
 import type { RequestHandler } from 'express';
 import type { Db } from '../db/client';
 import { tankMembers, tanks } from '../db/schema/index';
@@ -50,10 +50,19 @@ export function requireActor(actor: Actor | null | undefined): Actor {
   return actor;
 }
 
-export const isStaff = (actor: Actor) => actor.role !== 'owner';
+export const isStaff = (actor: Pick<Actor, 'role'>) => actor.role !== 'owner';
 
 /** The tanks an actor may see: their company's for staff, their memberships for owners. */
-export function visibleTanks(db: Db, actor: Actor): SQL {
+/**
+ * Who the visibility rule is about: an actor, or the shape of one whose id and company are a
+ * prepared statement's placeholders (the same rule, built once for a hot path).
+ */
+export type TankViewer = Pick<Actor, 'role'> & {
+  id: string | Placeholder;
+  companyId: string | Placeholder;
+};
+
+export function visibleTanks(db: Db, actor: TankViewer): SQL {
   const ownCompany = eq(tanks.companyId, actor.companyId);
   if (isStaff(actor)) return ownCompany;
   const membership = db

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, lte, sql } from 'drizzle-orm';
+import { and, desc, eq, lte, sql } from 'drizzle-orm';
 import { describeAlert, type AlertFacts } from '@shared/alerts/describe-alert';
 import { evaluateFreeAmmonia } from '@shared/alerts/free-ammonia';
 import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
@@ -17,10 +17,11 @@ import type { ParameterKey } from '@shared/parameters/keys';
 import { limitsInForce } from '@shared/parameters/limits-in-force';
 import { rateRuleFromHours } from '@shared/schemas/limits';
 import type { ParameterLimits, RateRule } from '@shared/parameters/limits';
+import type { TankStyle } from '@shared/parameters/limit-templates';
 import type { ReadingSource } from '@shared/readings/sources';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { Db } from '../db/client';
-import { alertRuleStates, companies, livestock, readings, tankLimits, tanks } from '../db/schema/index';
+import { readings } from '../db/schema/index';
 import { withTankAlerts, type AlertChange, type TankAlertStore, type Tx } from './alert-store';
 
 export interface NewReading {
@@ -44,35 +45,66 @@ interface TankContext {
   inhabitants: LivestockInhabitant[];
 }
 
-async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
-  const [tank] = await tx
-    .select({
-      id: tanks.id,
-      companyId: tanks.companyId,
-      name: tanks.name,
-      style: tanks.style,
-      timeZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
-    })
-    .from(tanks)
-    .innerJoin(companies, eq(companies.id, tanks.companyId))
-    .where(eq(tanks.id, tankId));
-  if (!tank) return null;
-  const rows = await tx.select().from(tankLimits).where(eq(tankLimits.tankId, tankId));
+interface ContextRow {
+  id: string;
+  companyId: string;
+  name: string;
+  style: TankStyle;
+  timeZone: string;
+  limits: OwnLimitRow[];
+  species: (string | null)[];
+  states: Record<string, unknown>;
+}
+
+interface OwnLimitRow {
+  parameter: ParameterKey;
+  warnLow: number | null;
+  warnHigh: number | null;
+  critLow: number | null;
+  critHigh: number | null;
+  rateMaxChange: number | null;
+  ratePerHours: number | null;
+}
+
+/** The rule states a pass reads once and writes back once, by rule key. */
+type RuleStates = Map<string, ThresholdState>;
+
+/**
+ * Everything the rules need about a tank, in one statement: the tank and its zone, its own limits
+ * and rate rules, the species living in it, and the rule states of `ruleKeys`.
+ */
+async function loadTank(
+  tx: Tx,
+  tankId: string,
+  ruleKeys: readonly string[],
+): Promise<{ tank: TankContext; states: RuleStates } | null> {
+  const { rows } = await tx.execute<ContextRow & Record<string, unknown>>(sql`
+    select t.id, t.company_id as "companyId", t.name, t.style,
+      coalesce(t.time_zone, c.time_zone) as "timeZone",
+      coalesce((select json_agg(json_build_object(
+          'parameter', l.parameter, 'warnLow', l.warn_low, 'warnHigh', l.warn_high,
+          'critLow', l.crit_low, 'critHigh', l.crit_high,
+          'rateMaxChange', l.rate_max_change, 'ratePerHours', l.rate_per_hours))
+        from tank_limits l where l.tank_id = t.id), '[]') as limits,
+      coalesce((select json_agg(a.catalogue_species_id) from livestock a
+        where a.tank_id = t.id and a.status = any(${sql.param([...presentStatuses])}::livestock_status[])), '[]') as species,
+      coalesce((select json_object_agg(s.rule_key, s.state) from alert_rule_states s
+        where s.tank_id = t.id and s.rule_key = any(${sql.param([...ruleKeys])}::text[])), '{}') as states
+    from tanks t join companies c on c.id = t.company_id
+    where t.id = ${tankId}::uuid`);
+  const row = rows[0];
+  if (!row) return null;
   const limits: Partial<Record<ParameterKey, ParameterLimits>> = {};
-  for (const [parameter, inForce] of Object.entries(limitsInForce(tank.style, rows)))
+  for (const [parameter, inForce] of Object.entries(limitsInForce(row.style, row.limits)))
     limits[parameter as ParameterKey] = inForce.limits;
   const rates: Partial<Record<ParameterKey, RateRule>> = {};
-  for (const row of rows) {
-    if (row.rateMaxChange !== null && row.ratePerHours !== null) {
-      rates[row.parameter] = rateRuleFromHours({ maxChange: row.rateMaxChange, perHours: row.ratePerHours });
+  for (const own of row.limits) {
+    if (own.rateMaxChange !== null && own.ratePerHours !== null) {
+      rates[own.parameter] = rateRuleFromHours({ maxChange: own.rateMaxChange, perHours: own.ratePerHours });
     }
   }
-  const animals = await tx
-    .select({ speciesId: livestock.catalogueSpeciesId })
-    .from(livestock)
-    .where(and(eq(livestock.tankId, tankId), inArray(livestock.status, [...presentStatuses])));
   const inhabitants: LivestockInhabitant[] = [];
-  for (const { speciesId } of animals) {
+  for (const speciesId of row.species) {
     const species = speciesId ? findSpecies(speciesId) : undefined;
     if (!species) continue;
     inhabitants.push({
@@ -82,23 +114,32 @@ async function loadTank(tx: Tx, tankId: string): Promise<TankContext | null> {
       ranges: species.profile.ranges,
     });
   }
-  return { ...tank, limits, rates, inhabitants };
+  const states: RuleStates = new Map();
+  for (const [ruleKey, state] of Object.entries(row.states)) {
+    const parsed = thresholdState.safeParse(state);
+    if (parsed.success) states.set(ruleKey, parsed.data);
+  }
+  const tank = {
+    id: row.id,
+    companyId: row.companyId,
+    name: row.name,
+    timeZone: row.timeZone,
+    limits,
+    rates,
+    inhabitants,
+  };
+  return { tank, states };
 }
 
-async function loadState(tx: Tx, tankId: string, ruleKey: string): Promise<ThresholdState> {
-  const [row] = await tx
-    .select({ state: alertRuleStates.state })
-    .from(alertRuleStates)
-    .where(and(eq(alertRuleStates.tankId, tankId), eq(alertRuleStates.ruleKey, ruleKey)));
-  const parsed = row ? thresholdState.safeParse(row.state) : null;
-  return parsed?.success ? parsed.data : initialThresholdState;
-}
-
-async function saveState(tx: Tx, tankId: string, ruleKey: string, state: ThresholdState) {
-  await tx
-    .insert(alertRuleStates)
-    .values({ tankId, ruleKey, state })
-    .onConflictDoUpdate({ target: [alertRuleStates.tankId, alertRuleStates.ruleKey], set: { state } });
+/** The pass's rule states, written back in one statement. */
+async function saveStates(tx: Tx, tankId: string, states: RuleStates) {
+  if (states.size === 0) return;
+  const keys = [...states.keys()];
+  await tx.execute(sql`
+    insert into alert_rule_states (tank_id, rule_key, state)
+    select ${tankId}::uuid, k.rule_key, k.state
+    from unnest(${sql.param(keys)}::text[], ${sql.param(keys.map((key) => JSON.stringify(states.get(key))))}::jsonb[]) as k(rule_key, state)
+    on conflict (tank_id, rule_key) do update set state = excluded.state, updated_at = now()`);
 }
 
 interface Transition {
@@ -152,12 +193,13 @@ async function applyTransition(
 async function evaluateLimit(
   store: TankAlertStore,
   tank: TankContext,
+  states: RuleStates,
   parameter: ParameterKey,
   batch: NewReading[],
   options: { rejudge?: boolean } = {},
 ) {
-  const ruleKey = `limit:${parameter}`;
-  let state = await loadState(store.tx, tank.id, ruleKey);
+  const ruleKey = limitRuleKey(parameter);
+  let state = states.get(ruleKey) ?? initialThresholdState;
   // Judging a reading already seen again (the limits changed) means forgetting that it was seen.
   if (options.rejudge) state = { ...state, lastMeasuredAt: null };
   const events: string[] = [];
@@ -204,7 +246,7 @@ async function evaluateLimit(
     const id = await applyTransition(store, tank, transition(outcome.action), type);
     if (id) events.push(id);
   }
-  await saveState(store.tx, tank.id, ruleKey, state);
+  states.set(ruleKey, state);
   return events;
 }
 
@@ -279,28 +321,58 @@ async function evaluateLivestockRule(
   return setCondition(store, tank, change, ruleKey, latest.measuredAt);
 }
 
+/** The rate rule in force for a parameter: the tank's own, else the catalogue's default. */
+function rateRuleOf(tank: TankContext, parameter: ParameterKey): RateRule | null {
+  return tank.rates[parameter] ?? parameterCatalogue[parameter].rateOfChange ?? null;
+}
+
+interface SeriesPoint {
+  value: number;
+  measuredAt: Date;
+}
+
+/**
+ * The readings each rate rule looks back over, for every parameter of the batch in one statement:
+ * twice the rule's period up to the parameter's latest reading, enough history for evaluateRate to
+ * average a slightly long gap.
+ */
+async function loadRateSeries(
+  tx: Tx,
+  tank: TankContext,
+  latest: ReadonlyMap<ParameterKey, NewReading>,
+): Promise<Map<ParameterKey, SeriesPoint[]>> {
+  const windows = [...latest].flatMap(([parameter, reading]) => {
+    const rule = rateRuleOf(tank, parameter);
+    return rule
+      ? [{ parameter, from: new Date(reading.measuredAt.getTime() - 2 * rule.perMs), to: reading.measuredAt }]
+      : [];
+  });
+  const series = new Map<ParameterKey, SeriesPoint[]>(windows.map((w) => [w.parameter, []]));
+  if (windows.length === 0) return series;
+  const { rows } = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
+    select w.parameter, r.value, r.measured_at
+    from unnest(
+      ${sql.param(windows.map((w) => w.parameter))}::parameter_key[],
+      ${sql.param(windows.map((w) => w.from.toISOString()))}::timestamptz[],
+      ${sql.param(windows.map((w) => w.to.toISOString()))}::timestamptz[]
+    ) as w(parameter, from_at, to_at)
+    join readings r on r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
+      and r.measured_at >= w.from_at and r.measured_at <= w.to_at
+    order by w.parameter, r.measured_at`);
+  for (const row of rows)
+    series.get(row.parameter)!.push({ value: row.value, measuredAt: new Date(row.measured_at) });
+  return series;
+}
+
 async function evaluateRateRule(
   store: TankAlertStore,
   tank: TankContext,
   parameter: ParameterKey,
   latest: NewReading,
+  series: readonly SeriesPoint[] | undefined,
 ) {
-  const rule = tank.rates[parameter] ?? parameterCatalogue[parameter].rateOfChange;
-  if (!rule) return null;
-  // Twice the rule's period: enough history for evaluateRate to average a slightly long gap.
-  const windowStart = new Date(latest.measuredAt.getTime() - 2 * rule.perMs);
-  const series = await store.tx
-    .select({ value: readings.value, measuredAt: readings.measuredAt })
-    .from(readings)
-    .where(
-      and(
-        eq(readings.tankId, tank.id),
-        eq(readings.parameter, parameter),
-        gte(readings.measuredAt, windowStart),
-        lte(readings.measuredAt, latest.measuredAt),
-      ),
-    )
-    .orderBy(asc(readings.measuredAt));
+  const rule = rateRuleOf(tank, parameter);
+  if (!rule || !series) return null;
   const outcome = evaluateRate(series, rule);
   const ruleKey = `rate:${parameter}`;
   if (outcome.breach) {
@@ -374,10 +446,14 @@ async function evaluateFreeAmmoniaRule(store: TankAlertStore, tank: TankContext,
   return setCondition(store, tank, change, ruleKey, latest.measuredAt);
 }
 
+const limitRuleKey = (parameter: ParameterKey) => `limit:${parameter}`;
+
 /**
  * Runs every rule that a batch of new readings can trigger, for one tank, in one transaction
  * serialised per tank (an advisory lock), so two batches cannot open the same alert twice.
  * Call it after the readings are committed. Returns the new alert events (the outbox).
+ * A batch that changes no alert costs five statements whatever its size: the lock, the tank's
+ * context with the rule states, its open alerts, the rate series, and the states written back.
  */
 export async function evaluateNewReadings(
   db: Db,
@@ -385,25 +461,35 @@ export async function evaluateNewReadings(
   batch: readonly NewReading[],
 ): Promise<string[]> {
   if (batch.length === 0) return [];
+  const byParameter = new Map<ParameterKey, NewReading[]>();
+  for (const reading of batch) {
+    const list = byParameter.get(reading.parameter);
+    if (list) list.push(reading);
+    else byParameter.set(reading.parameter, [reading]);
+  }
+  const latest = new Map<ParameterKey, NewReading>();
+  for (const [parameter, list] of byParameter) {
+    list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
+    latest.set(parameter, list.at(-1)!);
+  }
   return withTankAlerts(db, tankId, async (store) => {
-    const tank = await loadTank(store.tx, tankId);
-    if (!tank) return [];
+    const context = await loadTank(store.tx, tankId, [...byParameter.keys()].map(limitRuleKey));
+    if (!context) return [];
+    const { tank, states } = context;
+    const series = await loadRateSeries(store.tx, tank, latest);
     const events: string[] = [];
-    const byParameter = new Map<ParameterKey, NewReading[]>();
-    for (const reading of batch)
-      byParameter.set(reading.parameter, [...(byParameter.get(reading.parameter) ?? []), reading]);
     for (const [parameter, list] of byParameter) {
-      list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
-      const latest = list.at(-1)!;
-      events.push(...(await evaluateLimit(store, tank, parameter, list)));
+      const last = latest.get(parameter)!;
+      events.push(...(await evaluateLimit(store, tank, states, parameter, list)));
       for (const id of [
-        await evaluateLivestockRule(store, tank, parameter, latest),
-        await evaluateRateRule(store, tank, parameter, latest),
-        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(store, tank, latest) : null,
+        await evaluateLivestockRule(store, tank, parameter, last),
+        await evaluateRateRule(store, tank, parameter, last, series.get(parameter)),
+        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(store, tank, last) : null,
       ]) {
         if (id) events.push(id);
       }
     }
+    await saveStates(store.tx, tank.id, states);
     return events;
   });
 }
@@ -420,12 +506,20 @@ export async function rejudgeLatestReadings(
 ): Promise<string[]> {
   if (latest.length === 0) return [];
   return withTankAlerts(db, tankId, async (store) => {
-    const tank = await loadTank(store.tx, tankId);
-    if (!tank) return [];
+    const context = await loadTank(
+      store.tx,
+      tankId,
+      latest.map((reading) => limitRuleKey(reading.parameter)),
+    );
+    if (!context) return [];
+    const { tank, states } = context;
     const events: string[] = [];
     for (const reading of latest) {
-      events.push(...(await evaluateLimit(store, tank, reading.parameter, [reading], { rejudge: true })));
+      events.push(
+        ...(await evaluateLimit(store, tank, states, reading.parameter, [reading], { rejudge: true })),
+      );
     }
+    await saveStates(store.tx, tank.id, states);
     return events;
   });
 }

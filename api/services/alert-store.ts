@@ -65,14 +65,17 @@ export function withTankAlerts<T>(
   work: (store: TankAlertStore) => Promise<T>,
 ): Promise<T> {
   return db.transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${tankId}))`);
-    const { store, recordedEvents } = storeFor(tx, tankId);
-    const result = await work(store);
     // Nothing but rule state written (a reading that changed no alert, the common case on every
     // device batch): that commit need not wait for the disk. A crash in the next moment loses at
     // most that state's last step, which only delays an alert by a reading; the readings themselves
-    // are already durable, and every alert change commits durably.
-    if (!recordedEvents()) await tx.execute(sql`set local synchronous_commit = off`);
+    // are already durable. So the transaction starts without waiting (set with the lock, in the
+    // same statement) and asks for a durable commit again as soon as it changes an alert.
+    await tx.execute(
+      sql`select pg_advisory_xact_lock(hashtext(${tankId})), set_config('synchronous_commit', 'off', true)`,
+    );
+    const { store, recordedEvents } = storeFor(tx, tankId);
+    const result = await work(store);
+    if (recordedEvents()) await tx.execute(sql`set local synchronous_commit = on`);
     return result;
   });
 }

@@ -1,4 +1,3 @@
-import { sql } from 'drizzle-orm';
 import type { LivestockInhabitant } from '@shared/alerts/livestock';
 import { reportingGaps } from '@shared/alerts/stale-device';
 import { findSpecies } from '@shared/livestock/catalogue';
@@ -10,6 +9,7 @@ import type { ReadingSource } from '@shared/readings/sources';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import { judgeTank, type OpenAlertFact } from '@shared/tanks/status';
 import type { Db } from '../db/client';
+import { preparedStatement } from '../db/prepared';
 
 export type TankHealthSummary = TankHealth;
 
@@ -39,29 +39,18 @@ type HealthRow = {
   }> | null;
 };
 
-/**
- * Health of many tanks in ONE query that gathers the facts, decided by `judgeTank`
- * (shared/tanks/status.ts), so every screen that shows a status says the same thing:
- * - the latest reading per (tank, parameter) is a row of latest_readings, kept by a trigger in the
- *   statement that stores readings, so the cost follows the number of tanks, not the years of
- *   history behind them; a device's latest reading carries that device's last reports of the
- *   parameter, which set its freshness window;
- * - limits follow `limitsInForce` (shared/parameters/limits-in-force.ts: the tank's own row, else
- *   its style's template), tested against it;
- * - the present livestock (their care ranges make the comfort range) and the alerts not resolved.
- */
-export async function healthForTanks(
-  db: Db,
-  tankIds: string[],
-  now: Date,
-): Promise<Map<string, TankHealthSummary>> {
-  if (tankIds.length === 0) return new Map();
-  const result = await db.execute<HealthRow>(sql`
+/** The statement behind `healthForTanks`, sent by name (a hot path: every list and overview page). */
+const healthStatement = preparedStatement<
+  HealthRow,
+  [tankIds: string[], templates: string, present: string[]]
+>(
+  'tank_health',
+  `
     with wanted as (
-      select t.id, t.style::text as style from tanks t where t.id = any(${sql.param(tankIds)}::uuid[])
+      select t.id, t.style::text as style from tanks t where t.id = any($1::uuid[])
     ),
     templates as (
-      select * from jsonb_to_recordset(${templateRows}::jsonb)
+      select * from jsonb_to_recordset($2::jsonb)
         as x(style text, parameter text, "warnLow" float8, "warnHigh" float8, "critLow" float8, "critHigh" float8)
     ),
     pairs as (
@@ -90,7 +79,7 @@ export async function healthForTanks(
         select array_agg(lv.catalogue_species_id order by lv.created_at, lv.id)
         from livestock lv
         where lv.tank_id = w.id and lv.catalogue_species_id is not null
-          and lv.status::text = any(${sql.param([...presentStatuses])}::text[])
+          and lv.status::text = any($3::text[])
       ) as species,
       (
         select json_agg(
@@ -118,9 +107,29 @@ export async function healthForTanks(
     from wanted w
     left join pairs j on j.tank_id = w.id
     group by w.id
-  `);
+`,
+);
+
+/**
+ * Health of many tanks in ONE query that gathers the facts, decided by `judgeTank`
+ * (shared/tanks/status.ts), so every screen that shows a status says the same thing:
+ * - the latest reading per (tank, parameter) is a row of latest_readings, kept by a trigger in the
+ *   statement that stores readings, so the cost follows the number of tanks, not the years of
+ *   history behind them; a device's latest reading carries that device's last reports of the
+ *   parameter, which set its freshness window;
+ * - limits follow `limitsInForce` (shared/parameters/limits-in-force.ts: the tank's own row, else
+ *   its style's template), tested against it;
+ * - the present livestock (their care ranges make the comfort range) and the alerts not resolved.
+ */
+export async function healthForTanks(
+  db: Db,
+  tankIds: string[],
+  now: Date,
+): Promise<Map<string, TankHealthSummary>> {
+  if (tankIds.length === 0) return new Map();
+  const rows = await healthStatement(db, tankIds, templateRows, [...presentStatuses]);
   const health = new Map<string, TankHealthSummary>();
-  for (const row of result.rows) health.set(row.tank_id, summaryOf(row, now));
+  for (const row of rows) health.set(row.tank_id, summaryOf(row, now));
   return health;
 }
 

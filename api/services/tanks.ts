@@ -22,7 +22,7 @@ import type { z } from 'zod';
 import type { Db } from '../db/client';
 import { companies, photos, tankMembers, tankStatuses, tanks, users, visits } from '../db/schema/index';
 import { HttpError, type ErrorIssue } from '../lib/http-error';
-import { findTankFor, visibleTanks } from '../policy/index';
+import { findTankFor, isStaff, visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
 import { healthForTanks, type TankHealthSummary } from './tank-health';
 import { refreshTankStatus } from './tank-status';
@@ -58,12 +58,7 @@ export function containsPattern(text: string): string {
 async function ownersOf(db: Db, tankIds: string[]): Promise<Map<string, PersonRef[]>> {
   const byTank = new Map<string, PersonRef[]>(tankIds.map((id) => [id, []]));
   if (tankIds.length === 0) return byTank;
-  const rows = await db
-    .select({ tankId: tankMembers.tankId, id: users.id, name: users.name })
-    .from(tankMembers)
-    .innerJoin(users, eq(users.id, tankMembers.userId))
-    .where(inArray(tankMembers.tankId, tankIds))
-    .orderBy(asc(users.name));
+  const rows = await listStatements(db).owners.execute({ ids: tankIds });
   for (const row of rows) byTank.get(row.tankId)?.push({ id: row.id, name: row.name });
   return byTank;
 }
@@ -84,6 +79,67 @@ function summaryQuery(db: Db) {
 
 type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>>[number];
 
+/** Any of these tanks, by id: a prepared statement's placeholder holding an array of uuids. */
+const amongTanks = (column: typeof tankMembers.tankId | typeof visits.tankId) =>
+  sql`${column} = any(${sql.placeholder('ids')}::uuid[])`;
+
+/**
+ * The tank list's statements, opened with every dashboard: built once per database and sent by
+ * name, so each connection parses and plans them once and no request pays for building them. The
+ * list without filters uses them; a search or a technician filter is built per request.
+ */
+function prepareListStatements(db: Db) {
+  const ordered = [asc(tanks.name), asc(tanks.id)];
+  const viewer = (role: 'owner' | 'admin') => ({
+    role,
+    id: sql.placeholder('actorId'),
+    companyId: sql.placeholder('companyId'),
+  });
+  return {
+    ownerList: summaryQuery(db)
+      .where(visibleTanks(db, viewer('owner')))
+      .orderBy(...ordered)
+      .prepare('tank_list_owner'),
+    staffList: summaryQuery(db)
+      .where(visibleTanks(db, viewer('admin')))
+      .orderBy(...ordered)
+      .prepare('tank_list_staff'),
+    owners: db
+      .select({ tankId: tankMembers.tankId, id: users.id, name: users.name })
+      .from(tankMembers)
+      .innerJoin(users, eq(users.id, tankMembers.userId))
+      .where(amongTanks(tankMembers.tankId))
+      .orderBy(asc(users.name))
+      .prepare('tank_list_owners'),
+    nextVisits: db
+      .selectDistinctOn([visits.tankId], {
+        tankId: visits.tankId,
+        windowStart: visits.windowStart,
+        windowEnd: visits.windowEnd,
+        timeZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
+      })
+      .from(visits)
+      .innerJoin(tanks, eq(tanks.id, visits.tankId))
+      .innerJoin(companies, eq(companies.id, tanks.companyId))
+      .where(
+        and(
+          amongTanks(visits.tankId),
+          inArray(visits.status, ['scheduled', 'in-progress']),
+          gt(visits.windowEnd, sql`${sql.placeholder('now')}::timestamptz`),
+        ),
+      )
+      .orderBy(visits.tankId, asc(visits.windowStart))
+      .prepare('tank_list_next_visits'),
+  };
+}
+
+const preparedLists = new WeakMap<Db, ReturnType<typeof prepareListStatements>>();
+function listStatements(db: Db) {
+  let statements = preparedLists.get(db);
+  if (!statements) preparedLists.set(db, (statements = prepareListStatements(db)));
+  return statements;
+}
+
 /** Every tank gets a row from `healthForTanks`; this only covers one deleted mid-request. */
 const unknownHealth = { status: 'no-data', statusReason: 'No readings yet' } as const;
 
@@ -92,24 +148,7 @@ type NextVisit = TankSummary['nextVisit'];
 /** Each tank's next planned visit (one statement for the whole list). */
 async function nextVisitsOf(db: Db, tankIds: string[], now: Date): Promise<Map<string, NextVisit>> {
   if (tankIds.length === 0) return new Map();
-  const rows = await db
-    .selectDistinctOn([visits.tankId], {
-      tankId: visits.tankId,
-      windowStart: visits.windowStart,
-      windowEnd: visits.windowEnd,
-      timeZone: sql<string>`coalesce(${tanks.timeZone}, ${companies.timeZone})`,
-    })
-    .from(visits)
-    .innerJoin(tanks, eq(tanks.id, visits.tankId))
-    .innerJoin(companies, eq(companies.id, tanks.companyId))
-    .where(
-      and(
-        inArray(visits.tankId, tankIds),
-        inArray(visits.status, ['scheduled', 'in-progress']),
-        gt(visits.windowEnd, now),
-      ),
-    )
-    .orderBy(visits.tankId, asc(visits.windowStart));
+  const rows = await listStatements(db).nextVisits.execute({ ids: tankIds, now: now.toISOString() });
   return new Map(
     rows.map((row) => [
       row.tankId,
@@ -201,9 +240,17 @@ export async function listTanks(
   query: TankListQuery,
   now: Date,
 ): Promise<TankSummary[]> {
-  const rows = await summaryQuery(db)
-    .where(and(visibleTanks(db, actor), ...listFilters(db, query)))
-    .orderBy(asc(tanks.name), asc(tanks.id));
+  const filters = listFilters(db, query);
+  const statements = listStatements(db);
+  const rows =
+    filters.length > 0
+      ? await summaryQuery(db)
+          .where(and(visibleTanks(db, actor), ...filters))
+          .orderBy(asc(tanks.name), asc(tanks.id))
+      : await (isStaff(actor) ? statements.staffList : statements.ownerList).execute({
+          actorId: actor.id,
+          companyId: actor.companyId,
+        });
   return summariesOf(db, rows, now);
 }
 

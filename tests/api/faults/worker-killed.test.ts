@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { deliveries } from '../../../api/db/schema/index';
 import { queues, startJobQueue } from '../../../api/lib/job-queue';
 import { createLogger } from '../../../api/lib/logger';
+import { buildServer } from '../../../api/build';
 import { evaluateNewReadings } from '../../../api/services/alert-engine';
 import { afterAlertEvents } from '../../../api/services/alerts';
 import { startWorkers } from '../../../api/services/workers';
@@ -24,7 +25,7 @@ import { startTestStack, testClient, type TestStack } from '../../helpers/stack'
  * An API process dies (SIGKILL) while it is sending an alert e-mail. Its job stays active in
  * pg-boss with nobody sending its heartbeat; a second instance on the same database must retry it
  * and deliver the e-mail exactly once. The first instance runs as a real separate process
- * (api/server.ts), so the kill leaves exactly what a crash leaves: no graceful stop, no failed job.
+ * (the production bundle, dist/api/server.mjs, built here), so the kill leaves exactly what a crash leaves: no graceful stop, no failed job.
  */
 
 /**
@@ -84,7 +85,7 @@ describe('a worker killed while it delivers an e-mail', () => {
     tank = await createTank(db, { companyId: company.id, name: 'Lobby reef', owners: [owner] });
 
     const port = await freePort();
-    first = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
+    first = spawn(process.execPath, [await buildServer()], {
       env: {
         ...process.env,
         NODE_ENV: 'test',

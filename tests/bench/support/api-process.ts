@@ -1,10 +1,11 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { openSync, readFileSync, writeFileSync } from 'node:fs';
 import { setTimeout as sleep } from 'node:timers/promises';
+import { buildServer } from '../../../api/build';
 
 /**
- * The API in a process of its own (`node --import tsx api/server.ts`), as production runs it, so
- * its memory and CPU are its own and not the load generator's.
+ * The API in a process of its own, as production runs it (`npm run build`, then
+ * `node dist/api/server.mjs`), so its memory and CPU are its own and not the load generator's.
  */
 export interface ApiProcess {
   origin: string;
@@ -22,6 +23,9 @@ export interface ApiProcess {
 
 const clockTicks = 100;
 
+/** Built once per bench run, from the sources as they are. */
+let bundle: Promise<string> | undefined;
+
 function statusField(pid: number, field: string): number {
   const match = new RegExp(`^${field}:\\s+(\\d+) kB`, 'm').exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
   if (!match) throw new Error(`/proc/${pid}/status has no ${field}`);
@@ -34,7 +38,12 @@ export async function startApiProcess(options: {
   logFile: string;
 }): Promise<ApiProcess> {
   const log = openSync(options.logFile, 'a');
-  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
+  bundle ??= buildServer();
+  // BENCH_CPU_PROF=<folder>: a V8 CPU profile of the API, written there when it stops.
+  const profile = process.env.BENCH_CPU_PROF
+    ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`]
+    : [];
+  const child: ChildProcess = spawn(process.execPath, [...profile, await bundle], {
     env: { ...process.env, ...options.env, PORT: String(options.port) },
     stdio: ['ignore', log, log],
   });
