@@ -1,4 +1,5 @@
 import { PgBoss, type Queue } from 'pg-boss';
+import type { AlertSeverity } from '@shared/alerts/kinds';
 import type { Logger } from './logger';
 
 /** Every queue the app uses, created at start (pg-boss refuses to send to a missing queue). */
@@ -15,6 +16,13 @@ export const queues = {
   dead: 'deliveries-dead',
   sweep: 'alert-sweep',
 } as const;
+
+/**
+ * Job priority of an alert's fan-out and deliveries (pg-boss fetches the highest first): a critical
+ * reading is told ahead of a backlog of warnings, such as a whole site's devices falling silent at
+ * once after an internet outage.
+ */
+export const alertJobPriority: Record<AlertSeverity, number> = { critical: 2, warning: 1, notice: 0 };
 
 /*
  * A worker that dies mid-job stops the heartbeat `work()` sends every 15 s, and the next monitor pass

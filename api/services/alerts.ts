@@ -5,7 +5,7 @@ import type { Db } from '../db/client';
 import { alertEvents, alerts, tankMembers, tanks, users } from '../db/schema/index';
 import { publishEvent } from '../lib/event-bus';
 import { conflict, notFound } from '../lib/http-error';
-import { queues } from '../lib/job-queue';
+import { alertJobPriority, queues } from '../lib/job-queue';
 import { visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
 import { evaluateNewReadings, rejudgeLatestReadings, type NewReading } from './alert-engine';
@@ -169,15 +169,25 @@ export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[
   const changedTanks = new Set<string>();
   for (const eventId of eventIds) {
     const [row] = await deps.db
-      .select({ alertId: alerts.id, tankId: alerts.tankId, companyId: alerts.companyId })
+      .select({
+        alertId: alerts.id,
+        tankId: alerts.tankId,
+        companyId: alerts.companyId,
+        severity: alertEvents.severity,
+      })
       .from(alertEvents)
       .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
       .where(eq(alertEvents.id, eventId));
     if (!row) continue;
     changedTanks.add(row.tankId);
     await announceAlertChange(deps, row.tankId, row.companyId, row.alertId);
-    if (deps.jobs) await deps.jobs.send(queues.fanOut, { eventId }, { singletonKey: eventId });
-    else await fanOutAlertEvent(deps, eventId);
+    if (deps.jobs) {
+      await deps.jobs.send(
+        queues.fanOut,
+        { eventId },
+        { singletonKey: eventId, priority: alertJobPriority[row.severity] },
+      );
+    } else await fanOutAlertEvent(deps, eventId);
   }
   // The overview's order follows at once. The change is already stored and announced, and the
   // sweep and every overview page judge again, so a failure here is only logged.

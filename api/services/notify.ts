@@ -35,7 +35,7 @@ import {
 import { appOrigin } from '../env';
 import { publishEvent } from '../lib/event-bus';
 import { escapeHtml } from '../lib/html';
-import { queues } from '../lib/job-queue';
+import { alertJobPriority, queues } from '../lib/job-queue';
 import { alertTopic, type PushOutcome } from '../lib/web-push-sender';
 
 /** Who hears about an alert: the tank's owners and technician; for critical ones, whoever is on call. */
@@ -189,9 +189,11 @@ export async function fanOutAlertEvent(deps: AppDeps, eventId: string) {
         .onConflictDoNothing()
         .returning({ id: deliveries.id });
       if (created && deps.jobs) {
-        await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
-          deliveryId: created.id,
-        });
+        await deps.jobs.send(
+          delivery.channel === 'email' ? queues.email : queues.push,
+          { deliveryId: created.id },
+          { priority: alertJobPriority[event.severity] },
+        );
       }
     }
   }
@@ -551,9 +553,12 @@ export async function tellPerson(
       if (delivery.channel === 'push' && holdPushS > 0) {
         await deps.jobs.sendAfter(queues.push, { deliveryId: created.id }, null, holdPushS);
       } else {
-        await deps.jobs.send(delivery.channel === 'email' ? queues.email : queues.push, {
-          deliveryId: created.id,
-        });
+        await deps.jobs.send(
+          delivery.channel === 'email' ? queues.email : queues.push,
+          { deliveryId: created.id },
+          // An urgent request is told as soon as a critical alert; other news after both.
+          { priority: urgent ? alertJobPriority.critical : alertJobPriority.notice },
+        );
       }
     }
   }
