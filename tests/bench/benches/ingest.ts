@@ -78,7 +78,8 @@ async function drive(
       while (performance.now() < until) {
         const device = devices[next++ % devices.length]!;
         const used = (uses.get(device) ?? 0) + 1;
-        if (limited && used > perDevicePerMinute) throw new Error(`device pool too small: ${devices.length} devices`);
+        if (limited && used > perDevicePerMinute)
+          throw new Error(`device pool too small: ${devices.length} devices`);
         uses.set(device, used);
         const batch = batchOf(device);
         const t0 = performance.now();
