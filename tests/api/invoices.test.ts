@@ -214,6 +214,24 @@ describe('billing: price list, invoices, credit notes and payments', () => {
     return ok<InvoiceDetail>(ada.post(invoicePath(draft.id, '/issue'), { version: draft.version }));
   }
 
+  /** A payment recorded by an admin, received today; the caller checks the answer. */
+  const recordPayment = (invoiceId: string, amount: string, method = 'cash', reference = '') =>
+    ada.post<ErrorBody>(invoicePath(invoiceId, '/payments'), {
+      method,
+      amount,
+      receivedOn: today(),
+      reference,
+    });
+
+  /** Two issued invoices of the worked example: one paid in full in cash, one cancelled. */
+  async function paidAndVoided() {
+    const paid = await issued();
+    await ok(recordPayment(paid.id, '193.99'));
+    const voided = await issued();
+    await ok(ada.post(invoicePath(voided.id, '/void'), { reason: 'Duplicate.' }));
+    return { paid, voided };
+  }
+
   const invoiceRow = async (id: string) =>
     (await stack.database.db.select().from(invoices).where(eq(invoices.id, id)))[0]!;
 
@@ -1010,14 +1028,7 @@ describe('billing: price list, invoices, credit notes and payments', () => {
 
     it('refuses to cancel a paid invoice (409): that takes a credit note', async () => {
       const invoice = await issued();
-      await ok(
-        ada.post(invoicePath(invoice.id, '/payments'), {
-          method: 'bank-transfer',
-          amount: '193.99',
-          receivedOn: today(),
-          reference: 'BACS 1',
-        }),
-      );
+      await ok(recordPayment(invoice.id, '193.99', 'bank-transfer', 'BACS 1'));
 
       const res = await ada.post<ErrorBody>(invoicePath(invoice.id, '/void'), {
         reason: 'Changed our mind.',
@@ -1079,22 +1090,8 @@ describe('billing: price list, invoices, credit notes and payments', () => {
     it('marks an invoice paid by bank transfer, with one receipt', async () => {
       const invoice = await issued();
 
-      const part = await ok<InvoiceDetail>(
-        ada.post(invoicePath(invoice.id, '/payments'), {
-          method: 'bank-transfer',
-          amount: '100.00',
-          receivedOn: today(),
-          reference: 'BACS part',
-        }),
-      );
-      const rest = await ok<InvoiceDetail>(
-        ada.post(invoicePath(invoice.id, '/payments'), {
-          method: 'bank-transfer',
-          amount: '93.99',
-          receivedOn: today(),
-          reference: 'BACS rest',
-        }),
-      );
+      const part = await ok<InvoiceDetail>(recordPayment(invoice.id, '100.00', 'bank-transfer', 'BACS part'));
+      const rest = await ok<InvoiceDetail>(recordPayment(invoice.id, '93.99', 'bank-transfer', 'BACS rest'));
 
       expect(part).toMatchObject({ status: 'issued', paidMinor: 10000, balanceMinor: 9399 });
       expect(rest).toMatchObject({ status: 'paid', paidMinor: 19399, balanceMinor: 0 });
@@ -1114,12 +1111,7 @@ describe('billing: price list, invoices, credit notes and payments', () => {
     it('refuses more than is owed (400 at amount)', async () => {
       const invoice = await issued();
 
-      const res = await ada.post<ErrorBody>(invoicePath(invoice.id, '/payments'), {
-        method: 'cash',
-        amount: '194.00',
-        receivedOn: today(),
-        reference: '',
-      });
+      const res = await recordPayment(invoice.id, '194.00');
 
       expect(res.status).toBe(400);
       expect(issuePaths(res.body)).toEqual(['body.amount']);
@@ -1129,31 +1121,11 @@ describe('billing: price list, invoices, credit notes and payments', () => {
     });
 
     it('refuses payment, recorded or online, for an invoice that is paid or cancelled (409 not_payable)', async () => {
-      const paid = await issued();
-      await ok(
-        ada.post(invoicePath(paid.id, '/payments'), {
-          method: 'cash',
-          amount: '193.99',
-          receivedOn: today(),
-          reference: '',
-        }),
-      );
-      const voided = await issued();
-      await ok(ada.post(invoicePath(voided.id, '/void'), { reason: 'Duplicate.' }));
+      const { paid, voided } = await paidAndVoided();
 
       const answers = [
-        await ada.post<ErrorBody>(invoicePath(paid.id, '/payments'), {
-          method: 'cash',
-          amount: '1.00',
-          receivedOn: today(),
-          reference: '',
-        }),
-        await ada.post<ErrorBody>(invoicePath(voided.id, '/payments'), {
-          method: 'cash',
-          amount: '1.00',
-          receivedOn: today(),
-          reference: '',
-        }),
+        await recordPayment(paid.id, '1.00'),
+        await recordPayment(voided.id, '1.00'),
         await olive.post<ErrorBody>(invoicePath(paid.id, '/checkout')),
         await olive.post<ErrorBody>(invoicePath(voided.id, '/checkout')),
       ];
@@ -1352,14 +1324,7 @@ describe('billing: price list, invoices, credit notes and payments', () => {
 
     it('lists payments received, amounts as decimals', async () => {
       const invoice = await issued();
-      await ok(
-        ada.post(invoicePath(invoice.id, '/payments'), {
-          method: 'bank-transfer',
-          amount: '193.99',
-          receivedOn: today(),
-          reference: '+BACS ref 42',
-        }),
-      );
+      await ok(recordPayment(invoice.id, '193.99', 'bank-transfer', '+BACS ref 42'));
 
       const res = await ada.get(`/api/payments/export.csv?from=${today()}&to=${today()}`);
 
@@ -1449,17 +1414,7 @@ describe('billing: price list, invoices, credit notes and payments', () => {
     });
 
     it('leaves paid and cancelled invoices alone', async () => {
-      const paid = await issued();
-      await ok(
-        ada.post(invoicePath(paid.id, '/payments'), {
-          method: 'cash',
-          amount: '193.99',
-          receivedOn: today(),
-          reference: '',
-        }),
-      );
-      const voided = await issued();
-      await ok(ada.post(invoicePath(voided.id, '/void'), { reason: 'Duplicate.' }));
+      const { paid, voided } = await paidAndVoided();
 
       await sweepAt(addDays(paid.dueDate!, 15), '11:00');
 
