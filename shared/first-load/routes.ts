@@ -51,7 +51,49 @@ export const firstLoadRoutes: readonly FirstLoadRoute[] = [
     },
   },
   { pattern: '/console', module: 'web/app/routes/console.tsx' },
+  // The other pages: their module only. Their reads depend on the viewer's role or on state the
+  // address does not carry (a filter, a draft), so they start when the module runs.
+  ...modulesOnly(
+    'web/app/routes/access-pages.tsx',
+    ['/no-access', '/sign-in-problem', '/invitation-invalid'],
+    {
+      open: true,
+    },
+  ),
+  ...modulesOnly('web/app/routes/tank-messages.tsx', ['/tanks/:tankId/messages']),
+  ...modulesOnly('web/app/routes/urgent-new.tsx', ['/tanks/:tankId/urgent']),
+  ...modulesOnly('web/app/routes/invoices.tsx', ['/invoices', '/invoices/:invoiceId']),
+  ...modulesOnly('web/app/routes/urgent-request.tsx', ['/urgent/:requestId']),
+  ...modulesOnly('web/app/routes/console-tank-new.tsx', ['/console/tanks/new']),
+  ...modulesOnly('web/app/routes/console-tank-edit.tsx', ['/console/tanks/:tankId/edit']),
+  ...modulesOnly('web/app/routes/console-tank-livestock.tsx', ['/console/tanks/:tankId/livestock']),
+  ...modulesOnly('web/app/routes/console-tank-equipment.tsx', ['/console/tanks/:tankId/equipment']),
+  ...modulesOnly('web/app/routes/console-schedule.tsx', ['/console/schedule']),
+  ...modulesOnly('web/app/routes/console-tips.tsx', [
+    '/console/tips',
+    '/console/tips/new',
+    '/console/tips/:tipId',
+    '/console/tips/:tipId/edit',
+  ]),
+  ...modulesOnly('web/app/routes/console-clients.tsx', ['/console/clients']),
+  ...modulesOnly('web/app/routes/alerts-board.tsx', ['/console/alerts']),
+  ...modulesOnly('web/app/routes/console-urgent.tsx', ['/console/urgent']),
+  ...modulesOnly('web/app/routes/console-urgent-settings.tsx', ['/console/urgent/settings']),
+  ...modulesOnly('web/app/routes/console-invoices.tsx', [
+    '/console/invoices',
+    '/console/invoices/:invoiceId',
+  ]),
+  ...modulesOnly('web/app/routes/console-inbox.tsx', ['/console/inbox']),
+  ...modulesOnly('web/app/routes/console-audit.tsx', ['/console/audit']),
+  ...modulesOnly('web/app/routes/console-billing.tsx', ['/console/billing']),
+  ...modulesOnly('web/app/routes/console-staff.tsx', ['/console/staff']),
+  ...modulesOnly('web/app/routes/visit-report.tsx', ['/visits/:visitId']),
+  ...modulesOnly('web/app/routes/settings-notifications.tsx', ['/settings/notifications']),
 ];
+
+function modulesOnly(module: string, patterns: string[], options: { open?: boolean } = {}): FirstLoadRoute[] {
+  return patterns.map((pattern) => ({ pattern, module, ...options }));
+}
 
 function match(pattern: string, pathname: string): Record<string, string> | null {
   const wanted = pattern.split('/').filter(Boolean);
