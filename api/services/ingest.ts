@@ -8,7 +8,8 @@ import {
   type IngestResult,
 } from '@shared/schemas/readings';
 import type { AppDeps } from '../deps';
-import { commitReadings, timeProblem, timeProblemMessage, type Tx } from './readings';
+import { commitReadingsStatement, timeProblem, timeProblemMessage } from './readings';
+import type { Db } from '../db/client';
 import { HttpError } from '../lib/http-error';
 import type { DeviceIdentity } from './devices';
 
@@ -24,12 +25,18 @@ interface DeviceRow {
 const lastSeenStepMs = 60_000;
 
 /**
- * The batch in one statement: the rows go in as one array per column (no per-row work in the query
- * builder), the unique index drops what is already stored, and the trigger on readings keeps the
- * latest readings and the rollups in the same statement. The device's last_seen_at rides along.
+ * The batch in one statement, so one transaction without BEGIN and COMMIT: the rows go in as one
+ * array per column (no per-row work in the query builder), the unique index drops what is already
+ * stored, and the trigger on readings keeps the latest readings and the rollups in the same
+ * statement. The device's last_seen_at rides along.
  */
-async function storeDeviceBatch(tx: Tx, device: DeviceIdentity, rows: readonly DeviceRow[], now: Date) {
-  const result = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
+async function storeDeviceBatch(
+  db: Pick<Db, 'execute'>,
+  device: DeviceIdentity,
+  rows: readonly DeviceRow[],
+  now: Date,
+) {
+  const result = await db.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
     with seen as (
       update devices set last_seen_at = ${now.toISOString()}::timestamptz
       where id = ${device.id}
@@ -126,8 +133,8 @@ export async function ingestReadings(
     });
   });
 
-  const accepted = await commitReadings(deps, device.tankId, async (tx) => {
-    const stored = await storeDeviceBatch(tx, device, rows, now);
+  const accepted = await commitReadingsStatement(deps, device.tankId, async (db) => {
+    const stored = await storeDeviceBatch(db, device, rows, now);
     return { stored, result: stored.length };
   });
   return { accepted, duplicate: duplicate + rows.length - accepted, rejected };
