@@ -322,45 +322,59 @@ async function evaluateLivestockRule(
 }
 
 /** The rate rule in force for a parameter: the tank's own, else the catalogue's default. */
-function rateRuleOf(tank: TankContext, parameter: ParameterKey): RateRule | null {
+function rateRuleOf(tank: Pick<TankContext, 'rates'>, parameter: ParameterKey): RateRule | null {
   return tank.rates[parameter] ?? parameterCatalogue[parameter].rateOfChange ?? null;
 }
 
-interface SeriesPoint {
+export interface SeriesPoint {
   value: number;
   measuredAt: Date;
 }
 
 /**
- * The readings each rate rule looks back over, for every parameter of the batch in one statement:
- * twice the rule's period up to the parameter's latest reading, enough history for evaluateRate to
- * average a slightly long gap.
+ * What each rate rule needs of the window before a parameter's latest reading (twice the rule's
+ * period, enough for evaluateRate to average a slightly long gap), for every parameter of the batch
+ * in one statement. evaluateRate keeps the earlier reading whose change to the latest is largest in
+ * size, the earliest of equals; that is always one with the most positive or the most negative
+ * change, so the database returns just those (the same expression, in the same double arithmetic,
+ * ties included) and the series is them plus the latest reading: a few rows instead of every reading
+ * in the window (about 2,900 for a device reporting every 5 minutes, under daily rules).
  */
-async function loadRateSeries(
-  tx: Tx,
-  tank: TankContext,
+export async function loadRateSeries(
+  tx: Pick<Tx, 'execute'>,
+  tank: Pick<TankContext, 'id' | 'rates'>,
   latest: ReadonlyMap<ParameterKey, NewReading>,
 ): Promise<Map<ParameterKey, SeriesPoint[]>> {
   const windows = [...latest].flatMap(([parameter, reading]) => {
     const rule = rateRuleOf(tank, parameter);
-    return rule
-      ? [{ parameter, from: new Date(reading.measuredAt.getTime() - 2 * rule.perMs), to: reading.measuredAt }]
-      : [];
+    return rule ? [{ parameter, reading, perMs: rule.perMs }] : [];
   });
   const series = new Map<ParameterKey, SeriesPoint[]>(windows.map((w) => [w.parameter, []]));
   if (windows.length === 0) return series;
   const { rows } = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
-    select w.parameter, r.value, r.measured_at
-    from unnest(
-      ${sql.param(windows.map((w) => w.parameter))}::parameter_key[],
-      ${sql.param(windows.map((w) => w.from.toISOString()))}::timestamptz[],
-      ${sql.param(windows.map((w) => w.to.toISOString()))}::timestamptz[]
-    ) as w(parameter, from_at, to_at)
-    join readings r on r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
-      and r.measured_at >= w.from_at and r.measured_at <= w.to_at
-    order by w.parameter, r.measured_at`);
+    with w as (
+      select * from unnest(
+        ${sql.param(windows.map((w) => w.parameter))}::parameter_key[],
+        ${sql.param(windows.map((w) => w.reading.measuredAt.toISOString()))}::timestamptz[],
+        ${sql.param(windows.map((w) => w.reading.value))}::float8[],
+        ${sql.param(windows.map((w) => w.perMs))}::float8[]
+      ) as w(parameter, to_at, to_value, per_ms)
+    ), earlier as (
+      select w.parameter, r.value, r.measured_at,
+        ((w.to_value - r.value) * w.per_ms)
+          / greatest((extract(epoch from w.to_at - r.measured_at) * 1000)::float8, w.per_ms) as change
+      from w join readings r on r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
+        and r.measured_at >= w.to_at - make_interval(secs => 2 * w.per_ms / 1000) and r.measured_at < w.to_at
+    ), extremes as (
+      select parameter, max(change) as most, min(change) as least from earlier group by parameter
+    )
+    select e.parameter, e.value, e.measured_at
+    from earlier e join extremes x using (parameter)
+    where e.change = x.most or e.change = x.least`);
   for (const row of rows)
     series.get(row.parameter)!.push({ value: row.value, measuredAt: new Date(row.measured_at) });
+  for (const { parameter, reading } of windows)
+    series.get(parameter)!.push({ value: reading.value, measuredAt: reading.measuredAt });
   return series;
 }
 

@@ -7,6 +7,7 @@ import { history } from './benches/history';
 import { ingest } from './benches/ingest';
 import { overview } from './benches/overview';
 import { ownerTanks } from './benches/owner-tanks';
+import { rateSeries } from './benches/rate-series';
 import { start } from './benches/start';
 import { twoInstances } from './benches/two-instances';
 import { benchScale } from './seed/plan';
@@ -20,7 +21,16 @@ import { formatHeader, formatTable } from './support/table';
  * file BENCH_ARTIFACT names).
  * The four older vitest benches run in vitest's bench mode, each on its own throwaway cluster.
  */
-const stackBenches: Bench[] = [ownerTanks, overview, history, ingest, alertLatency, twoInstances, start];
+const stackBenches: Bench[] = [
+  ownerTanks,
+  overview,
+  history,
+  ingest,
+  rateSeries,
+  alertLatency,
+  twoInstances,
+  start,
+];
 const vitestBenches = ['demo-seed', 'live-messages', 'readings-export', 'readings-history'];
 
 const wanted = process.argv.slice(2);
