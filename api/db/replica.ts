@@ -1,7 +1,7 @@
 import { drizzle } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import type { Logger } from '../lib/logger';
-import type { Database, Db } from './client';
+import { sessionOptions, type Database, type Db } from './client';
 import * as schema from './schema/index';
 
 /**
@@ -56,6 +56,7 @@ export function createReadRouting(
     max: 5,
     connectionTimeoutMillis: 2_000,
     application_name: 'brinewatch-replica-reads',
+    options: sessionOptions,
   });
   pool.on('error', () => {});
   const replica = drizzle(pool, { schema }) as Db;

@@ -1,4 +1,4 @@
-import { and, desc, eq, lte, sql } from 'drizzle-orm';
+import { and, desc, eq, lte, sql, type SQL } from 'drizzle-orm';
 import { describeAlert, type AlertFacts } from '@shared/alerts/describe-alert';
 import { evaluateFreeAmmonia } from '@shared/alerts/free-ammonia';
 import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
@@ -18,6 +18,7 @@ import { limitsInForce } from '@shared/parameters/limits-in-force';
 import { rateRuleFromHours } from '@shared/schemas/limits';
 import type { ParameterLimits, RateRule } from '@shared/parameters/limits';
 import type { TankStyle } from '@shared/parameters/limit-templates';
+import { bucketOrigin } from '@shared/readings/buckets';
 import type { ReadingSource } from '@shared/readings/sources';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { Db } from '../db/client';
@@ -334,11 +335,16 @@ export interface SeriesPoint {
 /**
  * What each rate rule needs of the window before a parameter's latest reading (twice the rule's
  * period, enough for evaluateRate to average a slightly long gap), for every parameter of the batch
- * in one statement. evaluateRate keeps the earlier reading whose change to the latest is largest in
- * size, the earliest of equals; that is always one with the most positive or the most negative
- * change, so the database returns just those (the same expression, in the same double arithmetic,
- * ties included) and the series is them plus the latest reading: a few rows instead of every reading
- * in the window (about 2,900 for a device reporting every 5 minutes, under daily rules).
+ * in one statement.
+ *
+ * evaluateRate keeps the earlier reading whose change to the latest is largest in size, the
+ * earliest of equals: always one at the most positive or the most negative change. So the database
+ * returns just the readings at those two changes (the same expression in the same double
+ * arithmetic, ties included), and reads only the hours that can hold them: the hourly rollups give
+ * each whole hour's lowest and highest value, which bound the changes inside it from above and
+ * below, and an hour whose bound cannot reach what another hour surely reaches is skipped. The
+ * partial hours at both ends of the window are always read. A device reporting every minute under
+ * a daily rule thus costs a few hours of readings per batch instead of two days of them.
  */
 export async function loadRateSeries(
   tx: Pick<Tx, 'execute'>,
@@ -351,20 +357,67 @@ export async function loadRateSeries(
   });
   const series = new Map<ParameterKey, SeriesPoint[]>(windows.map((w) => [w.parameter, []]));
   if (windows.length === 0) return series;
+  const earliest = new Date(Math.min(...windows.map((w) => w.reading.measuredAt.getTime() - 2 * w.perMs)));
+  const newest = new Date(Math.max(...windows.map((w) => w.reading.measuredAt.getTime())));
+  // The change a reading of value v, elapsed ms before the latest, makes (as evaluateRate has it).
+  const change = (v: SQL, elapsed: SQL) =>
+    sql`((w.to_value - ${v}) * w.per_ms) / greatest(${elapsed}, w.per_ms)`;
   const { rows } = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
     with w as (
-      select * from unnest(
+      select w.*, f.from_at,
+        -- The window's first whole hour starts here, its last partial hour there.
+        case when date_bin('1 hour', f.from_at, ${bucketOrigin}::timestamptz) = f.from_at then f.from_at
+          else date_bin('1 hour', f.from_at, ${bucketOrigin}::timestamptz) + interval '1 hour' end as head_end,
+        date_bin('1 hour', w.to_at, ${bucketOrigin}::timestamptz) as tail_start
+      from unnest(
         ${sql.param(windows.map((w) => w.parameter))}::parameter_key[],
         ${sql.param(windows.map((w) => w.reading.measuredAt.toISOString()))}::timestamptz[],
         ${sql.param(windows.map((w) => w.reading.value))}::float8[],
         ${sql.param(windows.map((w) => w.perMs))}::float8[]
       ) as w(parameter, to_at, to_value, per_ms)
+      cross join lateral (select w.to_at - make_interval(secs => 2 * w.per_ms / 1000) as from_at) f
+    ), hours as (
+      -- Whole hours with readings, each with how long before the latest its nearest and farthest end are.
+      select w.parameter, w.to_at, w.to_value, w.per_ms, h.min, h.max,
+        h.bucket_start as seg_from, h.bucket_start + interval '1 hour' as seg_to,
+        (extract(epoch from w.to_at - (h.bucket_start + interval '1 hour')) * 1000)::float8 as near,
+        (extract(epoch from w.to_at - h.bucket_start) * 1000)::float8 as far
+      from w cross join lateral (
+        select h.bucket_start, h.min, h.max from reading_rollups_hourly h
+        where h.tank_id = ${tank.id}::uuid and h.parameter = w.parameter
+          and h.bucket_start >= w.head_end and h.bucket_start < w.tail_start
+      ) h
+    ), bounds as (
+      select w.*,
+        case when to_value >= min then ${change(sql`min`, sql`near`)} else ${change(sql`min`, sql`far`)} end as most_possible,
+        case when to_value >= min then ${change(sql`min`, sql`far`)} else ${change(sql`min`, sql`near`)} end as most_sure,
+        case when to_value <= max then ${change(sql`max`, sql`near`)} else ${change(sql`max`, sql`far`)} end as least_possible,
+        case when to_value <= max then ${change(sql`max`, sql`far`)} else ${change(sql`max`, sql`near`)} end as least_sure
+      from hours w
+    ), reached as (
+      select parameter, max(most_sure) as most, min(least_sure) as least from bounds group by parameter
+    ), kept as (
+      -- A margin of a billionth keeps an hour whose bound ties what another reaches, whatever the rounding.
+      select b.parameter, b.to_at, b.to_value, b.per_ms, b.seg_from, b.seg_to
+      from bounds b join reached x using (parameter)
+      where b.most_possible >= x.most - 1e-9 * greatest(abs(x.most), 1)
+        or b.least_possible <= x.least + 1e-9 * greatest(abs(x.least), 1)
+      union all
+      select w.parameter, w.to_at, w.to_value, w.per_ms, w.from_at, least(w.head_end, w.to_at) from w
+      where w.head_end > w.from_at
+      union all
+      select w.parameter, w.to_at, w.to_value, w.per_ms, greatest(w.tail_start, w.head_end), w.to_at from w
     ), earlier as (
       select w.parameter, r.value, r.measured_at,
-        ((w.to_value - r.value) * w.per_ms)
-          / greatest((extract(epoch from w.to_at - r.measured_at) * 1000)::float8, w.per_ms) as change
-      from w join readings r on r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
-        and r.measured_at >= w.to_at - make_interval(secs => 2 * w.per_ms / 1000) and r.measured_at < w.to_at
+        ${change(sql`r.value`, sql`(extract(epoch from w.to_at - r.measured_at) * 1000)::float8`)} as change
+      from kept w cross join lateral (
+        select r.value, r.measured_at from readings r
+        where r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
+          and r.measured_at >= w.seg_from and r.measured_at < w.seg_to
+          -- The same bounds as constants, so planning looks at the one or two months they cover.
+          and r.measured_at >= ${earliest.toISOString()}::timestamptz and r.measured_at <= ${newest.toISOString()}::timestamptz
+        offset 0 -- kept apart, so each hour is one index range (the planner would scan the tank's year)
+      ) r
     ), extremes as (
       select parameter, max(change) as most, min(change) as least from earlier group by parameter
     )

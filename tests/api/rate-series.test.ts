@@ -24,15 +24,23 @@ const phRule: RateRule = { maxChange: 0.2, perMs: dayMs };
 const rules = { temperature: temperatureRule, ph: phRule } satisfies Partial<Record<ParameterKey, RateRule>>;
 type Judged = keyof typeof rules;
 
-/** The latest reading is at `to`; earlier ones from a little before the window up to just before it. */
-const to = Date.parse('2026-06-10T12:00:00Z');
+/**
+ * The latest reading is at `to` (on the hour, or anywhere in the hour after it, so the window's
+ * ends fall on and between the hourly rollups); earlier ones from a little before the window up to
+ * just before it.
+ */
+const onTheHour = Date.parse('2026-06-10T12:00:00Z');
 
 const earlier = (rule: RateRule) =>
   fc.record({
-    // On a coarse grid half the time, so equal changes (ties) happen; a few fall outside the window.
+    // Anywhere (a few outside the window); on a coarse grid, so equal changes (ties) happen; or
+    // bunched in a few hours, so the hourly bounds are loose and skipping an hour is tested.
     beforeMs: fc.oneof(
       fc.integer({ min: 1, max: 2 * rule.perMs + hourMs }),
       fc.integer({ min: 1, max: 8 }).map((step) => (step * rule.perMs) / 4),
+      fc
+        .tuple(fc.constantFrom(0, 0.25, 0.5, 1, 1.25, 1.5, 1.75), fc.integer({ min: 1, max: hourMs - 1 }))
+        .map(([share, within]) => Math.floor((share * 2 * rule.perMs) / hourMs) * hourMs + within),
     ),
     value: fc.oneof(
       fc.integer({ min: 2400, max: 2800 }).map((hundredths) => hundredths / 100),
@@ -41,15 +49,19 @@ const earlier = (rule: RateRule) =>
   });
 
 const scenario = fc.record({
+  to: fc.oneof(
+    fc.constant(onTheHour),
+    fc.integer({ min: 1, max: hourMs - 1 }).map((ms) => onTheHour + ms),
+  ),
   temperature: fc.record({
     latest: fc.constantFrom(24, 25.25, 26.5),
-    earlier: fc.array(earlier(temperatureRule), { maxLength: 40 }),
+    earlier: fc.array(earlier(temperatureRule), { maxLength: 60 }),
   }),
   ph: fc.record({
     latest: fc.constantFrom(7.9, 8.1, 8.35),
     earlier: fc.array(
       earlier(phRule).map((r) => ({ ...r, value: Math.round((r.value / 3.1) * 100) / 100 })),
-      { maxLength: 40 },
+      { maxLength: 60 },
     ),
   }),
 });
@@ -64,7 +76,7 @@ describe('the rate series the alert engine reads', () => {
   });
   afterAll(() => stack.close());
 
-  async function everyReadingInWindow(parameter: Judged, rule: RateRule) {
+  async function everyReadingInWindow(parameter: Judged, rule: RateRule, to: number) {
     const { rows } = await stack.database.db.execute<{ value: number; measured_at: string }>(sql`
       select value, measured_at from readings
       where tank_id = ${world.tank.id} and parameter = ${parameter}
@@ -77,8 +89,10 @@ describe('the rate series the alert engine reads', () => {
   it('judges every window the same from the two candidates as from all of its readings', async () => {
     const { db } = stack.database;
     let breaches = 0;
+    let calm = 0;
     await fc.assert(
       fc.asyncProperty(scenario, async (drafts) => {
+        const { to } = drafts;
         await db.execute(sql`delete from readings where tank_id = ${world.tank.id}`);
         const latest = new Map<ParameterKey, NewReading>();
         const rows = [];
@@ -107,7 +121,7 @@ describe('the rate series the alert engine reads', () => {
         for (const parameter of Object.keys(rules) as Judged[]) {
           const rule = rules[parameter];
           const candidates = series.get(parameter)!;
-          const full = await everyReadingInWindow(parameter, rule);
+          const full = await everyReadingInWindow(parameter, rule, to);
           // The latest, and from the earlier ones only those at the two extreme changes (ties too).
           const changes = new Set(
             candidates
@@ -123,16 +137,18 @@ describe('the rate series the alert engine reads', () => {
           const expected = evaluateRate(full, rule);
           expect(evaluateRate(candidates, rule), parameter).toEqual(expected);
           if (expected.breach) breaches += 1;
+          else calm += 1;
         }
       }),
       {
         seed,
-        numRuns: 80,
+        numRuns: 100,
         examples: [
           // Two readings an equal change away, the worst: the earlier of them is the one named; the
           // smallest change in between.
           [
             {
+              to: onTheHour,
               temperature: {
                 latest: 26.5,
                 earlier: [
@@ -144,17 +160,34 @@ describe('the rate series the alert engine reads', () => {
               ph: { latest: 7.9, earlier: [{ beforeMs: dayMs / 2, value: 8.2 }] },
             },
           ],
+          // The worst change is early in an hour more than a day back (1.35 × 24/30.02 = 1.079);
+          // judged at the hour's far end it would look smaller (1.045) than what an hour of the
+          // last day surely reaches (1.06), and be skipped (a falling reading takes the other side).
+          [
+            {
+              to: onTheHour,
+              temperature: { latest: 25.25, earlier: [] },
+              ph: {
+                latest: 8.35,
+                earlier: [
+                  { beforeMs: 30 * hourMs + 60_000, value: 7 },
+                  { beforeMs: 5.5 * hourMs, value: 7.29 },
+                  { beforeMs: 2.5 * hourMs, value: 8.4 },
+                ],
+              },
+            },
+          ],
         ],
       },
     );
     // The property means something only if windows both breach and do not.
     expect(breaches).toBeGreaterThan(5);
-    expect(breaches).toBeLessThan(150);
+    expect(calm).toBeGreaterThan(5);
   });
 
   it('reads no rate series for a parameter without a rate rule', async () => {
     const latest = new Map<ParameterKey, NewReading>([
-      ['nitrate', { parameter: 'nitrate', value: 10, measuredAt: new Date(to), source: 'home-test' }],
+      ['nitrate', { parameter: 'nitrate', value: 10, measuredAt: new Date(onTheHour), source: 'home-test' }],
     ]);
     expect(parameterCatalogue.nitrate.rateOfChange).toBeNull();
     const series = await loadRateSeries(stack.database.db, { id: world.tank.id, rates: {} }, latest);

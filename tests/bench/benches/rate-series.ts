@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { drizzle } from 'drizzle-orm/node-postgres';
+import { connectDatabase } from '../../../api/db/client';
 import { loadRateSeries, type NewReading, type SeriesPoint } from '../../../api/services/alert-engine';
 import { evaluateRate } from '@shared/alerts/rate';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
@@ -21,7 +21,8 @@ export const rateSeries: Bench = {
   name: 'rate-series',
   summary: "the rate rules' read per device batch: extreme changes only vs the whole window",
   async run({ stack }) {
-    const db = drizzle(stack.pool);
+    // The API's own connection settings, as the alert pass runs them.
+    const { db, pool } = connectDatabase(stack.cluster.url, { max: 2 });
     const latestOf = async (tankIds: string[]) => {
       const { rows } = await stack.pool.query<{
         tank_id: string;
@@ -166,6 +167,7 @@ export const rateSeries: Bench = {
     } finally {
       await clear();
     }
+    await pool.end();
     const rowsOf = (label: string, m: typeof fiveMinute) => [
       { measure: `${label}: read and judge, one tank at a time`, ...m.read },
       { measure: `${label}: CPU per call`, ...m.cpu },
