@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { deliveries } from '../../../api/db/schema/index';
 import { queues, startJobQueue } from '../../../api/lib/job-queue';
 import { createLogger } from '../../../api/lib/logger';
-import { buildServer } from '../../../api/build';
+import { buildServer, serverNodeFlags } from '../../../api/build';
 import { evaluateNewReadings } from '../../../api/services/alert-engine';
 import { afterAlertEvents } from '../../../api/services/alerts';
 import { startWorkers } from '../../../api/services/workers';
@@ -85,7 +85,7 @@ describe('a worker killed while it delivers an e-mail', () => {
     tank = await createTank(db, { companyId: company.id, name: 'Lobby reef', owners: [owner] });
 
     const port = await freePort();
-    first = spawn(process.execPath, [await buildServer()], {
+    first = spawn(process.execPath, [...serverNodeFlags, await buildServer()], {
       env: {
         ...process.env,
         NODE_ENV: 'test',

@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { openSync, readFileSync, writeFileSync } from 'node:fs';
 import { setTimeout as sleep } from 'node:timers/promises';
-import { buildServer } from '../../../api/build';
+import { buildServer, serverNodeFlags } from '../../../api/build';
 
 /**
  * The API in a process of its own, as production runs it (`npm run build`, then
@@ -43,7 +43,7 @@ export async function startApiProcess(options: {
   const profile = process.env.BENCH_CPU_PROF
     ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`]
     : [];
-  const child: ChildProcess = spawn(process.execPath, [...profile, await bundle], {
+  const child: ChildProcess = spawn(process.execPath, [...profile, ...serverNodeFlags, await bundle], {
     env: { ...process.env, ...options.env, PORT: String(options.port) },
     stdio: ['ignore', log, log],
   });
