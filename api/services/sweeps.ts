@@ -1,4 +1,4 @@
-import { eq, inArray, isNull, lt, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNull, lt, ne, sql } from 'drizzle-orm';
 import { describeAlert } from '@shared/alerts/describe-alert';
 import { evaluateOverdue } from '@shared/alerts/overdue';
 import {
@@ -10,7 +10,7 @@ import {
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { AppDeps } from '../deps';
-import { auditEvents, companies, devices, readings, tanks } from '../db/schema/index';
+import { alerts, auditEvents, companies, devices, readings, tanks } from '../db/schema/index';
 import { withTankAlerts, type NewAlert } from './alert-store';
 
 /**
@@ -25,20 +25,30 @@ async function settle(deps: AppDeps, tankId: string, ruleKey: string, alert: New
   });
 }
 
-/** The device's latest report times, one backward probe of readings_device_key per parameter. */
-async function recentReports(deps: AppDeps, deviceId: string): Promise<Date[]> {
-  const result = await deps.db.execute<{ at: string }>(sql`
-    select distinct m.measured_at as at
-    from unnest(enum_range(null::parameter_key)) as p(parameter)
+/**
+ * Each device's latest report times, for every device in one statement: one backward probe of
+ * readings_device_key per device and parameter.
+ */
+async function recentReports(deps: AppDeps, deviceIds: readonly string[]): Promise<Map<string, Date[]>> {
+  const reports = new Map<string, Date[]>(deviceIds.map((id) => [id, []]));
+  if (deviceIds.length === 0) return reports;
+  const result = await deps.db.execute<{ device_id: string; at: string }>(sql`
+    select d.id as device_id, t.at
+    from unnest(${sql.param(deviceIds)}::uuid[]) as d(id)
     cross join lateral (
-      select r.measured_at from readings r
-      where r.device_id = ${deviceId} and r.parameter = p.parameter
-      order by r.measured_at desc
+      select distinct m.measured_at as at
+      from unnest(enum_range(null::parameter_key)) as p(parameter)
+      cross join lateral (
+        select r.measured_at from readings r
+        where r.device_id = d.id and r.parameter = p.parameter
+        order by r.measured_at desc
+        limit ${reportingGapsSampled + 1}
+      ) m
+      order by at desc
       limit ${reportingGapsSampled + 1}
-    ) m
-    order by at desc
-    limit ${reportingGapsSampled + 1}`);
-  return result.rows.map((row) => new Date(row.at));
+    ) t`);
+  for (const row of result.rows) reports.get(row.device_id)!.push(new Date(row.at));
+  return reports;
 }
 
 /**
@@ -57,11 +67,27 @@ export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
     .innerJoin(tanks, eq(tanks.id, devices.tankId))
     .innerJoin(companies, eq(companies.id, tanks.companyId))
     .where(isNull(devices.revokedAt));
+  const reports = await recentReports(
+    deps,
+    rows.map(({ device }) => device.id),
+  );
+  // Alerts of this kind not yet resolved: a device whose verdict matches needs no transaction.
+  const unresolved = new Set(
+    (
+      await deps.db
+        .select({ ruleKey: alerts.ruleKey })
+        .from(alerts)
+        .where(and(eq(alerts.kind, 'device-stale'), ne(alerts.status, 'resolved')))
+    ).map((row) => row.ruleKey),
+  );
   const events: string[] = [];
   for (const { device, tankName, timeZone } of rows) {
     const ruleKey = `device-stale:${device.id}`;
-    const staleAfterMs = deviceStaleAfter(reportingGaps(await recentReports(deps, device.id)));
+    const staleAfterMs = deviceStaleAfter(reportingGaps(reports.get(device.id)!));
     const outcome = evaluateStaleDevice(device, now, staleAfterMs);
+    // Still silent with its alert open, or reporting with none: nothing to change. Otherwise the
+    // tank's lock and a fresh read in settle() decide, so a change made meanwhile is respected.
+    if (outcome.stale === unresolved.has(ruleKey)) continue;
     let alert: NewAlert | null = null;
     if (outcome.stale) {
       const text = describeAlert(

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { alerts, devices } from '../../api/db/schema/index';
+import { alerts, devices, readings } from '../../api/db/schema/index';
 import { hashToken, newSecretToken } from '../../api/lib/tokens';
 import { sweepOverdueTests, sweepStaleDevices } from '../../api/services/sweeps';
 import { days, minutes } from '../helpers/clock';
@@ -77,6 +77,40 @@ describe('scheduled alert sweeps', () => {
     const [open] = await stack.database.db.select().from(alerts);
     expect(open).toMatchObject({ kind: 'device-stale', status: 'open' });
     expect(open!.body).toMatch(/^Sump probe has sent no reading since it was added 45 minutes ago\./);
+  });
+
+  it('judges each device by its own reporting rhythm, all in one sweep', async () => {
+    const now = stack.clock.now().getTime();
+    // Eleven reports each: one device every 5 minutes (stale after 30), one every hour (after 3 h).
+    const reports = async (device: { id: string }, everyMin: number, lastMinAgo: number) => {
+      await stack.database.db.insert(readings).values(
+        Array.from({ length: 11 }, (_, i) => ({
+          companyId: tank.companyId,
+          tankId: tank.id,
+          deviceId: device.id,
+          parameter: 'temperature' as const,
+          value: 25,
+          enteredValue: 25,
+          enteredUnit: 'stored',
+          measuredAt: new Date(now - minutes(lastMinAgo + i * everyMin)),
+          source: 'device' as const,
+        })),
+      );
+    };
+    const frequent = await addDevice(new Date(now - minutes(40)));
+    const hourly = await addDevice(new Date(now - minutes(120)));
+    await reports(frequent, 5, 40);
+    await reports(hourly, 60, 120);
+
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
+    const open = await stack.database.db.select().from(alerts);
+    expect(open.map((alert) => alert.ruleKey)).toEqual([`device-stale:${frequent.id}`]);
+
+    // Three missed hours later the hourly one is silent too; the first stays open, not doubled.
+    stack.clock.advance(minutes(61));
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
+    const ruleKeys = (await stack.database.db.select().from(alerts)).map((alert) => alert.ruleKey);
+    expect(ruleKeys.sort()).toEqual([`device-stale:${frequent.id}`, `device-stale:${hourly.id}`].sort());
   });
 
   it('raises a low-urgency notice when a home test is overdue, and clears it after a new test', async () => {
