@@ -23,7 +23,13 @@ import type { ReadingSource } from '@shared/readings/sources';
 import { presentStatuses } from '@shared/schemas/livestock-status';
 import type { Db } from '../db/client';
 import { readings } from '../db/schema/index';
-import { withTankAlerts, type AlertChange, type TankAlertStore, type Tx } from './alert-store';
+import {
+  withTankAlerts,
+  withTanksAlerts,
+  type AlertChange,
+  type TankAlertStore,
+  type Tx,
+} from './alert-store';
 
 export interface NewReading {
   parameter: ParameterKey;
@@ -71,14 +77,15 @@ interface OwnLimitRow {
 type RuleStates = Map<string, ThresholdState>;
 
 /**
- * Everything the rules need about a tank, in one statement: the tank and its zone, its own limits
- * and rate rules, the species living in it, and the rule states of `ruleKeys`.
+ * Everything the rules need about each tank, in one statement: the tank and its zone, its own
+ * limits and rate rules, the species living in it, and the rule states of its `ruleKeys`. A tank
+ * that no longer exists is missing from the answer.
  */
-async function loadTank(
+async function loadTanks(
   tx: Tx,
-  tankId: string,
-  ruleKeys: readonly string[],
-): Promise<{ tank: TankContext; states: RuleStates } | null> {
+  ruleKeysByTank: ReadonlyMap<string, readonly string[]>,
+): Promise<Map<string, { tank: TankContext; states: RuleStates }>> {
+  const allKeys = [...new Set([...ruleKeysByTank.values()].flat())];
   const { rows } = await tx.execute<ContextRow & Record<string, unknown>>(sql`
     select t.id, t.company_id as "companyId", t.name, t.style,
       coalesce(t.time_zone, c.time_zone) as "timeZone",
@@ -90,56 +97,69 @@ async function loadTank(
       coalesce((select json_agg(a.catalogue_species_id) from livestock a
         where a.tank_id = t.id and a.status = any(${sql.param([...presentStatuses])}::livestock_status[])), '[]') as species,
       coalesce((select json_object_agg(s.rule_key, s.state) from alert_rule_states s
-        where s.tank_id = t.id and s.rule_key = any(${sql.param([...ruleKeys])}::text[])), '{}') as states
+        where s.tank_id = t.id and s.rule_key = any(${sql.param(allKeys)}::text[])), '{}') as states
     from tanks t join companies c on c.id = t.company_id
-    where t.id = ${tankId}::uuid`);
-  const row = rows[0];
-  if (!row) return null;
-  const limits: Partial<Record<ParameterKey, ParameterLimits>> = {};
-  for (const [parameter, inForce] of Object.entries(limitsInForce(row.style, row.limits)))
-    limits[parameter as ParameterKey] = inForce.limits;
-  const rates: Partial<Record<ParameterKey, RateRule>> = {};
-  for (const own of row.limits) {
-    if (own.rateMaxChange !== null && own.ratePerHours !== null) {
-      rates[own.parameter] = rateRuleFromHours({ maxChange: own.rateMaxChange, perHours: own.ratePerHours });
+    where t.id = any(${sql.param([...ruleKeysByTank.keys()])}::uuid[])`);
+  const contexts = new Map<string, { tank: TankContext; states: RuleStates }>();
+  for (const row of rows) {
+    const limits: Partial<Record<ParameterKey, ParameterLimits>> = {};
+    for (const [parameter, inForce] of Object.entries(limitsInForce(row.style, row.limits)))
+      limits[parameter as ParameterKey] = inForce.limits;
+    const rates: Partial<Record<ParameterKey, RateRule>> = {};
+    for (const own of row.limits) {
+      if (own.rateMaxChange !== null && own.ratePerHours !== null) {
+        rates[own.parameter] = rateRuleFromHours({
+          maxChange: own.rateMaxChange,
+          perHours: own.ratePerHours,
+        });
+      }
     }
+    const inhabitants: LivestockInhabitant[] = [];
+    for (const speciesId of row.species) {
+      const species = speciesId ? findSpecies(speciesId) : undefined;
+      if (!species) continue;
+      inhabitants.push({
+        speciesId: species.id,
+        commonName: species.commonName,
+        scientificName: species.scientificName,
+        ranges: species.profile.ranges,
+      });
+    }
+    const wanted = new Set(ruleKeysByTank.get(row.id));
+    const states: RuleStates = new Map();
+    for (const [ruleKey, state] of Object.entries(row.states)) {
+      if (!wanted.has(ruleKey)) continue;
+      const parsed = thresholdState.safeParse(state);
+      if (parsed.success) states.set(ruleKey, parsed.data);
+    }
+    const tank = {
+      id: row.id,
+      companyId: row.companyId,
+      name: row.name,
+      timeZone: row.timeZone,
+      limits,
+      rates,
+      inhabitants,
+    };
+    contexts.set(row.id, { tank, states });
   }
-  const inhabitants: LivestockInhabitant[] = [];
-  for (const speciesId of row.species) {
-    const species = speciesId ? findSpecies(speciesId) : undefined;
-    if (!species) continue;
-    inhabitants.push({
-      speciesId: species.id,
-      commonName: species.commonName,
-      scientificName: species.scientificName,
-      ranges: species.profile.ranges,
-    });
-  }
-  const states: RuleStates = new Map();
-  for (const [ruleKey, state] of Object.entries(row.states)) {
-    const parsed = thresholdState.safeParse(state);
-    if (parsed.success) states.set(ruleKey, parsed.data);
-  }
-  const tank = {
-    id: row.id,
-    companyId: row.companyId,
-    name: row.name,
-    timeZone: row.timeZone,
-    limits,
-    rates,
-    inhabitants,
-  };
-  return { tank, states };
+  return contexts;
 }
 
-/** The pass's rule states, written back in one statement. */
-async function saveStates(tx: Tx, tankId: string, states: RuleStates) {
-  if (states.size === 0) return;
-  const keys = [...states.keys()];
+/** The pass's rule states of every tank, written back in one statement. */
+async function saveStates(tx: Tx, statesByTank: ReadonlyMap<string, RuleStates>) {
+  const entries = [...statesByTank].flatMap(([tankId, states]) =>
+    [...states].map(([ruleKey, state]) => ({ tankId, ruleKey, state: JSON.stringify(state) })),
+  );
+  if (entries.length === 0) return;
   await tx.execute(sql`
     insert into alert_rule_states (tank_id, rule_key, state)
-    select ${tankId}::uuid, k.rule_key, k.state
-    from unnest(${sql.param(keys)}::text[], ${sql.param(keys.map((key) => JSON.stringify(states.get(key))))}::jsonb[]) as k(rule_key, state)
+    select k.tank_id, k.rule_key, k.state
+    from unnest(
+      ${sql.param(entries.map((e) => e.tankId))}::uuid[],
+      ${sql.param(entries.map((e) => e.ruleKey))}::text[],
+      ${sql.param(entries.map((e) => e.state))}::jsonb[]
+    ) as k(tank_id, rule_key, state)
     on conflict (tank_id, rule_key) do update set state = excluded.state, updated_at = now()`);
 }
 
@@ -351,18 +371,39 @@ export async function loadRateSeries(
   tank: Pick<TankContext, 'id' | 'rates'>,
   latest: ReadonlyMap<ParameterKey, NewReading>,
 ): Promise<Map<ParameterKey, SeriesPoint[]>> {
-  const windows = [...latest].flatMap(([parameter, reading]) => {
-    const rule = rateRuleOf(tank, parameter);
-    return rule ? [{ parameter, reading, perMs: rule.perMs }] : [];
-  });
-  const series = new Map<ParameterKey, SeriesPoint[]>(windows.map((w) => [w.parameter, []]));
+  return (await loadRateSeriesOfTanks(tx, [{ tank, latest }])).get(tank.id)!;
+}
+
+/** `loadRateSeries` for several tanks in one statement (a group of device batches). */
+export async function loadRateSeriesOfTanks(
+  tx: Pick<Tx, 'execute'>,
+  asked: readonly {
+    tank: Pick<TankContext, 'id' | 'rates'>;
+    latest: ReadonlyMap<ParameterKey, NewReading>;
+  }[],
+): Promise<Map<string, Map<ParameterKey, SeriesPoint[]>>> {
+  const windows = asked.flatMap(({ tank, latest }) =>
+    [...latest].flatMap(([parameter, reading]) => {
+      const rule = rateRuleOf(tank, parameter);
+      return rule ? [{ tankId: tank.id, parameter, reading, perMs: rule.perMs }] : [];
+    }),
+  );
+  const series = new Map<string, Map<ParameterKey, SeriesPoint[]>>(
+    asked.map(({ tank }) => [tank.id, new Map()]),
+  );
+  for (const w of windows) series.get(w.tankId)!.set(w.parameter, []);
   if (windows.length === 0) return series;
   const earliest = new Date(Math.min(...windows.map((w) => w.reading.measuredAt.getTime() - 2 * w.perMs)));
   const newest = new Date(Math.max(...windows.map((w) => w.reading.measuredAt.getTime())));
   // The change a reading of value v, elapsed ms before the latest, makes (as evaluateRate has it).
   const change = (v: SQL, elapsed: SQL) =>
     sql`((w.to_value - ${v}) * w.per_ms) / greatest(${elapsed}, w.per_ms)`;
-  const { rows } = await tx.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
+  const { rows } = await tx.execute<{
+    tank_id: string;
+    parameter: ParameterKey;
+    value: number;
+    measured_at: string;
+  }>(sql`
     with w as (
       select w.*, f.from_at,
         -- The window's first whole hour starts here, its last partial hour there.
@@ -370,21 +411,22 @@ export async function loadRateSeries(
           else date_bin('1 hour', f.from_at, ${bucketOrigin}::timestamptz) + interval '1 hour' end as head_end,
         date_bin('1 hour', w.to_at, ${bucketOrigin}::timestamptz) as tail_start
       from unnest(
+        ${sql.param(windows.map((w) => w.tankId))}::uuid[],
         ${sql.param(windows.map((w) => w.parameter))}::parameter_key[],
         ${sql.param(windows.map((w) => w.reading.measuredAt.toISOString()))}::timestamptz[],
         ${sql.param(windows.map((w) => w.reading.value))}::float8[],
         ${sql.param(windows.map((w) => w.perMs))}::float8[]
-      ) as w(parameter, to_at, to_value, per_ms)
+      ) as w(tank_id, parameter, to_at, to_value, per_ms)
       cross join lateral (select w.to_at - make_interval(secs => 2 * w.per_ms / 1000) as from_at) f
     ), hours as (
       -- Whole hours with readings, each with how long before the latest its nearest and farthest end are.
-      select w.parameter, w.to_at, w.to_value, w.per_ms, h.min, h.max,
+      select w.tank_id, w.parameter, w.to_at, w.to_value, w.per_ms, h.min, h.max,
         h.bucket_start as seg_from, h.bucket_start + interval '1 hour' as seg_to,
         (extract(epoch from w.to_at - (h.bucket_start + interval '1 hour')) * 1000)::float8 as near,
         (extract(epoch from w.to_at - h.bucket_start) * 1000)::float8 as far
       from w cross join lateral (
         select h.bucket_start, h.min, h.max from reading_rollups_hourly h
-        where h.tank_id = ${tank.id}::uuid and h.parameter = w.parameter
+        where h.tank_id = w.tank_id and h.parameter = w.parameter
           and h.bucket_start >= w.head_end and h.bucket_start < w.tail_start
       ) h
     ), bounds as (
@@ -395,39 +437,42 @@ export async function loadRateSeries(
         case when to_value <= max then ${change(sql`max`, sql`far`)} else ${change(sql`max`, sql`near`)} end as least_sure
       from hours w
     ), reached as (
-      select parameter, max(most_sure) as most, min(least_sure) as least from bounds group by parameter
+      select tank_id, parameter, max(most_sure) as most, min(least_sure) as least from bounds group by tank_id, parameter
     ), kept as (
       -- A margin of a billionth keeps an hour whose bound ties what another reaches, whatever the rounding.
-      select b.parameter, b.to_at, b.to_value, b.per_ms, b.seg_from, b.seg_to
-      from bounds b join reached x using (parameter)
+      select b.tank_id, b.parameter, b.to_at, b.to_value, b.per_ms, b.seg_from, b.seg_to
+      from bounds b join reached x using (tank_id, parameter)
       where b.most_possible >= x.most - 1e-9 * greatest(abs(x.most), 1)
         or b.least_possible <= x.least + 1e-9 * greatest(abs(x.least), 1)
       union all
-      select w.parameter, w.to_at, w.to_value, w.per_ms, w.from_at, least(w.head_end, w.to_at) from w
+      select w.tank_id, w.parameter, w.to_at, w.to_value, w.per_ms, w.from_at, least(w.head_end, w.to_at) from w
       where w.head_end > w.from_at
       union all
-      select w.parameter, w.to_at, w.to_value, w.per_ms, greatest(w.tail_start, w.head_end), w.to_at from w
+      select w.tank_id, w.parameter, w.to_at, w.to_value, w.per_ms, greatest(w.tail_start, w.head_end), w.to_at from w
     ), earlier as (
-      select w.parameter, r.value, r.measured_at,
+      select w.tank_id, w.parameter, r.value, r.measured_at,
         ${change(sql`r.value`, sql`(extract(epoch from w.to_at - r.measured_at) * 1000)::float8`)} as change
       from kept w cross join lateral (
         select r.value, r.measured_at from readings r
-        where r.tank_id = ${tank.id}::uuid and r.parameter = w.parameter
+        where r.tank_id = w.tank_id and r.parameter = w.parameter
           and r.measured_at >= w.seg_from and r.measured_at < w.seg_to
           -- The same bounds as constants, so planning looks at the one or two months they cover.
           and r.measured_at >= ${earliest.toISOString()}::timestamptz and r.measured_at <= ${newest.toISOString()}::timestamptz
         offset 0 -- kept apart, so each hour is one index range (the planner would scan the tank's year)
       ) r
     ), extremes as (
-      select parameter, max(change) as most, min(change) as least from earlier group by parameter
+      select tank_id, parameter, max(change) as most, min(change) as least from earlier group by tank_id, parameter
     )
-    select e.parameter, e.value, e.measured_at
-    from earlier e join extremes x using (parameter)
+    select e.tank_id, e.parameter, e.value, e.measured_at
+    from earlier e join extremes x using (tank_id, parameter)
     where e.change = x.most or e.change = x.least`);
   for (const row of rows)
-    series.get(row.parameter)!.push({ value: row.value, measuredAt: new Date(row.measured_at) });
-  for (const { parameter, reading } of windows)
-    series.get(parameter)!.push({ value: reading.value, measuredAt: reading.measuredAt });
+    series
+      .get(row.tank_id)!
+      .get(row.parameter)!
+      .push({ value: row.value, measuredAt: new Date(row.measured_at) });
+  for (const { tankId, parameter, reading } of windows)
+    series.get(tankId)!.get(parameter)!.push({ value: reading.value, measuredAt: reading.measuredAt });
   return series;
 }
 
@@ -519,46 +564,73 @@ const limitRuleKey = (parameter: ParameterKey) => `limit:${parameter}`;
  * Runs every rule that a batch of new readings can trigger, for one tank, in one transaction
  * serialised per tank (an advisory lock), so two batches cannot open the same alert twice.
  * Call it after the readings are committed. Returns the new alert events (the outbox).
- * A batch that changes no alert costs five statements whatever its size: the lock, the tank's
- * context with the rule states, its open alerts, the rate series, and the states written back.
  */
 export async function evaluateNewReadings(
   db: Db,
   tankId: string,
   batch: readonly NewReading[],
 ): Promise<string[]> {
-  if (batch.length === 0) return [];
-  const byParameter = new Map<ParameterKey, NewReading[]>();
-  for (const reading of batch) {
-    const list = byParameter.get(reading.parameter);
-    if (list) list.push(reading);
-    else byParameter.set(reading.parameter, [reading]);
-  }
-  const latest = new Map<ParameterKey, NewReading>();
-  for (const [parameter, list] of byParameter) {
-    list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
-    latest.set(parameter, list.at(-1)!);
-  }
-  return withTankAlerts(db, tankId, async (store) => {
-    const context = await loadTank(store.tx, tankId, [...byParameter.keys()].map(limitRuleKey));
-    if (!context) return [];
-    const { tank, states } = context;
-    const series = await loadRateSeries(store.tx, tank, latest);
-    const events: string[] = [];
-    for (const [parameter, list] of byParameter) {
-      const last = latest.get(parameter)!;
-      events.push(...(await evaluateLimit(store, tank, states, parameter, list)));
-      for (const id of [
-        await evaluateLivestockRule(store, tank, parameter, last),
-        await evaluateRateRule(store, tank, parameter, last, series.get(parameter)),
-        parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(store, tank, last) : null,
-      ]) {
-        if (id) events.push(id);
-      }
+  return evaluateNewReadingsOfTanks(db, new Map([[tankId, batch]]));
+}
+
+/**
+ * `evaluateNewReadings` for the batches of several tanks in one transaction holding every tank's
+ * lock (a group of device batches stored together). A pass that changes no alert costs seven
+ * statements however many tanks and readings it judges: BEGIN, the locks, the tanks' contexts with
+ * their rule states, their open alerts, the rate series, the states written back, COMMIT.
+ */
+export async function evaluateNewReadingsOfTanks(
+  db: Db,
+  batches: ReadonlyMap<string, readonly NewReading[]>,
+): Promise<string[]> {
+  const work = [...batches].flatMap(([tankId, batch]) => {
+    if (batch.length === 0) return [];
+    const byParameter = new Map<ParameterKey, NewReading[]>();
+    for (const reading of batch) {
+      const list = byParameter.get(reading.parameter);
+      if (list) list.push(reading);
+      else byParameter.set(reading.parameter, [reading]);
     }
-    await saveStates(store.tx, tank.id, states);
-    return events;
+    const latest = new Map<ParameterKey, NewReading>();
+    for (const [parameter, list] of byParameter) {
+      list.sort((a, b) => a.measuredAt.getTime() - b.measuredAt.getTime());
+      latest.set(parameter, list.at(-1)!);
+    }
+    return [{ tankId, byParameter, latest }];
   });
+  if (work.length === 0) return [];
+  return withTanksAlerts(
+    db,
+    work.map((w) => w.tankId),
+    async (stores) => {
+      const contexts = await loadTanks(
+        stores.tx,
+        new Map(work.map((w) => [w.tankId, [...w.byParameter.keys()].map(limitRuleKey)])),
+      );
+      const present = work.flatMap((w) => {
+        const context = contexts.get(w.tankId);
+        return context ? [{ ...w, ...context }] : [];
+      });
+      const series = await loadRateSeriesOfTanks(stores.tx, present);
+      const events: string[] = [];
+      for (const { tank, states, byParameter, latest } of present) {
+        const store = stores.of(tank.id);
+        for (const [parameter, list] of byParameter) {
+          const last = latest.get(parameter)!;
+          events.push(...(await evaluateLimit(store, tank, states, parameter, list)));
+          for (const id of [
+            await evaluateLivestockRule(store, tank, parameter, last),
+            await evaluateRateRule(store, tank, parameter, last, series.get(tank.id)!.get(parameter)),
+            parameter === 'ammonia' ? await evaluateFreeAmmoniaRule(store, tank, last) : null,
+          ]) {
+            if (id) events.push(id);
+          }
+        }
+      }
+      await saveStates(stores.tx, new Map(present.map(({ tank, states }) => [tank.id, states])));
+      return events;
+    },
+  );
 }
 
 /**
@@ -573,11 +645,9 @@ export async function rejudgeLatestReadings(
 ): Promise<string[]> {
   if (latest.length === 0) return [];
   return withTankAlerts(db, tankId, async (store) => {
-    const context = await loadTank(
-      store.tx,
-      tankId,
-      latest.map((reading) => limitRuleKey(reading.parameter)),
-    );
+    const context = (
+      await loadTanks(store.tx, new Map([[tankId, latest.map((reading) => limitRuleKey(reading.parameter))]]))
+    ).get(tankId);
     if (!context) return [];
     const { tank, states } = context;
     const events: string[] = [];
@@ -586,7 +656,7 @@ export async function rejudgeLatestReadings(
         ...(await evaluateLimit(store, tank, states, reading.parameter, [reading], { rejudge: true })),
       );
     }
-    await saveStates(store.tx, tank.id, states);
+    await saveStates(store.tx, new Map([[tank.id, states]]));
     return events;
   });
 }

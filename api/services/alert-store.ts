@@ -1,4 +1,4 @@
-import { and, eq, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
 import type { ParameterKey } from '@shared/parameters/keys';
 import type { Db } from '../db/client';
@@ -64,23 +64,68 @@ export function withTankAlerts<T>(
   tankId: string,
   work: (store: TankAlertStore) => Promise<T>,
 ): Promise<T> {
+  return withTanksAlerts(db, [tankId], (stores) => work(stores.of(tankId)));
+}
+
+/** The stores of several tanks in one locked transaction; see `withTanksAlerts`. */
+export interface TankAlertStores {
+  readonly tx: Tx;
+  of(tankId: string): TankAlertStore;
+}
+
+/**
+ * `withTankAlerts` for several tanks at once (the alert pass of a group of device batches): one
+ * transaction takes every tank's lock, in the order of the lock keys so two such passes cannot
+ * deadlock, and reads all their open alerts in one statement.
+ */
+export function withTanksAlerts<T>(
+  db: Db,
+  tankIds: readonly string[],
+  work: (stores: TankAlertStores) => Promise<T>,
+): Promise<T> {
+  const ids = [...new Set(tankIds)];
   return db.transaction(async (tx) => {
     // Nothing but rule state written (a reading that changed no alert, the common case on every
     // device batch): that commit need not wait for the disk. A crash in the next moment loses at
     // most that state's last step, which only delays an alert by a reading; the readings themselves
-    // are already durable. So the transaction starts without waiting (set with the lock, in the
+    // are already durable. So the transaction starts without waiting (set with the locks, in the
     // same statement) and asks for a durable commit again as soon as it changes an alert.
-    await tx.execute(
-      sql`select pg_advisory_xact_lock(hashtext(${tankId})), set_config('synchronous_commit', 'off', true)`,
-    );
-    const { store, recordedEvents } = storeFor(tx, tankId);
-    const result = await work(store);
-    if (recordedEvents()) await tx.execute(sql`set local synchronous_commit = on`);
+    await tx.execute(sql`
+      select set_config('synchronous_commit', 'off', true),
+        (select count(pg_advisory_xact_lock(l.key)) from (
+          select distinct hashtext(t.id) as key from unnest(${sql.param(ids)}::text[]) as t(id) order by key
+        ) l)`);
+    const open = new Map<string, AlertRow[]>(ids.map((id) => [id, []]));
+    if (ids.length > 1) {
+      // One tank's open alerts are read when a rule first asks (most single-tank work never does).
+      const rows = await tx
+        .select()
+        .from(alerts)
+        .where(and(inArray(alerts.tankId, ids), ne(alerts.status, 'resolved')))
+        .for('update');
+      for (const row of rows) open.get(row.tankId)!.push(row);
+    }
+    const stores = new Map(ids.map((id) => [id, storeFor(tx, id, ids.length > 1 ? open.get(id)! : null)]));
+    const result = await work({
+      tx,
+      of(tankId) {
+        const entry = stores.get(tankId);
+        if (!entry) throw new Error(`tank ${tankId} is not locked by this alert pass`);
+        return entry.store;
+      },
+    });
+    if ([...stores.values()].some((entry) => entry.recordedEvents()))
+      await tx.execute(sql`set local synchronous_commit = on`);
     return result;
   });
 }
 
-function storeFor(tx: Tx, tankId: string): { store: TankAlertStore; recordedEvents: () => boolean } {
+function storeFor(
+  tx: Tx,
+  tankId: string,
+  /** The tank's open alerts, when already read and locked with other tanks'. */
+  preloaded: AlertRow[] | null,
+): { store: TankAlertStore; recordedEvents: () => boolean } {
   let events = 0;
   const record = async (
     alert: AlertRow,
@@ -98,7 +143,9 @@ function storeFor(tx: Tx, tankId: string): { store: TankAlertStore; recordedEven
    * The tank's alerts not resolved, read once (locked) and kept up to date by the writes below:
    * every rule of a batch asks for its open alert, and under the tank's lock nobody else changes them.
    */
-  let openByRule: Map<string, AlertRow> | null = null;
+  let openByRule: Map<string, AlertRow> | null = preloaded
+    ? new Map(preloaded.map((row) => [row.ruleKey, row]))
+    : null;
   const openAlerts = async () => {
     openByRule ??= new Map(
       (

@@ -8,7 +8,7 @@ import { conflict, notFound } from '../lib/http-error';
 import { alertJobPriority, queues } from '../lib/job-queue';
 import { visibleTanks } from '../policy/index';
 import type { Actor } from './actors';
-import { evaluateNewReadings, rejudgeLatestReadings, type NewReading } from './alert-engine';
+import { evaluateNewReadingsOfTanks, rejudgeLatestReadings, type NewReading } from './alert-engine';
 import { withTankAlerts } from './alert-store';
 import { fanOutAlertEvent } from './notify';
 import { refreshTankStatus } from './tank-status';
@@ -198,11 +198,6 @@ export async function afterAlertEvents(deps: AppDeps, eventIds: readonly string[
   }
 }
 
-/**
- * Called by every path that stores readings, after their commit. The readings are already
- * safe, so a failure here is logged rather than turned into an error for the sender (who would
- * only send the same readings again); evaluating them again later is harmless.
- */
 /** After a limits change: the latest readings judged again under the new limits (see the engine). */
 export async function rejudgeAfterLimitsChange(deps: AppDeps, tankId: string, latest: readonly NewReading[]) {
   try {
@@ -212,10 +207,38 @@ export async function rejudgeAfterLimitsChange(deps: AppDeps, tankId: string, la
   }
 }
 
-export async function raiseAlertsFor(deps: AppDeps, tankId: string, batch: readonly NewReading[]) {
+/**
+ * Called by every path that stores readings, after their commit. The readings are already
+ * safe, so a failure here is logged rather than turned into an error for the sender (who would
+ * only send the same readings again); evaluating them again later is harmless. Several tanks'
+ * batches are judged in one pass; should that pass fail, each tank is judged again on its own, so
+ * one tank's trouble never keeps another's alerts back.
+ */
+export async function raiseAlertsForTanks(
+  deps: AppDeps,
+  batches: ReadonlyMap<string, readonly NewReading[]>,
+) {
+  const judge = async (group: ReadonlyMap<string, readonly NewReading[]>): Promise<string[]> => {
+    try {
+      return await evaluateNewReadingsOfTanks(deps.db, group);
+    } catch (error) {
+      if (group.size === 1) {
+        deps.logger.error({ err: error, tankId: [...group.keys()][0] }, 'alert evaluation failed');
+        return [];
+      }
+      deps.logger.warn(
+        { err: error, tanks: group.size },
+        'alert pass of several tanks failed; judging each alone',
+      );
+      const events: string[] = [];
+      for (const [tankId, batch] of group) events.push(...(await judge(new Map([[tankId, batch]]))));
+      return events;
+    }
+  };
+  const events = await judge(batches);
   try {
-    await afterAlertEvents(deps, await evaluateNewReadings(deps.db, tankId, batch));
+    await afterAlertEvents(deps, events);
   } catch (error) {
-    deps.logger.error({ err: error, tankId }, 'alert evaluation failed');
+    deps.logger.error({ err: error, tanks: [...batches.keys()] }, 'alert notification planning failed');
   }
 }

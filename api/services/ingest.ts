@@ -8,12 +8,13 @@ import {
   type IngestResult,
 } from '@shared/schemas/readings';
 import type { AppDeps } from '../deps';
-import { commitReadingsStatement, timeProblem, timeProblemMessage } from './readings';
+import { groupCommit } from '../lib/group-commit';
+import { commitReadingsStatement, timeProblem, timeProblemMessage, type StoredReading } from './readings';
 import type { Db } from '../db/client';
 import { HttpError } from '../lib/http-error';
 import type { DeviceIdentity } from './devices';
 
-interface DeviceRow {
+export interface DeviceRow {
   parameter: ParameterKey;
   value: number;
   entered: number;
@@ -24,41 +25,126 @@ interface DeviceRow {
 /** A device's last_seen_at moves at most once a minute: the stale-device sweep needs no finer. */
 const lastSeenStepMs = 60_000;
 
+/** One request's checked readings, waiting to be stored with the others of its group. */
+export interface DeviceBatch {
+  device: DeviceIdentity;
+  rows: readonly DeviceRow[];
+}
+
 /**
- * The batch in one statement, so one transaction without BEGIN and COMMIT: the rows go in as one
- * array per column (no per-row work in the query builder), the unique index drops what is already
- * stored, and the trigger on readings keeps the latest readings and the rollups in the same
- * statement. The device's last_seen_at rides along.
+ * Device batches that arrive while others are being stored are stored together: one statement and
+ * one commit for the group, then one alert pass for all its tanks (see `groupCommit`). Two groups
+ * may be on their way at once, so the next one gathers while the last one's alerts are judged.
  */
-async function storeDeviceBatch(
+export const ingestGroups = { maxInFlight: 2, maxReadings: 5 * maxDeviceBatch } as const;
+
+/**
+ * The group's batches in one statement, so one transaction without BEGIN and COMMIT: the rows go in
+ * as one array per column (no per-row work in the query builder), the unique index drops what is
+ * already stored, and the trigger on readings keeps the latest readings and the rollups in the same
+ * statement. The devices' last_seen_at ride along. Returns each batch's new readings, in order.
+ */
+async function storeDeviceBatches(
   db: Pick<Db, 'execute'>,
-  device: DeviceIdentity,
-  rows: readonly DeviceRow[],
+  batches: readonly DeviceBatch[],
   now: Date,
-) {
-  const result = await db.execute<{ parameter: ParameterKey; value: number; measured_at: string }>(sql`
+): Promise<StoredReading[][]> {
+  // The same reading in two batches of the group (a device re-sending while its first request is
+  // still on its way) is offered once, by the first; the index would keep only one of them anyway.
+  const owner = new Map<string, number>();
+  const rows: (DeviceRow & { device: DeviceIdentity })[] = [];
+  const keyOf = (deviceId: string, parameter: string, at: number) => `${deviceId} ${parameter} ${at}`;
+  batches.forEach(({ device, rows: batch }, index) => {
+    for (const row of batch) {
+      const key = keyOf(device.id, row.parameter, row.measuredAt.getTime());
+      if (owner.has(key)) continue;
+      owner.set(key, index);
+      rows.push({ ...row, device });
+    }
+  });
+  const stored = batches.map((): StoredReading[] => []);
+  const deviceIds = [...new Set(batches.map((batch) => batch.device.id))];
+  const result = await db.execute<{
+    device_id: string;
+    parameter: ParameterKey;
+    value: number;
+    measured_at: string;
+  }>(sql`
     with seen as (
       update devices set last_seen_at = ${now.toISOString()}::timestamptz
-      where id = ${device.id}
+      where id = any(${sql.param(deviceIds)}::uuid[])
         and (last_seen_at is null or last_seen_at < ${new Date(now.getTime() - lastSeenStepMs).toISOString()}::timestamptz)
     )
     insert into readings (company_id, tank_id, device_id, source, parameter, value, entered_value, entered_unit, measured_at)
-    select ${device.companyId}::uuid, ${device.tankId}::uuid, ${device.id}::uuid, 'device', r.parameter, r.value, r.entered, r.unit, r.measured_at
+    select r.company_id, r.tank_id, r.device_id, 'device', r.parameter, r.value, r.entered, r.unit, r.measured_at
     from unnest(
+      ${sql.param(rows.map((row) => row.device.companyId))}::uuid[],
+      ${sql.param(rows.map((row) => row.device.tankId))}::uuid[],
+      ${sql.param(rows.map((row) => row.device.id))}::uuid[],
       ${sql.param(rows.map((row) => row.parameter))}::parameter_key[],
       ${sql.param(rows.map((row) => row.value))}::float8[],
       ${sql.param(rows.map((row) => row.entered))}::float8[],
       ${sql.param(rows.map((row) => row.unit))}::text[],
       ${sql.param(rows.map((row) => row.measuredAt.toISOString()))}::timestamptz[]
-    ) as r(parameter, value, entered, unit, measured_at)
+    ) as r(company_id, tank_id, device_id, parameter, value, entered, unit, measured_at)
     on conflict (device_id, parameter, measured_at) where device_id is not null do nothing
-    returning parameter, value, measured_at`);
-  return result.rows.map((row) => ({
-    parameter: row.parameter,
-    value: row.value,
-    measuredAt: new Date(row.measured_at),
-    source: 'device' as const,
-  }));
+    returning device_id, parameter, value, measured_at`);
+  for (const row of result.rows) {
+    const measuredAt = new Date(row.measured_at);
+    const index = owner.get(keyOf(row.device_id, row.parameter, measuredAt.getTime()))!;
+    stored[index]!.push({ parameter: row.parameter, value: row.value, measuredAt, source: 'device' });
+  }
+  return stored;
+}
+
+/**
+ * Stores a group of batches and judges their tanks; each batch answers how many of its readings were
+ * new, or the error that kept it out. (Exported for tests, which build groups the timing would not.)
+ */
+export async function writeDeviceGroup(
+  deps: AppDeps,
+  batches: DeviceBatch[],
+): Promise<PromiseSettledResult<number>[]> {
+  try {
+    return await commitReadingsStatement(deps, async (db) => {
+      const stored = await storeDeviceBatches(db, batches, deps.clock());
+      const byTank = new Map<string, StoredReading[]>();
+      batches.forEach(({ device }, index) => {
+        byTank.set(device.tankId, [...(byTank.get(device.tankId) ?? []), ...stored[index]!]);
+      });
+      return {
+        stored: byTank,
+        result: stored.map((list) => ({ status: 'fulfilled' as const, value: list.length })),
+      };
+    });
+  } catch (error) {
+    if (batches.length === 1) throw error;
+    // One batch can fail the statement for all (its tank deleted a moment ago): each goes alone,
+    // so only that one fails. (Judging never throws: the readings are stored by then.)
+    return Promise.all(
+      batches.map((batch) =>
+        writeDeviceGroup(deps, [batch]).then(
+          ([result]) => result!,
+          (reason: unknown): PromiseRejectedResult => ({ status: 'rejected', reason }),
+        ),
+      ),
+    );
+  }
+}
+
+const writers = new WeakMap<AppDeps, (batch: DeviceBatch) => Promise<number>>();
+
+function writerFor(deps: AppDeps) {
+  let writer = writers.get(deps);
+  if (!writer) {
+    writer = groupCommit((batches: DeviceBatch[]) => writeDeviceGroup(deps, batches), {
+      maxInFlight: ingestGroups.maxInFlight,
+      maxSize: ingestGroups.maxReadings,
+      sizeOf: (batch) => batch.rows.length,
+    });
+    writers.set(deps, writer);
+  }
+  return writer;
 }
 
 function shapeReason(path: PropertyKey | undefined): IngestRejectionReason {
@@ -72,7 +158,8 @@ function shapeReason(path: PropertyKey | undefined): IngestRejectionReason {
  * reason while the good ones are kept. Re-sending is harmless: duplicates inside the batch are
  * dropped first, and the unique index on (device, parameter, measured_at) with ON CONFLICT DO
  * NOTHING drops the ones already stored, also against a concurrent request with the same
- * readings. The new readings' alerts are raised after the commit, before this returns.
+ * readings. The new readings' alerts are raised after the commit, before this returns; batches of
+ * other devices arriving meanwhile share the statement and the alert pass (`ingestGroups`).
  */
 export async function ingestReadings(
   deps: AppDeps,
@@ -133,9 +220,6 @@ export async function ingestReadings(
     });
   });
 
-  const accepted = await commitReadingsStatement(deps, device.tankId, async (db) => {
-    const stored = await storeDeviceBatch(db, device, rows, now);
-    return { stored, result: stored.length };
-  });
+  const accepted = await writerFor(deps)({ device, rows });
   return { accepted, duplicate: duplicate + rows.length - accepted, rejected };
 }

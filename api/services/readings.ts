@@ -23,7 +23,8 @@ import { badRequest, forbidden, type ErrorIssue } from '../lib/http-error';
 import { roleCan } from '@shared/people/permissions';
 import { findTankFor } from '../policy/index';
 import type { Actor } from './actors';
-import { raiseAlertsFor } from './alerts';
+import type { NewReading } from './alert-engine';
+import { raiseAlertsForTanks } from './alerts';
 import { healthForTanks } from './tank-health';
 import { formatDate } from '@shared/text/dates';
 
@@ -53,7 +54,7 @@ export function timeProblemMessage(problem: TimeProblem, existsFrom: Date): stri
 }
 
 /** A stored reading as the alert engine judges it. */
-export type StoredReading = Parameters<typeof raiseAlertsFor>[2][number];
+export type StoredReading = NewReading;
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -67,28 +68,32 @@ export async function commitReadings<T>(
   tankId: string,
   write: (tx: Tx) => Promise<{ stored: readonly StoredReading[]; result: T }>,
 ): Promise<T> {
-  return afterCommit(deps, tankId, await deps.db.transaction(write));
+  const { stored, result } = await deps.db.transaction(write);
+  return afterCommit(deps, new Map([[tankId, stored]]), result);
 }
 
 /**
- * The same for a write that is a single statement, atomic on its own (device ingest): it runs on
- * the pool without BEGIN and COMMIT around it, two round trips fewer per batch.
+ * The same for a write that is a single statement, atomic on its own (device ingest, several
+ * devices' batches at once): it runs on the pool without BEGIN and COMMIT around it, and says
+ * which readings are new for each tank; the tanks are judged together after it.
  */
 export async function commitReadingsStatement<T>(
   deps: AppDeps,
-  tankId: string,
-  write: (db: Pick<Db, 'execute'>) => Promise<{ stored: readonly StoredReading[]; result: T }>,
+  write: (
+    db: Pick<Db, 'execute'>,
+  ) => Promise<{ stored: ReadonlyMap<string, readonly StoredReading[]>; result: T }>,
 ): Promise<T> {
-  return afterCommit(deps, tankId, await write(deps.db));
+  const { stored, result } = await write(deps.db);
+  return afterCommit(deps, stored, result);
 }
 
 async function afterCommit<T>(
   deps: AppDeps,
-  tankId: string,
-  { stored, result }: { stored: readonly StoredReading[]; result: T },
+  stored: ReadonlyMap<string, readonly StoredReading[]>,
+  result: T,
 ): Promise<T> {
-  deps.reads.wrote(tankId);
-  await raiseAlertsFor(deps, tankId, stored);
+  for (const tankId of stored.keys()) deps.reads.wrote(tankId);
+  await raiseAlertsForTanks(deps, stored);
   return result;
 }
 

@@ -1,7 +1,10 @@
-import { eq } from 'drizzle-orm';
+import { and, eq, ne } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { devices, readings } from '../../api/db/schema/index';
+import { alerts, devices, readings } from '../../api/db/schema/index';
 import { ingestRateLimit } from '../../api/routes/ingest';
+import { findDeviceByToken } from '../../api/services/devices';
+import { writeDeviceGroup, type DeviceRow } from '../../api/services/ingest';
+import { createTank } from '../helpers/factories';
 import { startTestStack, type TestStack } from '../helpers/stack';
 import { deviceFor, minutesAgo, readingCount, readingsWorld } from './readings-kit';
 
@@ -193,6 +196,103 @@ describe('device ingest', () => {
       expect(retryAfter).toBeGreaterThan(0);
       expect(retryAfter).toBeLessThanOrEqual(ingestRateLimit.durationS);
       expect(other.status).toBe(200);
+    });
+  });
+
+  describe('batches stored as a group', () => {
+    const rowsOf = (list: Array<{ value: number; minutesAgo: number }>): DeviceRow[] =>
+      list.map(({ value, minutesAgo: ago }) => ({
+        parameter: 'temperature',
+        value,
+        entered: value,
+        unit: '°C',
+        measuredAt: new Date(Math.floor(Date.now() / 60_000) * 60_000 - ago * 60_000),
+      }));
+    const identity = async (tankId: string) => {
+      const device = await deviceFor(stack.database.db, world.people.technician, tankId);
+      return (await findDeviceByToken(stack.database.db, device.token))!;
+    };
+    const tankIn = (name: string) =>
+      createTank(stack.database.db, { companyId: world.company.id, name, setUpOn: '2020-01-01' });
+    const openAlerts = (tankId: string) =>
+      stack.database.db
+        .select()
+        .from(alerts)
+        .where(and(eq(alerts.tankId, tankId), ne(alerts.status, 'resolved')));
+
+    it('stores several devices’ batches in one write, answers each, and judges every tank', async () => {
+      const calm = await tankIn('Lobby reef');
+      const hot = await tankIn('Clinic reef');
+      const first = await identity(calm.id);
+      const second = await identity(calm.id);
+      const heater = await identity(hot.id);
+      const shared = { value: 25.4, minutesAgo: 30 };
+
+      const results = await writeDeviceGroup(stack.deps, [
+        { device: first, rows: rowsOf([{ value: 25.2, minutesAgo: 40 }, shared]) },
+        // The same reading again, from a re-send still on its way: stored once, for the first.
+        { device: first, rows: rowsOf([shared, { value: 25.5, minutesAgo: 20 }]) },
+        { device: second, rows: rowsOf([{ value: 25.3, minutesAgo: 35 }]) },
+        {
+          device: heater,
+          rows: rowsOf([31, 31.2, 31.4, 31.5].map((value, i) => ({ value, minutesAgo: 20 - 5 * i }))),
+        },
+      ]);
+
+      expect(results).toEqual([2, 1, 1, 4].map((value) => ({ status: 'fulfilled', value })));
+      expect(await readingCount(stack.database.db, calm.id)).toBe(4);
+      expect(await readingCount(stack.database.db, hot.id)).toBe(4);
+      const raised = await openAlerts(hot.id);
+      expect(raised.map((alert) => [alert.ruleKey, alert.severity])).toEqual([
+        ['limit:temperature', 'critical'],
+      ]);
+      expect(await openAlerts(calm.id)).toEqual([]);
+      const states = await stack.database.pool.query<{ tank_id: string }>(
+        `select tank_id from alert_rule_states where rule_key = 'limit:temperature' and tank_id = any($1::uuid[])`,
+        [[calm.id, hot.id]],
+      );
+      expect(states.rows.map((row) => row.tank_id).sort()).toEqual([calm.id, hot.id].sort());
+    });
+
+    it('fails only the batch whose tank went away; the others are stored and judged', async () => {
+      const kept = await tankIn('Office reef');
+      const hot = await tankIn('Restaurant reef');
+      const doomed = await tankIn('Closing reef');
+      const keeper = await identity(kept.id);
+      const heater = await identity(hot.id);
+      const orphan = await identity(doomed.id);
+      await stack.database.pool.query('delete from tanks where id = $1', [doomed.id]);
+
+      const results = await writeDeviceGroup(stack.deps, [
+        { device: keeper, rows: rowsOf([{ value: 25.1, minutesAgo: 10 }]) },
+        { device: orphan, rows: rowsOf([{ value: 25.1, minutesAgo: 10 }]) },
+        {
+          device: heater,
+          rows: rowsOf([31, 31.2, 31.4, 31.5].map((value, i) => ({ value, minutesAgo: 20 - 5 * i }))),
+        },
+      ]);
+
+      expect(results.map((result) => result.status)).toEqual(['fulfilled', 'rejected', 'fulfilled']);
+      expect(results[0]).toEqual({ status: 'fulfilled', value: 1 });
+      expect(results[2]).toEqual({ status: 'fulfilled', value: 4 });
+      expect(await readingCount(stack.database.db, kept.id)).toBe(1);
+      expect(await readingCount(stack.database.db, doomed.id)).toBe(0);
+      expect((await openAlerts(hot.id)).map((alert) => alert.ruleKey)).toEqual(['limit:temperature']);
+    });
+
+    it('answers every one of many devices sending at once with its own counts', async () => {
+      const tank = await tankIn('Gallery reef');
+      const senders = await Promise.all(
+        Array.from({ length: 8 }, () => deviceFor(stack.database.db, world.people.technician, tank.id)),
+      );
+
+      const answers = await Promise.all(
+        senders.map((device, n) => ingest(device.token, { readings: series(n + 1, 90) })),
+      );
+
+      expect(answers.map((answer) => answer.status)).toEqual(senders.map(() => 200));
+      expect(answers.map((answer) => answer.body.accepted)).toEqual(senders.map((_, n) => n + 1));
+      expect(await readingCount(stack.database.db, tank.id)).toBe((8 * 9) / 2);
     });
   });
 
