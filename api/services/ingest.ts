@@ -36,7 +36,7 @@ export interface DeviceBatch {
  * one commit for the group, then one alert pass for all its tanks (see `groupCommit`). Two groups
  * may be on their way at once, so the next one gathers while the last one's alerts are judged.
  */
-export const ingestGroups = { maxInFlight: 2, maxReadings: 5 * maxDeviceBatch } as const;
+const ingestGroups = { maxInFlight: 2, maxReadings: 5 * maxDeviceBatch } as const;
 
 /**
  * The group's batches in one statement, so one transaction without BEGIN and COMMIT: the rows go in
