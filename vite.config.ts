@@ -73,6 +73,10 @@ export default defineConfig({
     },
   },
   test: {
+    // Vitest's default on a 2-core machine is one worker (cores − 1). Most API test files wait on
+    // PostgreSQL, child processes and timers rather than the CPU, so two files at a time finish the
+    // run sooner; the browser tests stay one file at a time (their project sets fileParallelism).
+    maxWorkers: 2,
     projects: [
       {
         extends: true,
