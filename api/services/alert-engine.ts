@@ -1,6 +1,6 @@
-import { and, desc, eq, lte, sql, type SQL } from 'drizzle-orm';
+import { and, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
 import { describeAlert, type AlertFacts } from '@shared/alerts/describe-alert';
-import { evaluateFreeAmmonia } from '@shared/alerts/free-ammonia';
+import { evaluateFreeAmmonia, freeAmmoniaCompanionMaxAgeMs } from '@shared/alerts/free-ammonia';
 import type { AlertKind, AlertSeverity } from '@shared/alerts/kinds';
 import { evaluateLivestock, type LivestockInhabitant } from '@shared/alerts/livestock';
 import { evaluateRate } from '@shared/alerts/rate';
@@ -508,8 +508,13 @@ async function evaluateRateRule(
   return outcome.settled ? setCondition(store, tank, null, ruleKey, latest.measuredAt) : null;
 }
 
-/** Free ammonia needs the pH and temperature (and salinity) measured closest before the ammonia test. */
+/**
+ * Free ammonia needs the pH and temperature (and salinity) measured closest before the ammonia test,
+ * within `freeAmmoniaCompanionMaxAgeMs` of it; the bound also keeps each probe to the latest month
+ * partitions of readings however many years the tank has.
+ */
 async function evaluateFreeAmmoniaRule(store: TankAlertStore, tank: TankContext, latest: NewReading) {
+  const oldest = new Date(latest.measuredAt.getTime() - freeAmmoniaCompanionMaxAgeMs);
   const nearest = async (parameter: ParameterKey) => {
     const [row] = await store.tx
       .select({ value: readings.value })
@@ -519,6 +524,7 @@ async function evaluateFreeAmmoniaRule(store: TankAlertStore, tank: TankContext,
           eq(readings.tankId, tank.id),
           eq(readings.parameter, parameter),
           lte(readings.measuredAt, latest.measuredAt),
+          gte(readings.measuredAt, oldest),
         ),
       )
       .orderBy(desc(readings.measuredAt))

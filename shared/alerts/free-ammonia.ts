@@ -1,4 +1,5 @@
 import { unionizedAmmonia, unionizedAmmoniaFraction } from '@shared/chemistry/index';
+import { dayMs } from '@shared/parameters/catalogue';
 import type { LimitSeverity } from '@shared/parameters/limits';
 
 /**
@@ -7,6 +8,13 @@ import type { LimitSeverity } from '@shared/parameters/limits';
  * needing action the same day.
  */
 export const freeAmmoniaThresholds = { warning: 0.02, critical: 0.05 } as const;
+
+/**
+ * How long before an ammonia test a pH, temperature or salinity reading still counts for it: a
+ * week, the pH's home-test interval (common practice: the three are tested together). An older
+ * reading says little about the water the ammonia came from, so no free-ammonia verdict is drawn.
+ */
+export const freeAmmoniaCompanionMaxAgeMs = 7 * dayMs;
 
 export interface FreeAmmoniaOutcome {
   /** On the same basis as the total (as NH3 for kits that report NH3/NH4+ as NH3). */

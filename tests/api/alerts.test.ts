@@ -1,6 +1,7 @@
 import { and, eq, ne } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { alerts, notifications } from '../../api/db/schema/index';
+import { freeAmmoniaCompanionMaxAgeMs } from '@shared/alerts/free-ammonia';
 import { afterAlertEvents } from '../../api/services/alerts';
 import { evaluateNewReadings } from '../../api/services/alert-engine';
 import {
@@ -281,6 +282,29 @@ describe('alerts from readings', () => {
       { parameter: 'ammonia', value: 1, measuredAt: new Date(at + minutes(1)), source: 'home-test' },
     ]);
 
+    const rows = await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'free-ammonia'));
+    expect(rows).toEqual([expect.objectContaining({ severity: 'critical', status: 'open' })]);
+  });
+
+  it('draws no free-ammonia verdict from a pH and temperature older than a week', async () => {
+    const at = Date.now() - minutes(10);
+    const older = at - freeAmmoniaCompanionMaxAgeMs - minutes(1);
+    await record([
+      { parameter: 'ph', value: 8.3, measuredAt: new Date(older), source: 'home-test' },
+      { parameter: 'temperature', value: 26, measuredAt: new Date(older), source: 'home-test' },
+    ]);
+    await record([{ parameter: 'ammonia', value: 1, measuredAt: new Date(at), source: 'home-test' }]);
+    expect(await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'free-ammonia'))).toEqual([]);
+
+    // The same pair a minute inside the week counts.
+    const inside = at - freeAmmoniaCompanionMaxAgeMs + minutes(1);
+    await record([
+      { parameter: 'ph', value: 8.3, measuredAt: new Date(inside), source: 'home-test' },
+      { parameter: 'temperature', value: 26, measuredAt: new Date(inside), source: 'home-test' },
+    ]);
+    await record([
+      { parameter: 'ammonia', value: 1, measuredAt: new Date(at + minutes(1)), source: 'home-test' },
+    ]);
     const rows = await stack.database.db.select().from(alerts).where(eq(alerts.kind, 'free-ammonia'));
     expect(rows).toEqual([expect.objectContaining({ severity: 'critical', status: 'open' })]);
   });
