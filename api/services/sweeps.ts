@@ -6,6 +6,7 @@ import {
   evaluateStaleDevice,
   reportingGaps,
   reportingGapsSampled,
+  reportingRhythmLookBackMs,
 } from '@shared/alerts/stale-device';
 import { parameterCatalogue, parametersFor } from '@shared/parameters/catalogue';
 import type { ParameterKey } from '@shared/parameters/keys';
@@ -27,20 +28,31 @@ async function settle(deps: AppDeps, tankId: string, ruleKey: string, alert: New
 
 /**
  * Each device's latest report times, for every device in one statement: one backward probe of
- * readings_device_key per device and parameter.
+ * readings_device_key per device and parameter, no further back than `reportingRhythmLookBackMs`
+ * before the device was last seen (so only the latest month partitions are read). A device never
+ * seen has sent nothing to read.
  */
-async function recentReports(deps: AppDeps, deviceIds: readonly string[]): Promise<Map<string, Date[]>> {
-  const reports = new Map<string, Date[]>(deviceIds.map((id) => [id, []]));
-  if (deviceIds.length === 0) return reports;
+async function recentReports(
+  deps: AppDeps,
+  devicesSeen: readonly { id: string; lastSeenAt: Date | null }[],
+): Promise<Map<string, Date[]>> {
+  const reports = new Map<string, Date[]>(devicesSeen.map(({ id }) => [id, []]));
+  const seen = devicesSeen.filter(
+    (device): device is { id: string; lastSeenAt: Date } => device.lastSeenAt !== null,
+  );
+  if (seen.length === 0) return reports;
   const result = await deps.db.execute<{ device_id: string; at: string }>(sql`
     select d.id as device_id, t.at
-    from unnest(${sql.param(deviceIds)}::uuid[]) as d(id)
+    from unnest(
+      ${sql.param(seen.map((device) => device.id))}::uuid[],
+      ${sql.param(seen.map((device) => new Date(device.lastSeenAt.getTime() - reportingRhythmLookBackMs).toISOString()))}::timestamptz[]
+    ) as d(id, since)
     cross join lateral (
       select distinct m.measured_at as at
       from unnest(enum_range(null::parameter_key)) as p(parameter)
       cross join lateral (
         select r.measured_at from readings r
-        where r.device_id = d.id and r.parameter = p.parameter
+        where r.device_id = d.id and r.parameter = p.parameter and r.measured_at >= d.since
         order by r.measured_at desc
         limit ${reportingGapsSampled + 1}
       ) m
@@ -69,7 +81,7 @@ export async function sweepStaleDevices(deps: AppDeps): Promise<string[]> {
     .where(isNull(devices.revokedAt));
   const reports = await recentReports(
     deps,
-    rows.map(({ device }) => device.id),
+    rows.map(({ device }) => device),
   );
   // Alerts of this kind not yet resolved: a device whose verdict matches needs no transaction.
   const unresolved = new Set(

@@ -1,4 +1,4 @@
-import { deviceStaleAfterMs } from '@shared/parameters/catalogue';
+import { dayMs, deviceStaleAfterMs } from '@shared/parameters/catalogue';
 
 export interface DeviceSightings {
   /** Null while the device has never sent a reading. */
@@ -20,6 +20,15 @@ export const missedReportsBeforeStale = 3;
  * drizzle/0016): change both together (tests/api/reading-summaries.test.ts checks they agree).
  */
 export const reportingGapsSampled = 10;
+
+/**
+ * How far back from its last sighting a device's report times are read to find its rhythm: room
+ * for the sampled gaps of any device reporting at least every nine days (devices report every few
+ * minutes), while the read stays in the latest few month partitions of readings however many years
+ * are kept. A device reporting less often than every 45 days shows no gap there and gets the
+ * 30-minute default.
+ */
+export const reportingRhythmLookBackMs = 90 * dayMs;
 
 /**
  * When a device's data stops being current: three of its usual intervals (the median of the gaps

@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import { reportingRhythmLookBackMs } from '@shared/alerts/stale-device';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { alerts, devices, readings } from '../../api/db/schema/index';
 import { hashToken, newSecretToken } from '../../api/lib/tokens';
@@ -111,6 +112,34 @@ describe('scheduled alert sweeps', () => {
     expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
     const ruleKeys = (await stack.database.db.select().from(alerts)).map((alert) => alert.ruleKey);
     expect(ruleKeys.sort()).toEqual([`device-stale:${frequent.id}`, `device-stale:${hourly.id}`].sort());
+  });
+
+  it('finds a rhythm only in the reports of the 90 days before the device was last seen', async () => {
+    const now = stack.clock.now().getTime();
+    const lastSeen = now - minutes(40);
+    const device = await addDevice(new Date(lastSeen));
+    // Hourly long ago, then one report 40 minutes ago: the old hours would set "stale after 3 h".
+    await stack.database.db.insert(readings).values(
+      [
+        lastSeen,
+        ...Array.from({ length: 10 }, (_, i) => lastSeen - reportingRhythmLookBackMs - minutes(60 * (i + 1))),
+      ].map((at) => ({
+        companyId: tank.companyId,
+        tankId: tank.id,
+        deviceId: device.id,
+        parameter: 'temperature' as const,
+        value: 25,
+        enteredValue: 25,
+        enteredUnit: 'stored',
+        measuredAt: new Date(at),
+        source: 'device' as const,
+      })),
+    );
+
+    // One report in the window shows no rhythm, so the 30-minute default holds: silent at 40.
+    expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
+    const [open] = await stack.database.db.select().from(alerts);
+    expect(open).toMatchObject({ ruleKey: `device-stale:${device.id}`, status: 'open' });
   });
 
   it('raises a low-urgency notice when a home test is overdue, and clears it after a new test', async () => {
