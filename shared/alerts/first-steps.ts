@@ -38,7 +38,7 @@ interface Step {
 const retest: Step = { text: 'Test again to make sure the reading is right.', warning: true };
 const retestAfter: Step = { text: 'Test again in an hour or so to see that it is moving the right way.' };
 const tellTechnician: Step = {
-  text: 'Your technician can see this reading. Call your service company if it keeps moving.',
+  text: 'Your technician can see this reading. Send the company a message from this tank’s page if it keeps moving.',
   warning: true,
 };
 const matchedWaterChange: Step = {

@@ -139,7 +139,7 @@ describe('alerts when a reading crosses a limit', () => {
     const tankAlerts = owner.getByRole('region', { name: 'Alerts' });
     const ownerCard = tankAlerts.getByRole('article', { name: alertTitle });
     await ownerCard.waitFor();
-    await ownerCard.getByRole('heading', { name: 'First steps while help is on the way' }).waitFor();
+    await ownerCard.getByRole('heading', { name: 'What you can do now' }).waitFor();
     await ownerCard
       .getByText('Switch the heater off at the wall, with dry hands, and leave it off.')
       .waitFor();
@@ -169,7 +169,7 @@ describe('alerts when a reading crosses a limit', () => {
     const drawer = technician.getByRole('dialog', { name: 'Alert details' });
     await drawer.getByRole('heading', { name: 'Timeline' }).waitFor();
     await drawer.getByText('Opened', { exact: true }).waitFor();
-    await drawer.getByRole('heading', { name: 'First steps while help is on the way' }).waitFor();
+    await drawer.getByRole('heading', { name: 'What you can do now' }).waitFor();
     await checkAxe(technician);
     await technician.keyboard.press('Escape');
     await drawer.waitFor({ state: 'hidden' });

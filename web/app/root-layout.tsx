@@ -22,12 +22,25 @@ function MainNav() {
   const { data: me } = useMe();
   const { pathname } = useLocation();
   const navRef = useRef<HTMLElement>(null);
-  useEffect(() => {
-    navRef.current
-      ?.querySelector('[aria-current="page"]')
-      ?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
-  }, [pathname]);
   const openUrgent = useOpenUrgentCount(can(me, 'urgent:manage'));
+  // Again once the links appear (they wait for who is signed in), once a count widens a link and
+  // once the web font has replaced the fallback, so a page opened directly or reloaded shows its
+  // own link too.
+  const signedIn = me?.id ?? null;
+  useEffect(() => {
+    let live = true;
+    const reveal = () => {
+      if (!live) return;
+      navRef.current
+        ?.querySelector('[aria-current="page"]')
+        ?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
+    };
+    reveal();
+    void document.fonts?.ready.then(reveal);
+    return () => {
+      live = false;
+    };
+  }, [pathname, signedIn, openUrgent]);
   const links: { to: string; label: string; end?: boolean; count?: number | null }[] = [];
   const isStaffNav = can(me, 'clients:read');
   // Staff work from the company console; a client sees their own tanks.

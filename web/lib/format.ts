@@ -24,13 +24,16 @@ const locale = 'en-GB';
 const relative = new Intl.RelativeTimeFormat(locale, { numeric: 'auto' });
 const numberFormats = new Map<string, Intl.NumberFormat>();
 
-/** "just now", "5 minutes ago", "yesterday", "3 days ago": what a person says, not a timestamp. */
+/**
+ * "just now", "5 minutes ago", "yesterday", "3 days ago": what a person says, not a timestamp.
+ * Days are rounded, so 37 hours ago is "2 days ago", not "yesterday".
+ */
 export function relativeTime(iso: string | number, now = Date.now()): string {
   const elapsed = now - new Date(iso).getTime();
   if (elapsed < minute) return 'just now';
   if (elapsed < hour) return relative.format(-Math.floor(elapsed / minute), 'minute');
   if (elapsed < day) return relative.format(-Math.floor(elapsed / hour), 'hour');
-  return relative.format(-Math.floor(elapsed / day), 'day');
+  return relative.format(-Math.round(elapsed / day), 'day');
 }
 
 export {

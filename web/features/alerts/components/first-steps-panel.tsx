@@ -1,14 +1,14 @@
 import { useId } from 'react';
 import type { FirstSteps } from '@shared/alerts/first-steps';
 
-/** What to do first for a critical alert, with the safety cautions that go with it. */
+/** What an owner can do now for an open alert (no visit is implied), with the safety cautions that go with it. */
 export function FirstStepsPanel({ steps, headingLevel = 3 }: { steps: FirstSteps; headingLevel?: 3 | 4 }) {
   const id = useId();
   const Heading = headingLevel === 3 ? 'h3' : 'h4';
   return (
     <section aria-labelledby={`${id}-steps`} className="mt-4 rounded-lg bg-sand-100 p-4">
       <Heading id={`${id}-steps`} className="font-bold text-ink-900">
-        First steps while help is on the way
+        What you can do now
       </Heading>
       <ol className="mt-2 list-decimal space-y-1.5 pl-5 text-ink-900">
         {steps.steps.map((step) => (

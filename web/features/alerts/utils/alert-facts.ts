@@ -1,6 +1,6 @@
 import { deviceStaleFirstSteps, firstSteps, type FirstSteps } from '@shared/alerts/first-steps';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
-import { formatValue } from '@shared/parameters/units';
+import { formatAgainstBound, formatValue } from '@shared/parameters/units';
 import type { AlertView } from '@shared/schemas/alerts';
 import type { LimitDirection } from '@shared/parameters/limits';
 
@@ -60,12 +60,12 @@ export function readingFacts(alert: AlertView): ReadingFacts | null {
   }
   if (!alert.parameter) return null;
   const { label } = parameterCatalogue[alert.parameter];
-  const reading = formatValue(alert.parameter, alert.value);
   // A rate alert's "limit" is an allowed change per period, not a level to compare with.
   const comparable = alert.kind === 'limit' || alert.kind === 'livestock';
-  const limit =
-    comparable && alert.limitValue !== null
-      ? formatValue(alert.parameter, alert.limitValue, { trim: true })
-      : null;
-  return { label, reading, limit };
+  if (!comparable || alert.limitValue === null) {
+    return { label, reading: formatValue(alert.parameter, alert.value), limit: null };
+  }
+  // Never "36.0 ppt" beside "limit 36 ppt": both get the decimals that tell them apart.
+  const shown = formatAgainstBound(alert.parameter, alert.value, alert.limitValue);
+  return { label, reading: shown.value, limit: shown.bound };
 }

@@ -260,17 +260,22 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
     const home = manualPoints(parameter, unit, history.readings, 'home-test');
     const visits = manualPoints(parameter, unit, history.readings, 'visit');
     values.push(...home.map((p) => p.y), ...visits.map((p) => p.y));
+    // A year of daily home tests is hundreds of markers on a phone's width: smaller ones, without
+    // their white edge, so they read as a trail rather than a smear.
+    const dense = home.length + visits.length;
+    const radius = (full: number) => (dense > 150 ? full / 3 : dense > 50 ? full / 1.75 : full);
+    const edge = dense > 150 ? 0 : 1;
     if (home.length > 0) {
       sets.push({
         type: 'scatter',
         label: 'Home tests',
         data: home,
         pointStyle: 'triangle',
-        pointRadius: 6,
+        pointRadius: radius(6),
         pointHoverRadius: 8,
         backgroundColor: colours.home,
         borderColor: '#ffffff',
-        borderWidth: 1,
+        borderWidth: edge,
       });
     }
     if (visits.length > 0) {
@@ -279,11 +284,11 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
         label: 'Visits',
         data: visits,
         pointStyle: 'rectRot',
-        pointRadius: 6.5,
+        pointRadius: radius(6.5),
         pointHoverRadius: 8.5,
         backgroundColor: colours.visit,
         borderColor: '#ffffff',
-        borderWidth: 1,
+        borderWidth: edge,
       });
     }
     return { datasets: sets, extent: values };

@@ -38,7 +38,8 @@ import { readLocalDraft, useReportSync, type LocalDraft, type SyncState } from '
 export function VisitReportEditor({ visitId }: { visitId: string }) {
   const visit = useVisit(visitId);
   const tankId = visit.data?.tankId ?? '';
-  const equipment = useEquipment(tankId);
+  // Asked for once the visit names its tank (never `/tanks//equipment`).
+  const equipment = useEquipment(tankId, tankId !== '');
   // What this phone kept of the report (undefined while reading it).
   const [local, setLocal] = useState<LocalDraft | null | undefined>(undefined);
   useEffect(() => {
