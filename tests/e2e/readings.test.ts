@@ -83,6 +83,10 @@ describe('tank readings, charts and limits', () => {
     expect(await page.getByTestId('chart-bands').textContent()).toMatch(
       /Shaded bands: Warning outside .+ °C/,
     );
+    // The livestock's own range is drawn beside the tank's limits, with the species that set it.
+    await expect
+      .poll(() => page.getByTestId('chart-livestock').textContent())
+      .toMatch(/Dotted lines: what the livestock tolerate together, \d+\.\d–\d+\.\d °C \(set by the .+\)\./);
     // Owners get the home-test form, not the staff tools.
     await page.getByRole('heading', { name: 'Add readings' }).waitFor();
     expect(await page.getByRole('heading', { name: 'Limits' }).count()).toBe(0);

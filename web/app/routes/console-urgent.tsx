@@ -17,7 +17,7 @@ export function ConsoleUrgentRoute() {
   return (
     <Page
       title="Urgent requests"
-      description="Open requests oldest first, against the company’s target for acknowledging them."
+      description="Open requests, oldest first, each with how long it waited against the company’s target for acknowledging it."
       actions={
         can(me, 'urgent:settings') ? (
           <Link

@@ -1,6 +1,6 @@
 import { formatRange, parameterLabel } from '@shared/livestock/comfort-range';
 import type { ParameterKey } from '@shared/parameters/keys';
-import type { TankComfortRange } from '../api/get-comfort-range';
+import type { TankComfortRange } from '../../../lib/queries/comfort-range';
 
 /** The water every present inhabitant tolerates, and where their needs clash. */
 export function ComfortRangePanel({ comfort }: { comfort: TankComfortRange }) {

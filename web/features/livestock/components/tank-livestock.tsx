@@ -1,6 +1,6 @@
 import { ErrorState, LoadingState } from '../../../components/states';
 import { useLivestock } from '../../../lib/queries/livestock';
-import { useComfortRange } from '../api/get-comfort-range';
+import { useComfortRange } from '../../../lib/queries/comfort-range';
 import { ComfortRangePanel } from './comfort-range-panel';
 import { LivestockGallery } from './livestock-gallery';
 

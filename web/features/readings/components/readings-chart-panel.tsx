@@ -1,5 +1,6 @@
-import { lazy, Suspense, useEffect, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { z } from 'zod';
+import { joinWithAnd } from '@shared/livestock/comfort-range';
 import { parameterCatalogue } from '@shared/parameters/catalogue';
 import { parameterKey, type ParameterKey } from '@shared/parameters/keys';
 import { readingSourceLabels } from '@shared/readings/source-labels';
@@ -8,10 +9,11 @@ import { SelectField } from '../../../components/form-fields';
 import { RadioGroup } from '../../../components/radio-group';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { formatCount } from '../../../lib/format';
+import { useComfortRange } from '../../../lib/queries/comfort-range';
 import { useReadingHistory } from '../api/get-reading-history';
 import { chartRangeKeys, chartRanges, type ChartRange } from '../utils/chart-ranges';
 import { unitOptions } from '../utils/display-units';
-import { limitsSummary } from '../utils/limits-text';
+import { limitsSummary, rangeSummary } from '../utils/limits-text';
 import { ReadingsTable } from './readings-table';
 import { WindowStats } from './window-stats';
 
@@ -50,6 +52,16 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
   }, [choice, onParameterChange, onUnitChange]);
   const label = parameterCatalogue[parameter].label;
   const units = unitOptions(parameter);
+  // What the livestock tolerate together is drawn too: a tank's limits can be wider than that, and
+  // its status judges both. Without it (still loading, or not to be had) the chart draws the limits.
+  const comfort = useComfortRange(tankId);
+  const tolerated = useMemo(() => {
+    const band = comfort.data?.ranges[parameter];
+    if (!band) return null;
+    const ids = new Set([...band.limitedBy.low, ...band.limitedBy.high]);
+    const species = (comfort.data?.species ?? []).filter((entry) => ids.has(entry.id));
+    return { min: band.min, max: band.max, species: species.map((entry) => entry.commonName) };
+  }, [comfort.data, parameter]);
 
   return (
     <section aria-labelledby="history-title" className="rounded-card bg-white p-4 shadow-card sm:p-6">
@@ -121,7 +133,12 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
                 <figure className="min-w-0">
                   <div className="relative h-72 sm:h-96" data-testid="readings-chart">
                     <Suspense fallback={<LoadingState label="Drawing the chart…" />}>
-                      <ReadingsChart parameter={parameter} unit={unit} history={history.data} />
+                      <ReadingsChart
+                        parameter={parameter}
+                        unit={unit}
+                        history={history.data}
+                        tolerated={tolerated}
+                      />
                     </Suspense>
                   </div>
                   <figcaption className="mt-3 text-sm text-ink-700">
@@ -143,6 +160,14 @@ export function ReadingsChartPanel(props: ReadingsChartPanelProps) {
                       </span>
                     ) : (
                       'This tank has no limits for it.'
+                    )}
+                    {tolerated && (
+                      <span data-testid="chart-livestock">
+                        {' '}
+                        Dotted lines: what the livestock tolerate together,{' '}
+                        {rangeSummary(parameter, tolerated, unit)}
+                        {tolerated.species.length > 0 && <> (set by the {joinWithAnd(tolerated.species)})</>}.
+                      </span>
                     )}
                   </figcaption>
                 </figure>

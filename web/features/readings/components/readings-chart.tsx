@@ -67,7 +67,9 @@ interface Point {
 
 interface Bands {
   /** In the chart's display unit. */
-  limits: ParameterLimits;
+  limits: ParameterLimits | null;
+  /** What every inhabitant tolerates, in the display unit; drawn as dotted lines. */
+  tolerated: { min: number; max: number } | null;
   unitLabel: (value: number) => string;
 }
 
@@ -79,11 +81,16 @@ interface Bands {
 const limitBands: Plugin<'line', Bands | undefined> = {
   id: 'limitBands',
   beforeDatasetsDraw(chart, _args, bands) {
-    if (!bands?.limits) return;
+    if (!bands) return;
     const { ctx, chartArea } = chart;
     const y = chart.scales.y;
     if (!y) return;
-    const { warnLow, warnHigh, critLow, critHigh } = bands.limits;
+    const { warnLow, warnHigh, critLow, critHigh } = bands.limits ?? {
+      warnLow: null,
+      warnHigh: null,
+      critLow: null,
+      critHigh: null,
+    };
     const px = (value: number) =>
       Math.min(chartArea.bottom, Math.max(chartArea.top, y.getPixelForValue(value)));
     const zone = (from: number, to: number, fill: string) => {
@@ -100,13 +107,19 @@ const limitBands: Plugin<'line', Bands | undefined> = {
     if (warnLow !== null)
       zone(px(warnLow), critLow === null ? chartArea.bottom : px(critLow), colours.watchFill);
     if (critLow !== null) zone(px(critLow), chartArea.bottom, colours.alertFill);
-    const line = (value: number | null, name: string, colour: string, below: boolean) => {
+    const line = (
+      value: number | null,
+      name: string,
+      colour: string,
+      below: boolean,
+      look: { dash: number[]; side: 'left' | 'right' } = { dash: [6, 4], side: 'right' },
+    ) => {
       if (value === null) return;
       const at = y.getPixelForValue(value);
       if (at < chartArea.top || at > chartArea.bottom) return;
       ctx.strokeStyle = colour;
       ctx.lineWidth = 1.5;
-      ctx.setLineDash([6, 4]);
+      ctx.setLineDash(look.dash);
       ctx.beginPath();
       ctx.moveTo(chartArea.left, at);
       ctx.lineTo(chartArea.right, at);
@@ -114,10 +127,25 @@ const limitBands: Plugin<'line', Bands | undefined> = {
       ctx.setLineDash([]);
       ctx.fillStyle = colour;
       ctx.font = 'bold 11px "Merriweather Sans", sans-serif';
-      ctx.textAlign = 'right';
+      ctx.textAlign = look.side;
       ctx.textBaseline = below ? 'top' : 'bottom';
-      ctx.fillText(`${name} ${bands.unitLabel(value)}`, chartArea.right - 4, at + (below ? 3 : -3));
+      const x = look.side === 'right' ? chartArea.right - 4 : chartArea.left + 4;
+      const text = `${name} ${bands.unitLabel(value)}`;
+      if (look.side === 'left') {
+        // On the left the readings run under the label: a light backing keeps it legible.
+        const width = ctx.measureText(text).width;
+        ctx.fillStyle = 'rgba(255, 255, 255, 0.85)';
+        ctx.fillRect(x - 2, below ? at + 2 : at - 16, width + 4, 14);
+        ctx.fillStyle = colour;
+      }
+      ctx.fillText(text, x, at + (below ? 3 : -3));
     };
+    // The livestock's range: dotted, labelled on the left, so it never hides a limit's label.
+    if (bands.tolerated) {
+      const livestock = { dash: [2, 3], side: 'left' as const };
+      line(bands.tolerated.max, 'Livestock max', colours.visit, false, livestock);
+      line(bands.tolerated.min, 'Livestock min', colours.visit, true, livestock);
+    }
     line(critHigh, 'Critical', colours.alertLine, false);
     // A warning label goes under its line unless the critical line sits right above it.
     const roomAbove =
@@ -135,6 +163,8 @@ interface ReadingsChartProps {
   parameter: ParameterKey;
   unit: string;
   history: ReadingHistory;
+  /** What the tank's livestock tolerate together, in the stored unit; null when nothing is known. */
+  tolerated?: { min: number; max: number } | null;
 }
 
 /** A symbol for the unit a reading was entered in, or the unit's own name if it is not one we know. */
@@ -169,7 +199,7 @@ function manualPoints(
     });
 }
 
-export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) {
+export function ReadingsChart({ parameter, unit, history, tolerated = null }: ReadingsChartProps) {
   const symbol = unitSymbol(parameter, unit);
   const label = parameterCatalogue[parameter].label;
 
@@ -299,6 +329,8 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
     const convert = (value: number) => displayValue(parameter, value, unit);
     // The axis shows the data and the warning band; a critical bound only once the data nears it.
     const shown = [...extent];
+    const toleratedShown = tolerated ? { min: convert(tolerated.min), max: convert(tolerated.max) } : null;
+    if (toleratedShown) shown.push(toleratedShown.min, toleratedShown.max);
     if (limits?.warnLow != null) shown.push(convert(limits.warnLow));
     if (limits?.warnHigh != null) shown.push(convert(limits.warnHigh));
     const dataLow = Math.min(...extent);
@@ -366,16 +398,15 @@ export function ReadingsChart({ parameter, unit, history }: ReadingsChartProps) 
           },
           filter: (item) => item.dataset.label !== 'Lowest' && item.dataset.label !== 'Range in each period',
         },
-        limitBands: limits
-          ? {
-              limits: limitsIn(parameter, limits, unit),
-              unitLabel: (value: number) =>
-                `${value.toFixed(unitDecimals(parameter, unit))}${symbol ? ` ${symbol}` : ''}`,
-            }
-          : undefined,
+        limitBands: {
+          limits: limits ? limitsIn(parameter, limits, unit) : null,
+          tolerated: toleratedShown,
+          unitLabel: (value: number) =>
+            `${value.toFixed(unitDecimals(parameter, unit))}${symbol ? ` ${symbol}` : ''}`,
+        },
       } as ChartOptions<'line'>['plugins'],
     };
-  }, [extent, history.from, history.to, label, limits, parameter, symbol, unit]);
+  }, [extent, history.from, history.to, label, limits, parameter, symbol, tolerated, unit]);
 
   return (
     <Chart

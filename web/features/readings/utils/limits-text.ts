@@ -19,3 +19,16 @@ export function limitsSummary(parameter: ParameterKey, limits: ParameterLimits, 
   const critical = band(limits.critLow, limits.critHigh);
   return [warning && `Warning ${warning}`, critical && `critical ${critical}`].filter(Boolean).join(' · ');
 }
+
+/** "7.00–7.80" (with its unit): the range every inhabitant tolerates, as the chart's unit shows it. */
+export function rangeSummary(
+  parameter: ParameterKey,
+  range: { min: number; max: number },
+  unit: string,
+): string {
+  const symbol = unitSymbol(parameter, unit);
+  const number = (value: number) =>
+    displayValue(parameter, value, unit).toFixed(unitDecimals(parameter, unit));
+  const text = `${number(range.min)}–${number(range.max)}`;
+  return symbol ? `${text} ${symbol}` : text;
+}

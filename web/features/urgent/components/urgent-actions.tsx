@@ -226,7 +226,8 @@ export function UrgentActions({
         {request.eta && (
           <>
             {' '}
-            · expected <time dateTime={request.eta}>{formatDateTime(request.eta, request.timeZone)}</time>
+            · arrival expected{' '}
+            <time dateTime={request.eta}>{formatDateTime(request.eta, request.timeZone)}</time>
           </>
         )}
         .

@@ -19,7 +19,12 @@ function AgeLine({ request, now }: { request: UrgentRequestView; now: number }) 
     return (
       <p className="text-sm text-ink-700">
         Open for <span className="font-bold text-ink-900">{formatAge(age)}</span>
-        {tookMs !== null && <> · acknowledged after {formatAge(tookMs)}</>}
+        {tookMs !== null && (
+          <>
+            {' '}
+            · acknowledged after {formatAge(tookMs)} (target {request.ackTargetMinutes} min)
+          </>
+        )}
       </p>
     );
   }
@@ -95,7 +100,8 @@ function BoardItem({
         {request.eta && state === 'open' && (
           <>
             {' '}
-            · expected <time dateTime={request.eta}>{formatDateTime(request.eta, request.timeZone)}</time>
+            · arrival expected{' '}
+            <time dateTime={request.eta}>{formatDateTime(request.eta, request.timeZone)}</time>
           </>
         )}
       </p>

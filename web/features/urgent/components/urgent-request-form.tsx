@@ -137,11 +137,13 @@ function CategoryField({ control }: { control: RequestForm['control'] }) {
 
 function RequestFields({
   tankId,
+  forOwners,
   form,
   draftSavedAt,
   onStartAgain,
 }: {
   tankId: string;
+  forOwners: boolean;
   form: RequestForm;
   draftSavedAt: string | null;
   onStartAgain: () => void;
@@ -197,7 +199,7 @@ function RequestFields({
         />
         <RequestPhotosField tankId={tankId} />
       </SectionCard>
-      <SectionCard title="Reaching you and the tank">
+      <SectionCard title={forOwners ? 'Reaching the owner and the tank' : 'Reaching you and the tank'}>
         <YesNoField<RequestFormValues> name="someoneOnSite" label="Is someone with the tank now?" />
         <TextAreaField<RequestFormValues>
           name="access"
@@ -208,7 +210,7 @@ function RequestFields({
         />
         <TextField<RequestFormValues>
           name="phone"
-          label="Phone number"
+          label={forOwners ? "The owner's phone number" : 'Phone number'}
           hint="With country code, e.g. +44 20 7946 0958"
           type="tel"
           autoComplete="tel"
@@ -218,7 +220,7 @@ function RequestFields({
         />
         <TextField<RequestFormValues>
           name="bestTime"
-          label="Best time to reach you (optional)"
+          label={forOwners ? 'Best time to reach them (optional)' : 'Best time to reach you (optional)'}
           hint="For example: any time, or after 17:00."
           maxLength={200}
           className="sm:max-w-md"
@@ -242,7 +244,15 @@ function RequestFields({
   );
 }
 
-function RequestFormBody({ tankId, draft }: { tankId: string; draft: RequestDraft | null }) {
+function RequestFormBody({
+  tankId,
+  draft,
+  forOwners,
+}: {
+  tankId: string;
+  draft: RequestDraft | null;
+  forOwners: boolean;
+}) {
   const navigate = useNavigate();
   const settings = useUrgentSettings();
   const create = useCreateUrgentRequest(tankId);
@@ -288,6 +298,7 @@ function RequestFormBody({ tankId, draft }: { tankId: string; draft: RequestDraf
     >
       <RequestFields
         tankId={tankId}
+        forOwners={forOwners}
         form={form}
         draftSavedAt={draftSavedAt}
         onStartAgain={() => {
@@ -305,7 +316,14 @@ function RequestFormBody({ tankId, draft }: { tankId: string; draft: RequestDraf
  * reach the owner and the tank, and the call-out fee before sending. Opens with whatever was typed
  * here before and not sent.
  */
-export function UrgentRequestForm({ tankId }: { tankId: string }) {
+export function UrgentRequestForm({
+  tankId,
+  forOwners = false,
+}: {
+  tankId: string;
+  /** Staff asking for the tank's owners (a request that came by phone): the contact is theirs. */
+  forOwners?: boolean;
+}) {
   const [draft, setDraft] = useState<{ tankId: string; draft: RequestDraft | null } | null>(null);
   useEffect(() => {
     let current = true;
@@ -319,5 +337,5 @@ export function UrgentRequestForm({ tankId }: { tankId: string }) {
     };
   }, [tankId]);
   if (draft?.tankId !== tankId) return <LoadingState label="Opening the form…" />;
-  return <RequestFormBody key={tankId} tankId={tankId} draft={draft.draft} />;
+  return <RequestFormBody key={tankId} tankId={tankId} draft={draft.draft} forOwners={forOwners} />;
 }

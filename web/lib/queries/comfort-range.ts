@@ -1,7 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ComfortRange } from '@shared/livestock/comfort-range';
-import { api } from '../../../lib/api-client';
-import { tankKeys } from '../../../lib/query-keys';
+import { api } from '../api-client';
+import { tankKeys } from '../query-keys';
+
+/*
+ * What a tank's livestock tolerate together: the livestock screen lists it and the readings chart
+ * draws it, so it lives below the features.
+ */
 
 export interface TankComfortRange extends ComfortRange {
   species: { id: string; commonName: string; scientificName: string }[];
