@@ -34,6 +34,11 @@ export interface WindowStats {
   readonly swingDays: number;
   /** Least-squares slope, in units per day; null with fewer than two distinct times. */
   readonly trendPerDay: number | null;
+  /**
+   * From the first sample to the last, in ms. Under a day, a slope "per day" would stretch a few
+   * hours' change into a day's: the change over this span is what to show instead.
+   */
+  readonly spanMs: number;
 }
 
 export function sampleOf(at: number, value: number): SeriesSample {
@@ -69,6 +74,7 @@ export function windowStats(samples: readonly SeriesSample[]): WindowStats | nul
     averageDailySwing: enoughDays ? meanOf(swings) : null,
     swingDays: enoughDays ? swings.length : 0,
     trendPerDay: trendPerDay(present),
+    spanMs: Math.max(...present.map((s) => s.at)) - Math.min(...present.map((s) => s.at)),
   };
 }
 

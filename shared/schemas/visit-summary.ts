@@ -23,7 +23,11 @@ export function reportSummary(report: VisitReportContent): string {
   }
   if (report.photos.length > 0)
     parts.push(`${report.photos.length} photo${report.photos.length === 1 ? '' : 's'}`);
-  return parts.length > 0 ? `${parts.join('; ')}.` : '';
+  // One sentence: only its first part starts with a capital ("Water change …; added, moved …").
+  const sentence = parts.map((part, index) =>
+    index === 0 ? part : `${part.charAt(0).toLowerCase()}${part.slice(1)}`,
+  );
+  return sentence.length > 0 ? `${sentence.join('; ')}.` : '';
 }
 
 const round = (value: number) => Math.round(value * 10) / 10;

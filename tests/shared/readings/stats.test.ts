@@ -31,6 +31,13 @@ describe('windowStats', () => {
     expect(stats!.mean).toBeCloseTo(26.1667, 4);
   });
 
+  it('says how long the readings span, so a few hours are not read as a day', () => {
+    const stats = windowStats([sampleOf(t0 + 2 * hourMs, 25.2), sampleOf(t0 + 11 * hourMs, 25)])!;
+    expect(stats.spanMs).toBe(9 * hourMs);
+    // 0.2 in 9 hours is about 0.53 a day: shown as the change over the span instead.
+    expect(stats.trendPerDay! * (stats.spanMs / (24 * hourMs))).toBeCloseTo(-0.2, 12);
+  });
+
   it('weights bucket means by their counts, so buckets give the raw mean', () => {
     const raw = Array.from({ length: 48 }, (_, i) => ({ at: t0 + i * hourMs, value: 8 + (i % 5) / 10 }));
     const buckets = [bucketOf(raw.slice(0, 10)), bucketOf(raw.slice(10, 40)), bucketOf(raw.slice(40))];

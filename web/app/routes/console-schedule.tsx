@@ -42,10 +42,10 @@ export function ConsoleScheduleRoute() {
       title={title}
       description={
         who === 'me'
-          ? 'Your visits, at the time on the clock where each tank is. Tap a visit for its report.'
+          ? 'Your visits, at the time on the clock where each tank is. Open a visit for its report.'
           : who === 'everyone'
-            ? 'Everyone’s visits. Tap a visit for its report.'
-            : 'One technician’s visits. Tap a visit for its report.'
+            ? 'Everyone’s visits. Open a visit for its report.'
+            : 'One technician’s visits. Open a visit for its report.'
       }
       actions={
         me && !planning ? (

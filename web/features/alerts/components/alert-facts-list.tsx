@@ -10,10 +10,14 @@ function When({ iso, now }: { iso: string; now: number }) {
   );
 }
 
+/**
+ * A term over its value. Each pair spans two rows of the list's grid (subgrid), so a term that wraps
+ * ("General hardness (GH)") lowers no value below its neighbours': values share a row.
+ */
 function Fact({ term, children }: { term: string; children: React.ReactNode }) {
   return (
-    <div className="min-w-0">
-      <dt className="text-xs font-bold uppercase tracking-wide text-ink-600">{term}</dt>
+    <div className="row-span-2 grid min-w-0 grid-rows-subgrid gap-y-0">
+      <dt className="self-end text-xs font-bold uppercase tracking-wide text-ink-600">{term}</dt>
       <dd className="text-ink-900">{children}</dd>
     </div>
   );

@@ -47,11 +47,20 @@ export function WindowStats({
   if (!stats) return null;
   const windowDays = (Date.parse(history.to) - Date.parse(history.from)) / 86_400_000;
   const trend = stats.trendPerDay;
+  // Readings less than a day apart: the change over the hours they span, not stretched to a day.
+  const spanDays = stats.spanMs / 86_400_000;
+  const withinDay = spanDays < 1;
   // The trend is written with one decimal more than the readings, as it is a change per day.
   const direction =
     trend === null
       ? null
-      : trendDirection(trend, { perDayDecimals: decimals + 1, valueDecimals: decimals, windowDays });
+      : trendDirection(
+          withinDay ? trend * spanDays : trend,
+          withinDay
+            ? { perDayDecimals: decimals, valueDecimals: decimals, windowDays: 1 }
+            : { perDayDecimals: decimals + 1, valueDecimals: decimals, windowDays },
+        );
+  const spanHours = Math.max(1, Math.round(stats.spanMs / 3_600_000));
   const rows: { term: string; value: string; hint?: string }[] = [
     {
       term: 'Latest',
@@ -76,11 +85,17 @@ export function WindowStats({
       ? { term: 'Trend', value: '—', hint: 'needs readings at two times' }
       : direction === 'steady'
         ? { term: 'Trend', value: 'steady' }
-        : {
-            term: 'Trend',
-            value: `${direction === 'rising' ? '+' : '−'}${number(Math.abs(trend), 1)} a day`,
-            hint: direction,
-          },
+        : withinDay
+          ? {
+              term: 'Trend',
+              value: `${direction === 'rising' ? '+' : '−'}${number(Math.abs(trend * spanDays))} in ${spanHours} h`,
+              hint: direction,
+            }
+          : {
+              term: 'Trend',
+              value: `${direction === 'rising' ? '+' : '−'}${number(Math.abs(trend), 1)} a day`,
+              hint: direction,
+            },
   ];
   return (
     <dl className="grid grid-cols-2 gap-x-4 gap-y-3 sm:grid-cols-3 lg:grid-cols-1">
