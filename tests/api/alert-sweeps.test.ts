@@ -39,6 +39,23 @@ describe('scheduled alert sweeps', () => {
     return device!;
   }
 
+  /** A device's temperature reports at the given epoch-ms times, stored straight into readings. */
+  async function deviceReports(device: { id: string }, times: readonly number[]) {
+    await stack.database.db.insert(readings).values(
+      times.map((at) => ({
+        companyId: tank.companyId,
+        tankId: tank.id,
+        deviceId: device.id,
+        parameter: 'temperature' as const,
+        value: 25,
+        enteredValue: 25,
+        enteredUnit: 'stored',
+        measuredAt: new Date(at),
+        source: 'device' as const,
+      })),
+    );
+  }
+
   it('opens one alert for a device silent for more than 30 minutes, and closes it when it reports again', async () => {
     const device = await addDevice(new Date(stack.clock.now().getTime() - minutes(31)));
 
@@ -83,21 +100,11 @@ describe('scheduled alert sweeps', () => {
   it('judges each device by its own reporting rhythm, all in one sweep', async () => {
     const now = stack.clock.now().getTime();
     // Eleven reports each: one device every 5 minutes (stale after 30), one every hour (after 3 h).
-    const reports = async (device: { id: string }, everyMin: number, lastMinAgo: number) => {
-      await stack.database.db.insert(readings).values(
-        Array.from({ length: 11 }, (_, i) => ({
-          companyId: tank.companyId,
-          tankId: tank.id,
-          deviceId: device.id,
-          parameter: 'temperature' as const,
-          value: 25,
-          enteredValue: 25,
-          enteredUnit: 'stored',
-          measuredAt: new Date(now - minutes(lastMinAgo + i * everyMin)),
-          source: 'device' as const,
-        })),
+    const reports = (device: { id: string }, everyMin: number, lastMinAgo: number) =>
+      deviceReports(
+        device,
+        Array.from({ length: 11 }, (_, i) => now - minutes(lastMinAgo + i * everyMin)),
       );
-    };
     const frequent = await addDevice(new Date(now - minutes(40)));
     const hourly = await addDevice(new Date(now - minutes(120)));
     await reports(frequent, 5, 40);
@@ -119,22 +126,10 @@ describe('scheduled alert sweeps', () => {
     const lastSeen = now - minutes(40);
     const device = await addDevice(new Date(lastSeen));
     // Hourly long ago, then one report 40 minutes ago: the old hours would set "stale after 3 h".
-    await stack.database.db.insert(readings).values(
-      [
-        lastSeen,
-        ...Array.from({ length: 10 }, (_, i) => lastSeen - reportingRhythmLookBackMs - minutes(60 * (i + 1))),
-      ].map((at) => ({
-        companyId: tank.companyId,
-        tankId: tank.id,
-        deviceId: device.id,
-        parameter: 'temperature' as const,
-        value: 25,
-        enteredValue: 25,
-        enteredUnit: 'stored',
-        measuredAt: new Date(at),
-        source: 'device' as const,
-      })),
-    );
+    await deviceReports(device, [
+      lastSeen,
+      ...Array.from({ length: 10 }, (_, i) => lastSeen - reportingRhythmLookBackMs - minutes(60 * (i + 1))),
+    ]);
 
     // One report in the window shows no rhythm, so the 30-minute default holds: silent at 40.
     expect(await sweepStaleDevices(stack.deps)).toHaveLength(1);
