@@ -128,6 +128,9 @@ const limitBands: Plugin<'line', Bands | undefined> = {
       ctx.fillStyle = colour;
       ctx.font = 'bold 11px "Merriweather Sans", sans-serif';
       ctx.textAlign = look.side;
+      // A label never leaves the plot: at its top edge it goes under its line, at its bottom over it.
+      if (!below && at - 14 < chartArea.top) below = true;
+      else if (below && at + 14 > chartArea.bottom) below = false;
       ctx.textBaseline = below ? 'top' : 'bottom';
       const x = look.side === 'right' ? chartArea.right - 4 : chartArea.left + 4;
       const text = `${name} ${bands.unitLabel(value)}`;
