@@ -159,6 +159,23 @@ describe('conversations in the browser', () => {
     await owner.getByRole('link', { name: 'Messages', exact: true }).waitFor({ timeout: liveWithinMs });
   });
 
+  it("asks an owner of several tanks which tank's conversation to open", async () => {
+    const riverTank = demoTankId('ashdown-river');
+    const owner = await signInAt(await session.newPage('phone'), '/tanks', 'helen@ashdown-home.test');
+    await owner
+      .getByRole('banner')
+      .getByRole('button', { name: /^Messages/ })
+      .click();
+    const which = owner.getByRole('dialog', { name: "Which tank's conversation?" });
+    await which.waitFor();
+    expect(await which.getByRole('link').count()).toBeGreaterThan(1);
+    await expectAxeClean(owner, 'the choice of conversation');
+    await screenshot(owner, 'conversations-choose-tank-phone');
+    await which.getByRole('link', { name: /^Kids' river tank/ }).click();
+    await owner.waitForURL(`**/tanks/${riverTank}/messages`);
+    await owner.getByRole('form', { name: 'Write a message' }).waitFor();
+  });
+
   it('opens a long conversation at its end and pages back to its start on request', async () => {
     const riverTank = demoTankId('ashdown-river');
     const owner = await signInAt(await session.newPage('desktop'), '/tanks', 'helen@ashdown-home.test');

@@ -1,5 +1,8 @@
+import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { NavLink } from 'react-router';
+import { Link, NavLink } from 'react-router';
+import { Button } from '../../../components/button';
+import { SheetDialog } from '../../../components/sheet-dialog';
 import { can, useMe } from '../../../lib/auth';
 import { formatCount } from '../../../lib/format';
 import { tanksQueryOptions } from '../../../lib/queries/tanks';
@@ -20,43 +23,108 @@ function ChatIcon() {
   );
 }
 
-/** Where "Messages" leads: staff to their inbox; an owner of one tank to its conversation, else to their tanks. */
-function useMessagesHref(isStaff: boolean): string {
-  // Only an owner's link depends on the tanks; staff would load the whole company's list for nothing.
-  const tanks = useQuery({ ...tanksQueryOptions(), enabled: !isStaff });
-  if (isStaff) return '/console/inbox';
-  const mine = tanks.data ?? [];
-  return mine.length === 1 ? `/tanks/${mine[0]!.id}/messages` : '/tanks';
+const buttonClass =
+  'relative inline-flex h-11 w-11 shrink-0 items-center justify-center rounded-lg text-white hover:bg-ink-800';
+
+function UnreadDot({ count }: { count: number }) {
+  if (count <= 0) return null;
+  return (
+    <span
+      aria-hidden="true"
+      className="absolute -right-0.5 -top-0.5 flex h-5 min-w-5 items-center justify-center rounded-full bg-brine-300 px-1 text-xs font-bold text-ink-950"
+    >
+      {count > 99 ? '99+' : count}
+    </span>
+  );
 }
 
-function MessagesLinkFor({ isStaff }: { isStaff: boolean }) {
-  const unread = useUnreadCounts();
-  const href = useMessagesHref(isStaff);
-  const count = unread.data?.total ?? 0;
+const labelFor = (count: number) => (count > 0 ? `Messages, ${formatCount(count)} unread` : 'Messages');
+
+/**
+ * An owner of several tanks has a conversation per tank: the button asks which, each tank with
+ * its unread count, rather than leading somewhere that is not about messages.
+ */
+function ChooseConversation({
+  tanks,
+  unread,
+}: {
+  tanks: readonly { id: string; name: string }[];
+  unread: { total: number; byTank: Record<string, number> } | undefined;
+}) {
+  const [asking, setAsking] = useState(false);
+  const total = unread?.total ?? 0;
+  return (
+    <>
+      <button
+        type="button"
+        aria-label={labelFor(total)}
+        aria-haspopup="dialog"
+        className={buttonClass}
+        onClick={() => setAsking(true)}
+      >
+        <ChatIcon />
+        <UnreadDot count={total} />
+      </button>
+      {asking && (
+        <SheetDialog title="Which tank's conversation?" onClose={() => setAsking(false)}>
+          <ul className="grid gap-2">
+            {tanks.map((tank) => {
+              const count = unread?.byTank[tank.id] ?? 0;
+              return (
+                <li key={tank.id}>
+                  <Link
+                    to={`/tanks/${tank.id}/messages`}
+                    onClick={() => setAsking(false)}
+                    className="flex min-h-14 items-center justify-between gap-2 rounded-lg border-2 border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:border-ink-700"
+                  >
+                    {tank.name}
+                    <span className="text-sm font-normal text-ink-700">
+                      {count > 0 ? `${formatCount(count)} unread` : 'no new messages'}
+                    </span>
+                  </Link>
+                </li>
+              );
+            })}
+          </ul>
+          <div className="mt-4 flex justify-end">
+            <Button tone="secondary" onClick={() => setAsking(false)}>
+              Cancel
+            </Button>
+          </div>
+        </SheetDialog>
+      )}
+    </>
+  );
+}
+
+/** "Messages" for staff (their inbox) and for an owner of one tank (its conversation). */
+function MessagesLinkTo({ href, count }: { href: string; count: number }) {
   return (
     <NavLink
       to={href}
       end
-      aria-label={count > 0 ? `Messages, ${formatCount(count)} unread` : 'Messages'}
-      // An owner of several tanks is led to their tanks, where each card says what is unread: that
-      // page is "My tanks", not this button's own.
+      aria-label={labelFor(count)}
+      // Before an owner's tanks have loaded it leads to them; that page is "My tanks", not this one.
       aria-current={href === '/tanks' ? false : undefined}
-      className={({ isActive }) =>
-        `relative inline-flex h-11 w-11 shrink-0 items-center justify-center rounded-lg text-white hover:bg-ink-800 ${
-          isActive && href !== '/tanks' ? 'bg-ink-800' : ''
-        }`
-      }
+      className={({ isActive }) => `${buttonClass} ${isActive && href !== '/tanks' ? 'bg-ink-800' : ''}`}
     >
       <ChatIcon />
-      {count > 0 && (
-        <span
-          aria-hidden="true"
-          className="absolute -right-0.5 -top-0.5 flex h-5 min-w-5 items-center justify-center rounded-full bg-brine-300 px-1 text-xs font-bold text-ink-950"
-        >
-          {count > 99 ? '99+' : count}
-        </span>
-      )}
+      <UnreadDot count={count} />
     </NavLink>
+  );
+}
+
+function MessagesLinkFor({ isStaff }: { isStaff: boolean }) {
+  const unread = useUnreadCounts();
+  // Only an owner's button depends on the tanks; staff would load the whole company's list for nothing.
+  const tanks = useQuery({ ...tanksQueryOptions(), enabled: !isStaff });
+  const count = unread.data?.total ?? 0;
+  if (isStaff) return <MessagesLinkTo href="/console/inbox" count={count} />;
+  const mine = tanks.data ?? [];
+  if (mine.length > 1) return <ChooseConversation tanks={mine} unread={unread.data} />;
+  // One tank: straight to its conversation (while the list loads, to the tanks).
+  return (
+    <MessagesLinkTo href={mine.length === 1 ? `/tanks/${mine[0]!.id}/messages` : '/tanks'} count={count} />
   );
 }
 
