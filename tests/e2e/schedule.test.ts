@@ -269,7 +269,7 @@ describe('the schedule and visit reports in the browser', () => {
     );
     expect(await report.getByText('Water change:').count()).toBe(1);
     expect(await report.getByText('25 % (30 L)', { exact: false }).count()).toBe(1);
-    expect(await report.getByText('Liquid plant food: 250 ml').count()).toBe(1);
+    expect(await report.getByText('Liquid plant food: 250 mL').count()).toBe(1);
     expect(await report.getByText('Tomas Lindqvist').count()).toBeGreaterThan(0);
     expect(await report.getByText('Bring a new impeller').count()).toBe(1);
     expect(await report.getByText('24.6 °C').count()).toBe(1);

@@ -216,7 +216,7 @@ function DosingFields() {
           <DecimalField<ReportFormValues>
             name={`dosingRefills.${index}.amountMl`}
             label="Amount"
-            suffix="ml"
+            suffix="mL"
           />
           <Button tone="secondary" className="col-span-2 sm:col-span-1" onClick={() => remove(index)}>
             Remove

@@ -150,7 +150,7 @@ export function ReportBody({
           <ul className="grid gap-1">
             {content.dosingRefills.map((refill, index) => (
               <li key={index}>
-                {refill.container}: {formatNumber(refill.amountMl, 0)} ml
+                {refill.container}: {formatNumber(refill.amountMl, 0)}&nbsp;mL
               </li>
             ))}
           </ul>
