@@ -1,8 +1,7 @@
 import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Link, NavLink } from 'react-router';
-import { Button } from '../../../components/button';
-import { SheetDialog } from '../../../components/sheet-dialog';
+import { NavLink } from 'react-router';
+import { TankChoiceSheet } from '../../../components/tank-choice-sheet';
 import { can, useMe } from '../../../lib/auth';
 import { formatCount } from '../../../lib/format';
 import { tanksQueryOptions } from '../../../lib/queries/tanks';
@@ -66,32 +65,16 @@ function ChooseConversation({
         <UnreadDot count={total} />
       </button>
       {asking && (
-        <SheetDialog title="Which tank's conversation?" onClose={() => setAsking(false)}>
-          <ul className="grid gap-2">
-            {tanks.map((tank) => {
-              const count = unread?.byTank[tank.id] ?? 0;
-              return (
-                <li key={tank.id}>
-                  <Link
-                    to={`/tanks/${tank.id}/messages`}
-                    onClick={() => setAsking(false)}
-                    className="flex min-h-14 items-center justify-between gap-2 rounded-lg border-2 border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:border-ink-700"
-                  >
-                    {tank.name}
-                    <span className="text-sm font-normal text-ink-700">
-                      {count > 0 ? `${formatCount(count)} unread` : 'no new messages'}
-                    </span>
-                  </Link>
-                </li>
-              );
-            })}
-          </ul>
-          <div className="mt-4 flex justify-end">
-            <Button tone="secondary" onClick={() => setAsking(false)}>
-              Cancel
-            </Button>
-          </div>
-        </SheetDialog>
+        <TankChoiceSheet
+          title="Which tank's conversation?"
+          tanks={tanks}
+          hrefOf={(tank) => `/tanks/${tank.id}/messages`}
+          asideOf={(tank) => {
+            const count = unread?.byTank[tank.id] ?? 0;
+            return count > 0 ? `${formatCount(count)} unread` : 'no new messages';
+          }}
+          onClose={() => setAsking(false)}
+        />
       )}
     </>
   );

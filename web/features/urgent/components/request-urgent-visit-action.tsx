@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router';
 import { Button } from '../../../components/button';
-import { SheetDialog } from '../../../components/sheet-dialog';
+import { TankChoiceSheet } from '../../../components/tank-choice-sheet';
 import { useOpenTankUrgentRequest } from '../api/list-urgent-requests';
 import { UrgentStatusBadge } from './urgent-status-badge';
 
@@ -40,26 +40,12 @@ export function RequestUrgentVisitAction({ tanks }: { tanks: readonly { id: stri
         Request an urgent visit
       </Button>
       {asking && (
-        <SheetDialog title="Which tank needs help?" onClose={() => setAsking(false)}>
-          <ul className="grid gap-2">
-            {tanks.map((tank) => (
-              <li key={tank.id}>
-                <Link
-                  to={`/tanks/${tank.id}/urgent`}
-                  className="flex min-h-14 items-center justify-between gap-2 rounded-lg border-2 border-ink-300 bg-white px-4 font-bold text-ink-900 no-underline hover:border-ink-700"
-                >
-                  {tank.name}
-                  <span aria-hidden="true">→</span>
-                </Link>
-              </li>
-            ))}
-          </ul>
-          <div className="mt-4 flex justify-end">
-            <Button tone="secondary" onClick={() => setAsking(false)}>
-              Cancel
-            </Button>
-          </div>
-        </SheetDialog>
+        <TankChoiceSheet
+          title="Which tank needs help?"
+          tanks={tanks}
+          hrefOf={(tank) => `/tanks/${tank.id}/urgent`}
+          onClose={() => setAsking(false)}
+        />
       )}
     </>
   );
